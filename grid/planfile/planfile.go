@@ -1,0 +1,522 @@
+// Package planfile reads and writes gridloom plan files, JSON or YAML with
+// the same keys (see the README's plan file reference).
+//
+// Security: Decode takes untrusted bytes. It refuses input over MaxSize,
+// unknown keys, duplicate keys, values of the wrong type, numbers that are
+// not finite or not whole where a count is wanted, and YAML whose aliases
+// expand past a bound, so the plan it returns is small and well-typed. It
+// does not judge values: grid.Compute does, with findings.
+package planfile
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"slices"
+	"strconv"
+	"strings"
+
+	"go.yaml.in/yaml/v3"
+
+	"gridloom/grid"
+)
+
+// MaxSize is the largest plan file accepted, in bytes.
+const MaxSize = 1 << 20
+
+// maxNumber bounds whole numbers so that no later arithmetic can overflow;
+// every legal value of a plan is far smaller.
+const maxNumber = 1 << 31
+
+// FieldError is a problem with one field of a plan file. Field is the path
+// as the plan spells it ("partitions[2].scsKHz"); empty for the whole file.
+type FieldError struct {
+	Field string
+	Msg   string
+}
+
+func (e *FieldError) Error() string {
+	if e.Field == "" {
+		return e.Msg
+	}
+	return e.Field + ": " + e.Msg
+}
+
+// Errors is every FieldError found in one file, in file order.
+type Errors []*FieldError
+
+func (es Errors) Error() string {
+	msgs := make([]string, len(es))
+	for i, e := range es {
+		msgs[i] = e.Error()
+	}
+	return strings.Join(msgs, "; ")
+}
+
+// Format is a plan file's syntax.
+type Format int
+
+// Formats.
+const (
+	JSON Format = iota
+	YAML
+)
+
+// Sniff guesses the format of data: JSON when it starts with '{' after
+// white space, YAML otherwise.
+func Sniff(data []byte) Format {
+	if t := bytes.TrimLeft(data, " \t\r\n\ufeff"); len(t) > 0 && t[0] == '{' {
+		return JSON
+	}
+	return YAML
+}
+
+// Decode reads a plan file in either format.
+func Decode(data []byte) (grid.Plan, error) {
+	if Sniff(data) == JSON {
+		return DecodeJSON(data)
+	}
+	return DecodeYAML(data)
+}
+
+// DecodeJSON reads a JSON plan file.
+func DecodeJSON(data []byte) (grid.Plan, error) {
+	if len(data) > MaxSize {
+		return grid.Plan{}, tooLarge(len(data))
+	}
+	tree, err := jsonTree(data)
+	if err != nil {
+		return grid.Plan{}, &FieldError{Msg: "The plan is not valid JSON: " + err.Error() + "."}
+	}
+	return FromTree(tree)
+}
+
+// DecodeYAML reads a YAML plan file.
+func DecodeYAML(data []byte) (grid.Plan, error) {
+	if len(data) > MaxSize {
+		return grid.Plan{}, tooLarge(len(data))
+	}
+	var doc yaml.Node
+	if err := yaml.Unmarshal(data, &doc); err != nil {
+		return grid.Plan{}, &FieldError{Msg: "The plan is not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: ") + "."}
+	}
+	if doc.Kind == 0 {
+		return grid.Plan{}, &FieldError{Msg: "The plan file is empty."}
+	}
+	budget := maxNodes
+	tree, err := yamlTree(&doc, &budget, 0)
+	if err != nil {
+		return grid.Plan{}, err
+	}
+	return FromTree(tree)
+}
+
+func tooLarge(n int) error {
+	return &FieldError{Msg: fmt.Sprintf("The plan file is %d bytes; at most %d bytes are accepted.", n, MaxSize)}
+}
+
+// A tree is a decoded document: map[string]any, []any, string, number,
+// bool or nil. Both syntaxes become a tree, and one walk reads a plan
+// from it, so JSON and YAML accept exactly the same plans.
+type number string
+
+const (
+	maxNodes = 100000 // YAML nodes after alias expansion
+	maxDepth = 64
+)
+
+func jsonTree(data []byte) (any, error) {
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.UseNumber()
+	v, err := jsonValue(dec, 0)
+	if err != nil {
+		return nil, err
+	}
+	if _, err := dec.Token(); err != io.EOF {
+		return nil, errors.New("there is more after the end of the plan object")
+	}
+	return v, nil
+}
+
+func jsonValue(dec *json.Decoder, depth int) (any, error) {
+	if depth > maxDepth {
+		return nil, fmt.Errorf("it nests deeper than %d levels", maxDepth)
+	}
+	tok, err := dec.Token()
+	if err != nil {
+		if err == io.EOF {
+			return nil, errors.New("it ends early")
+		}
+		return nil, err
+	}
+	switch t := tok.(type) {
+	case json.Delim:
+		switch t {
+		case '{':
+			m := map[string]any{}
+			for dec.More() {
+				kt, err := dec.Token()
+				if err != nil {
+					return nil, err
+				}
+				k := kt.(string)
+				if _, dup := m[k]; dup {
+					return nil, fmt.Errorf("the key %q appears twice in one object", k)
+				}
+				v, err := jsonValue(dec, depth+1)
+				if err != nil {
+					return nil, err
+				}
+				m[k] = v
+			}
+			_, err := dec.Token()
+			return m, err
+		case '[':
+			var a []any
+			for dec.More() {
+				v, err := jsonValue(dec, depth+1)
+				if err != nil {
+					return nil, err
+				}
+				a = append(a, v)
+			}
+			_, err := dec.Token()
+			return a, err
+		}
+		return nil, fmt.Errorf("unexpected %v", t)
+	case json.Number:
+		return number(t), nil
+	default:
+		return t, nil // string, bool or nil
+	}
+}
+
+func yamlTree(n *yaml.Node, budget *int, depth int) (any, error) {
+	*budget--
+	if *budget < 0 {
+		return nil, &FieldError{Msg: fmt.Sprintf("The YAML plan expands to more than %d nodes (aliases?); write it out plainly.", maxNodes)}
+	}
+	if depth > maxDepth {
+		return nil, &FieldError{Msg: fmt.Sprintf("The YAML plan nests deeper than %d levels.", maxDepth)}
+	}
+	switch n.Kind {
+	case yaml.DocumentNode:
+		if len(n.Content) == 0 {
+			return nil, nil
+		}
+		return yamlTree(n.Content[0], budget, depth+1)
+	case yaml.AliasNode:
+		return yamlTree(n.Alias, budget, depth+1)
+	case yaml.SequenceNode:
+		a := make([]any, 0, len(n.Content))
+		for _, c := range n.Content {
+			v, err := yamlTree(c, budget, depth+1)
+			if err != nil {
+				return nil, err
+			}
+			a = append(a, v)
+		}
+		return a, nil
+	case yaml.MappingNode:
+		m := make(map[string]any, len(n.Content)/2)
+		for i := 0; i+1 < len(n.Content); i += 2 {
+			k, v := n.Content[i], n.Content[i+1]
+			if k.Kind != yaml.ScalarNode {
+				return nil, &FieldError{Msg: fmt.Sprintf("Line %d: a key must be plain text or a number.", k.Line)}
+			}
+			if k.Tag == "!!merge" {
+				return nil, &FieldError{Msg: fmt.Sprintf("Line %d: YAML merge keys (<<) are not accepted in a plan.", k.Line)}
+			}
+			if _, dup := m[k.Value]; dup {
+				return nil, &FieldError{Msg: fmt.Sprintf("Line %d: the key %q appears twice in one mapping.", k.Line, k.Value)}
+			}
+			val, err := yamlTree(v, budget, depth+1)
+			if err != nil {
+				return nil, err
+			}
+			m[k.Value] = val
+		}
+		return m, nil
+	case yaml.ScalarNode:
+		switch n.Tag {
+		case "!!null":
+			return nil, nil
+		case "!!bool":
+			var b bool
+			if err := n.Decode(&b); err != nil {
+				return nil, &FieldError{Msg: fmt.Sprintf("Line %d: %v.", n.Line, err)}
+			}
+			return b, nil
+		case "!!int":
+			var i int64
+			if err := n.Decode(&i); err != nil {
+				return number(n.Value), nil // too large for int64: the walk refuses it by size
+			}
+			return number(strconv.FormatInt(i, 10)), nil
+		case "!!float":
+			var f float64
+			if err := n.Decode(&f); err != nil {
+				return nil, &FieldError{Msg: fmt.Sprintf("Line %d: %q is not a number.", n.Line, n.Value)}
+			}
+			return number(strconv.FormatFloat(f, 'g', -1, 64)), nil
+		}
+		return n.Value, nil
+	}
+	return nil, &FieldError{Msg: "The YAML plan holds a node of an unknown kind."}
+}
+
+// FromTree reads a plan from a decoded document; see the package doc.
+func FromTree(tree any) (grid.Plan, error) {
+	var w walker
+	p := w.plan(tree)
+	if len(w.errs) > 0 {
+		return grid.Plan{}, w.errs
+	}
+	return p, nil
+}
+
+type walker struct{ errs Errors }
+
+func (w *walker) fail(field, format string, args ...any) {
+	w.errs = append(w.errs, &FieldError{Field: field, Msg: fmt.Sprintf(format, args...)})
+}
+
+// object returns m's keys checked against the known ones.
+func (w *walker) object(v any, field string, known ...string) map[string]any {
+	m, ok := v.(map[string]any)
+	if !ok {
+		w.fail(field, "want an object with keys %s, got %s.", strings.Join(known, ", "), describe(v))
+		return nil
+	}
+	keys := make([]string, 0, len(m))
+	for k := range m {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	for _, k := range keys {
+		if !slices.Contains(known, k) {
+			w.fail(join(field, k), "unknown key %q; the keys here are %s.", k, strings.Join(known, ", "))
+		}
+	}
+	return m
+}
+
+func join(field, key string) string {
+	if field == "" {
+		return key
+	}
+	return field + "." + key
+}
+
+func describe(v any) string {
+	switch t := v.(type) {
+	case nil:
+		return "null"
+	case string:
+		if len(t) > 40 {
+			t = t[:40] + "…"
+		}
+		return fmt.Sprintf("the text %q", t)
+	case number:
+		return "the number " + string(t)
+	case bool:
+		return fmt.Sprintf("%v", t)
+	case []any:
+		return "a list"
+	case map[string]any:
+		return "an object"
+	}
+	return fmt.Sprintf("%T", v)
+}
+
+func (w *walker) str(v any, field string) string {
+	switch t := v.(type) {
+	case nil:
+		return ""
+	case string:
+		return t
+	}
+	w.fail(field, "want text, got %s.", describe(v))
+	return ""
+}
+
+func (w *walker) float(v any, field string) (float64, bool) {
+	n, ok := v.(number)
+	if !ok {
+		w.fail(field, "want a number, got %s.", describe(v))
+		return 0, false
+	}
+	f, err := strconv.ParseFloat(string(n), 64)
+	if err != nil || math.IsNaN(f) || math.IsInf(f, 0) {
+		w.fail(field, "want a finite number, got %s.", string(n))
+		return 0, false
+	}
+	return f, true
+}
+
+func (w *walker) integer(v any, field string) (int, bool) {
+	f, ok := w.float(v, field)
+	if !ok {
+		return 0, false
+	}
+	if f != math.Trunc(f) {
+		w.fail(field, "want a whole number, got %v.", f)
+		return 0, false
+	}
+	if math.Abs(f) >= maxNumber {
+		w.fail(field, "%v is far outside any value this field allows.", f)
+		return 0, false
+	}
+	return int(f), true
+}
+
+func (w *walker) optInt(v any, field string) *int {
+	if v == nil {
+		return nil
+	}
+	if i, ok := w.integer(v, field); ok {
+		return &i
+	}
+	return nil
+}
+
+func (w *walker) optFloat(v any, field string) *float64 {
+	if v == nil {
+		return nil
+	}
+	if f, ok := w.float(v, field); ok {
+		return &f
+	}
+	return nil
+}
+
+func (w *walker) intOr0(v any, field string) int {
+	if v == nil {
+		return 0
+	}
+	i, _ := w.integer(v, field)
+	return i
+}
+
+// scsMap reads {"15": 0, "30": 1}: subcarrier spacing in kHz → a count.
+func (w *walker) scsMap(v any, field string) map[int]int {
+	if v == nil {
+		return nil
+	}
+	m, ok := v.(map[string]any)
+	if !ok {
+		w.fail(field, "want an object from subcarrier spacing in kHz to a number of CRBs, like {\"15\": 0, \"30\": 1}; got %s.", describe(v))
+		return nil
+	}
+	out := make(map[int]int, len(m))
+	for _, k := range sortedKeys(m) {
+		scs, err := strconv.Atoi(k)
+		if err != nil || scs <= 0 || scs > 960 {
+			w.fail(join(field, k), "the key %q is not a subcarrier spacing; use 15, 30, 60, 120, 480 or 960.", k)
+			continue
+		}
+		if n, ok := w.integer(m[k], join(field, k)); ok {
+			out[scs] = n
+		}
+	}
+	return out
+}
+
+func sortedKeys(m map[string]any) []string {
+	keys := make([]string, 0, len(m))
+	for k := range m {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	return keys
+}
+
+func (w *walker) plan(v any) grid.Plan {
+	m := w.object(v, "", "name", "spanMs", "carrier", "partitions", "numerologyGapKHz")
+	if m == nil {
+		return grid.Plan{}
+	}
+	p := grid.Plan{
+		Name:             w.str(m["name"], "name"),
+		SpanMs:           w.intOr0(m["spanMs"], "spanMs"),
+		NumerologyGapKHz: w.optFloat(m["numerologyGapKHz"], "numerologyGapKHz"),
+	}
+	if c := m["carrier"]; c != nil {
+		p.Carrier = w.carrier(c)
+	}
+	switch ps := m["partitions"].(type) {
+	case nil:
+	case []any:
+		if len(ps) > grid.MaxPartitions*4 {
+			w.fail("partitions", "%d partitions is far beyond the limit of %d.", len(ps), grid.MaxPartitions)
+			break
+		}
+		for i, pv := range ps {
+			p.Partitions = append(p.Partitions, w.partition(pv, fmt.Sprintf("partitions[%d]", i)))
+		}
+	default:
+		w.fail("partitions", "want a list of partitions, got %s.", describe(ps))
+	}
+	return p
+}
+
+func (w *walker) carrier(v any) grid.CarrierPlan {
+	m := w.object(v, "carrier", "range", "bandwidthMHz", "centerMHz", "arfcn", "offsetToCarrier", "carrierBandwidth")
+	if m == nil {
+		return grid.CarrierPlan{}
+	}
+	c := grid.CarrierPlan{
+		Range:            w.str(m["range"], "carrier.range"),
+		BandwidthMHz:     w.intOr0(m["bandwidthMHz"], "carrier.bandwidthMHz"),
+		CenterMHz:        w.optFloat(m["centerMHz"], "carrier.centerMHz"),
+		ARFCN:            w.optInt(m["arfcn"], "carrier.arfcn"),
+		OffsetToCarrier:  w.scsMap(m["offsetToCarrier"], "carrier.offsetToCarrier"),
+		CarrierBandwidth: w.scsMap(m["carrierBandwidth"], "carrier.carrierBandwidth"),
+	}
+	return c
+}
+
+func (w *walker) partition(v any, f string) grid.PartitionPlan {
+	m := w.object(v, f, "name", "scsKHz", "cp", "startCrb", "sizePrb", "locationAndBandwidth", "direction", "layers", "modulation")
+	if m == nil {
+		return grid.PartitionPlan{}
+	}
+	pp := grid.PartitionPlan{
+		Name:                 w.str(m["name"], f+".name"),
+		SCSKHz:               w.intOr0(m["scsKHz"], f+".scsKHz"),
+		CP:                   w.str(m["cp"], f+".cp"),
+		StartCRB:             w.optInt(m["startCrb"], f+".startCrb"),
+		SizePRB:              w.intOr0(m["sizePrb"], f+".sizePrb"),
+		LocationAndBandwidth: w.optInt(m["locationAndBandwidth"], f+".locationAndBandwidth"),
+		Direction:            w.str(m["direction"], f+".direction"),
+		Layers:               w.intOr0(m["layers"], f+".layers"),
+		Modulation:           w.str(m["modulation"], f+".modulation"),
+	}
+	return pp
+}
+
+// EncodeJSON writes p as an indented JSON plan file.
+func EncodeJSON(p grid.Plan) ([]byte, error) {
+	b, err := json.MarshalIndent(p, "", "  ")
+	if err != nil {
+		return nil, err
+	}
+	return append(b, '\n'), nil
+}
+
+// EncodeYAML writes p as a YAML plan file.
+func EncodeYAML(p grid.Plan) ([]byte, error) {
+	var buf bytes.Buffer
+	enc := yaml.NewEncoder(&buf)
+	enc.SetIndent(2)
+	if err := enc.Encode(p); err != nil {
+		return nil, err
+	}
+	if err := enc.Close(); err != nil {
+		return nil, err
+	}
+	return buf.Bytes(), nil
+}
