@@ -1,0 +1,51 @@
+package grid
+
+import "testing"
+
+func TestARFCN(t *testing.T) {
+	for _, c := range []struct {
+		n    int
+		f    Hz
+		note string
+	}{
+		// The ends of each row of TS 38.104 Table 5.4.2.1-1.
+		{0, 0, "first point of the 5 kHz raster"},
+		{599999, 2999.995e6, "last point of the 5 kHz raster"},
+		{600000, 3000e6, "F_REF-Offs of the 15 kHz raster"},
+		{2016666, 24249.99e6, "last point of the 15 kHz raster"},
+		{2016667, 24250.08e6, "F_REF-Offs of the 60 kHz raster"},
+		{3279165, 99999.96e6, "last NR-ARFCN"},
+		// Worked by hand from the table's formula; the pairs are common in
+		// public configurations (from memory).
+		{428000, 2140e6, "5 kHz raster"},
+		{620000, 3300e6, "15 kHz raster"},
+		{650000, 3750e6, "15 kHz raster"},
+		{640008, 3600.12e6, "15 kHz raster"},
+		{641280, 3619.2e6, "15 kHz raster"},
+		{2079167, 28000.08e6, "60 kHz raster"},
+	} {
+		f, ok := ARFCNFrequency(c.n)
+		if !ok || f != c.f {
+			t.Errorf("ARFCNFrequency(%d) = %v MHz, %v; want %v MHz (%s)", c.n, f.MHz(), ok, c.f.MHz(), c.note)
+		}
+		n, on := FrequencyARFCN(c.f)
+		if !on || n != c.n {
+			t.Errorf("FrequencyARFCN(%v MHz) = %d, %v; want %d (%s)", c.f.MHz(), n, on, c.n, c.note)
+		}
+	}
+}
+
+func TestARFCNOffRaster(t *testing.T) {
+	for _, f := range []Hz{3750.007e6, 2140.001e6, 24250e6, 28000.1e6, 100001e6, -5e3} {
+		if n, on := FrequencyARFCN(f); on {
+			t.Errorf("FrequencyARFCN(%v MHz) = %d on the raster; want off", f.MHz(), n)
+		}
+	}
+	if _, ok := ARFCNFrequency(MaxARFCN + 1); ok {
+		t.Errorf("ARFCNFrequency(%d) accepted; want refused", MaxARFCN+1)
+	}
+	below, above, ok := NearestARFCN(3750.007e6)
+	if !ok || below != 650000 || above != 650001 {
+		t.Errorf("NearestARFCN(3750.007 MHz) = %d, %d, %v; want 650000, 650001", below, above, ok)
+	}
+}
