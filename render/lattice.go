@@ -1,0 +1,198 @@
+package render
+
+import (
+	"fmt"
+	"strings"
+
+	svg "github.com/ajstarks/svgo"
+
+	"gridloom/grid"
+)
+
+// Level-of-detail thresholds. Lines closer than minLineGap merge into a
+// grey blur on screen and on paper, so a coarser step is drawn instead;
+// a cyclic prefix narrower than minStrip cannot be seen as a strip.
+const (
+	minLineGap = 4.0 // px
+	minStrip   = 1.0 // px
+)
+
+// rowSteps are the PRB steps tried for the row lines, finest first.
+var rowSteps = []int{1, 2, 5, 10, 20, 50, 100, 200, 500}
+
+// detail is what is drawn of one partition at the figure's scale.
+type detail struct {
+	rowStep int  // PRBs between row lines
+	symbols bool // a line at every symbol boundary
+	slots   bool // a line at every slot boundary
+	cp      bool // a strip over every cyclic prefix (all but the long ones)
+	longCP  bool // a strip over the longer CP of each 0.5 ms's first symbol
+	hasLong bool // the numerology has longer CPs (normal CP)
+}
+
+// chooseDetail picks the finest detail whose lines stay minLineGap apart
+// and whose strips are at least minStrip wide. It is closed-form: the cost
+// of deciding does not depend on the number of symbols or PRBs.
+func chooseDetail(l grid.Lattice, f frame) detail {
+	n := l.Numerology
+	var d detail
+	prbPx := float64(12*n.SCS()) * f.pxPerHz()
+	d.rowStep = rowSteps[len(rowSteps)-1]
+	for _, s := range rowSteps {
+		if float64(s)*prbPx >= minLineGap {
+			d.rowStep = s
+			break
+		}
+	}
+	// The shortest symbol and slot: those without a longer CP.
+	symPx := float64(n.UsefulTc()+n.CPTc(1)) * f.pxPerTc()
+	d.symbols = symPx >= minLineGap
+	d.slots = symPx*float64(n.SymbolsPerSlot()) >= minLineGap
+	d.hasLong = n.CPTc(0) != n.CPTc(1)
+	d.cp = float64(n.CPTc(1))*f.pxPerTc() >= minStrip
+	d.longCP = d.hasLong && float64(n.CPTc(0))*f.pxPerTc() >= minStrip
+	return d
+}
+
+// describe says in words what d draws, for the legend.
+func (d detail) describe(sizePRB int) string {
+	var parts []string
+	switch {
+	case d.rowStep >= sizePRB && sizePRB > 1:
+		parts = append(parts, "PRB rows omitted at this scale")
+	case d.rowStep == 1:
+		parts = append(parts, "rows every PRB")
+	default:
+		parts = append(parts, fmt.Sprintf("rows every %d PRBs", d.rowStep))
+	}
+	switch {
+	case d.symbols:
+		parts = append(parts, "symbol and slot lines")
+	case d.slots:
+		parts = append(parts, "slot lines; symbol lines omitted at this scale")
+	default:
+		parts = append(parts, "symbol and slot lines omitted at this scale, 0.5 ms marks only")
+	}
+	switch {
+	case d.cp && d.hasLong:
+		parts = append(parts, "CP strips, longer CP darker")
+	case d.cp:
+		parts = append(parts, "CP strips")
+	case d.longCP:
+		parts = append(parts, "only the longer CP strips (others under 1 px)")
+	default:
+		parts = append(parts, "CP strips omitted (under 1 px)")
+	}
+	return strings.Join(parts, " · ")
+}
+
+// drawPartition draws lattice l, number i of the result, in its gl-part
+// group: the filled body, then one path per line kind with one segment per
+// drawn line.
+func drawPartition(s *svg.SVG, f frame, i int, l grid.Lattice, d detail) {
+	colour := partColour(i)
+	top, bottom := f.Y(l.High), f.Y(l.Low)
+	left, right := float64(f.x), f.right()
+	span := f.span
+	half := grid.TcPerHalfFrame
+
+	s.Group(`class="gl-part"`, fmt.Sprintf(`data-index="%d"`, i))
+
+	var body pathData
+	body.rect(left, top, right, bottom)
+	s.Path(body.String(), `class="gl-body"`, `fill="url(#`+fillID(i)+`)"`,
+		`stroke="`+colour+`"`, `stroke-width="1.2"`)
+
+	n := l.Numerology
+	count := l.SymbolCount()
+
+	// Cyclic prefixes: each strip is one stroke as wide as the CP, centred
+	// on it, so a strip is a single segment.
+	cpW, longW := float64(n.CPTc(1))*f.pxPerTc(), float64(n.CPTc(0))*f.pxPerTc()
+	var normal, long pathData
+	if d.cp {
+		for k := range count {
+			sym := n.SymbolAt(k)
+			if sym.Start >= span {
+				break
+			}
+			if !d.hasLong || sym.CP == n.CPTc(1) {
+				normal.vline(f.X(sym.Start)+cpW/2, top, bottom)
+			}
+		}
+	}
+	if d.longCP {
+		// The longer CP opens every half subframe (TS 38.211 5.3.1).
+		for t := grid.Tc(0); t < span; t += half {
+			long.vline(f.X(t)+longW/2, top, bottom)
+		}
+	}
+	if normal.segs > 0 {
+		s.Path(normal.String(), `class="gl-cp"`, `fill="none"`, `stroke="`+inkLattice+`"`,
+			`stroke-opacity="0.2"`, `stroke-width="`+width(cpW)+`"`)
+	}
+	if long.segs > 0 {
+		s.Path(long.String(), `class="gl-longcp"`, `fill="none"`, `stroke="`+inkLattice+`"`,
+			`stroke-opacity="0.55"`, `stroke-width="`+width(longW)+`"`)
+	}
+
+	// PRB rows, counted from PRB 0 of the partition; a row too close to
+	// the partition's upper edge would merge with it and is left out.
+	var rows pathData
+	prbPx := float64(12*n.SCS()) * f.pxPerHz()
+	for p := d.rowStep; p < l.SizePRB; p += d.rowStep {
+		if float64(l.SizePRB-p)*prbPx < minLineGap {
+			break
+		}
+		rows.hline(f.Y(l.Low+grid.Hz(p)*12*n.SCS()), left, right)
+	}
+	if rows.segs > 0 {
+		s.Path(rows.String(), `class="gl-rows"`, `fill="none"`, `stroke="`+inkLattice+`"`,
+			`stroke-opacity="0.5"`, `stroke-width="0.6"`)
+	}
+
+	// Symbol boundaries that are not slot boundaries, and slot boundaries
+	// that are not 0.5 ms marks (those are drawn across the whole plot).
+	var syms, slots pathData
+	if d.symbols {
+		for k := 1; k < count; k++ {
+			sym := n.SymbolAt(k)
+			if sym.Start >= span {
+				break
+			}
+			if sym.Start%half == 0 || sym.Symbol == 0 {
+				continue
+			}
+			syms.vline(f.X(sym.Start), top, bottom)
+		}
+	}
+	if d.slots {
+		for k := 1; k < l.SlotCount(); k++ {
+			start, _ := n.Slot(k)
+			if start >= span {
+				break
+			}
+			if start%half != 0 {
+				slots.vline(f.X(start), top, bottom)
+			}
+		}
+	}
+	if syms.segs > 0 {
+		s.Path(syms.String(), `class="gl-symbols"`, `fill="none"`, `stroke="`+inkLattice+`"`,
+			`stroke-opacity="0.55"`, `stroke-width="0.6"`)
+	}
+	if slots.segs > 0 {
+		s.Path(slots.String(), `class="gl-slots"`, `fill="none"`, `stroke="`+inkLattice+`"`,
+			`stroke-opacity="0.85"`, `stroke-width="1.2"`)
+	}
+
+	// The name, where the partition is tall enough to hold it; the legend
+	// always has it.
+	if bottom-top >= 16 {
+		s.Textspan(f.x+5, int(top)+13, shown(l.Name), `font-size="11"`, `font-weight="bold"`,
+			`fill="`+inkText+`"`, `stroke="#ffffff"`, `stroke-width="3"`, `stroke-linejoin="round"`, `paint-order="stroke"`)
+		s.Span(fmt.Sprintf("%d kHz", n.SCSKHz()), `dx="6"`, `font-weight="normal"`)
+		s.TextEnd()
+	}
+	s.Gend()
+}
