@@ -1,0 +1,216 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"errors"
+	"flag"
+	"fmt"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+var update = flag.Bool("update", false, "rewrite the golden files in testdata/golden")
+
+// runCLI runs the program as a user would and returns its output and exit status.
+func runCLI(t *testing.T, stdin string, args ...string) (stdout, stderr string, code int) {
+	t.Helper()
+	var out, errOut bytes.Buffer
+	err := run(context.Background(), args, strings.NewReader(stdin), &out, &errOut)
+	code = exitCode(err, &errOut)
+	return out.String(), errOut.String(), code
+}
+
+func demoPlans(t *testing.T) []string {
+	t.Helper()
+	files, err := filepath.Glob("../../testdata/plans/*.yaml")
+	if err != nil || len(files) < 3 {
+		t.Fatalf("demo plans: %v, %d found", err, len(files))
+	}
+	return files
+}
+
+func golden(t *testing.T, path string, got []byte) {
+	t.Helper()
+	if *update {
+		if err := os.WriteFile(path, got, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		return
+	}
+	want, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatalf("%v (run go test ./cmd/gridloom -update to create it)", err)
+	}
+	if !bytes.Equal(got, want) {
+		t.Errorf("%s differs (go test ./cmd/gridloom -update rewrites it):\n%s", path, firstDiff(string(want), string(got)))
+	}
+}
+
+func firstDiff(want, got string) string {
+	w, g := strings.Split(want, "\n"), strings.Split(got, "\n")
+	for i := 0; i < max(len(w), len(g)); i++ {
+		var wl, gl string
+		if i < len(w) {
+			wl = w[i]
+		}
+		if i < len(g) {
+			gl = g[i]
+		}
+		if wl != gl {
+			return fmt.Sprintf("line %d:\n- %s\n+ %s", i+1, wl, gl)
+		}
+	}
+	return "(only line endings differ)"
+}
+
+func TestRenderJSONGolden(t *testing.T) {
+	for _, f := range demoPlans(t) {
+		out, errOut, code := runCLI(t, "", "render", "-format", "json", f)
+		if code != 0 {
+			t.Fatalf("%s: exit %d, stderr %s", f, code, errOut)
+		}
+		name := strings.TrimSuffix(filepath.Base(f), ".yaml")
+		golden(t, "../../testdata/golden/json/"+name+".json", []byte(out))
+	}
+}
+
+// The JSON document carries every symbol of every partition over the span.
+func TestRenderJSONShape(t *testing.T) {
+	out, _, code := runCLI(t, "", "render", "-format", "json", "../../testdata/plans/port.yaml")
+	if code != 0 {
+		t.Fatalf("exit %d", code)
+	}
+	var doc struct {
+		Plan       map[string]any   `json:"plan"`
+		Channel    map[string]any   `json:"channel"`
+		Carriers   []map[string]any `json:"carriers"`
+		Partitions []struct {
+			SCSKHz  int              `json:"scsKHz"`
+			CP      string           `json:"cp"`
+			Symbols []map[string]any `json:"symbols"`
+		} `json:"partitions"`
+		Findings []map[string]any `json:"findings"`
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatal(err)
+	}
+	for _, p := range doc.Partitions {
+		// 2 ms: 24 symbols per ms at 60 kHz extended CP, 28 at 30 kHz (TS 38.211 Tables 4.3.2-1/-2).
+		want := 2 * 28
+		if p.CP == "extended" {
+			want = 2 * 48
+		}
+		if len(p.Symbols) != want {
+			t.Errorf("%d kHz %s CP: %d symbols, want %d", p.SCSKHz, p.CP, len(p.Symbols), want)
+		}
+		for _, k := range []string{"slot", "symbol", "startTc", "cpTc", "lengthTc"} {
+			if _, ok := p.Symbols[0][k]; !ok {
+				t.Errorf("symbol lacks %q: %v", k, p.Symbols[0])
+			}
+		}
+	}
+	if doc.Channel["pointAMHz"] == nil || len(doc.Carriers) != 2 {
+		t.Errorf("channel %v, %d carriers", doc.Channel, len(doc.Carriers))
+	}
+}
+
+func TestStdin(t *testing.T) {
+	data, err := os.ReadFile("../../testdata/plans/campus.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	fromFile, _, _ := runCLI(t, "", "render", "-format", "json", "../../testdata/plans/campus.yaml")
+	fromStdin, errOut, code := runCLI(t, string(data), "render", "-format", "json", "-")
+	if code != 0 || fromStdin != fromFile {
+		t.Errorf("stdin: exit %d, stderr %q; same output as the file: %v", code, errOut, fromStdin == fromFile)
+	}
+}
+
+func TestCheckExitCodes(t *testing.T) {
+	for _, c := range []struct {
+		name, stdin string
+		args        []string
+		code        int
+		say         string
+	}{
+		{"clean demo", "", []string{"check", "../../testdata/plans/campus.yaml"}, 0, "0 errors"},
+		{"warnings only", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":15,"sizePrb":24},{"name":"b","scsKHz":30,"startCrb":13,"sizePrb":10}]}`,
+			[]string{"check", "-"}, 0, "numerology-gap"},
+		{"errors", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":120,"sizePrb":24}]}`, []string{"check", "-"}, 1, "scs-range"},
+		{"unreadable", "", []string{"check", "../../testdata/plans/no-such-plan.yaml"}, 2, "no-such-plan"},
+		{"undecodable", `{"carrier":`, []string{"check", "-"}, 2, "not valid JSON"},
+		{"no plan argument", "", []string{"check"}, 2, "exactly one plan"},
+		{"unknown command", "", []string{"draw"}, 2, "unknown command"},
+		{"unknown format", "", []string{"render", "-format", "pdf", "x.yaml"}, 2, "svg, json or csv"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			out, errOut, code := runCLI(t, c.stdin, c.args...)
+			if code != c.code {
+				t.Errorf("exit %d, want %d; stdout %q stderr %q", code, c.code, out, errOut)
+			}
+			if !strings.Contains(out+errOut, c.say) {
+				t.Errorf("output does not say %q:\n%s%s", c.say, out, errOut)
+			}
+		})
+	}
+}
+
+func TestBrokenPlansExitOne(t *testing.T) {
+	files, _ := filepath.Glob("../../testdata/broken/*.yaml")
+	if len(files) == 0 {
+		t.Fatal("no broken plans in testdata/broken")
+	}
+	for _, f := range files {
+		data, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		// Each file names the finding it must raise on its first line: "# expect: CODE".
+		first, _, _ := strings.Cut(string(data), "\n")
+		code, ok := strings.CutPrefix(first, "# expect: ")
+		if !ok {
+			t.Fatalf("%s: first line must be '# expect: CODE'", f)
+		}
+		out, errOut, exit := runCLI(t, "", "check", f)
+		if exit != 1 || !strings.Contains(out, "error "+code+" ") {
+			t.Errorf("%s: exit %d, want 1 with an error %s finding; got:\n%s%s", f, exit, code, out, errOut)
+		}
+	}
+}
+
+func TestHelpOnEverySubcommand(t *testing.T) {
+	for _, cmd := range []string{"render", "check"} {
+		_, errOut, code := runCLI(t, "", cmd, "-h")
+		if code != 0 || !strings.Contains(errOut, "Usage: gridloom "+cmd) {
+			t.Errorf("%s -h: exit %d, output %q", cmd, code, errOut)
+		}
+	}
+	if out, _, code := runCLI(t, "", "help"); code != 0 || !strings.Contains(out, "render") {
+		t.Errorf("help: exit %d, %q", code, out)
+	}
+	if _, errOut, _ := runCLI(t, "", "render", "-h"); !strings.Contains(errOut, "-format") {
+		t.Errorf("render -h does not list -format: %q", errOut)
+	}
+}
+
+func TestRenderWritesFile(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "plan.json")
+	if _, errOut, code := runCLI(t, "", "render", "-format", "json", "-o", out, "../../testdata/plans/stadium.yaml"); code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	data, err := os.ReadFile(out)
+	if err != nil || !json.Valid(data) {
+		t.Errorf("-o wrote %d bytes of valid JSON %v (err %v)", len(data), json.Valid(data), err)
+	}
+}
+
+func TestExitErrorMessage(t *testing.T) {
+	var buf bytes.Buffer
+	if code := exitCode(errors.New("boom"), &buf); code != 1 || !strings.Contains(buf.String(), "gridloom: boom") {
+		t.Errorf("plain error: exit %d, %q", code, buf.String())
+	}
+}

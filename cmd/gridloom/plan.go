@@ -1,0 +1,179 @@
+package main
+
+import (
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"gridloom/grid"
+	"gridloom/grid/planfile"
+	"gridloom/render"
+)
+
+// Exit statuses of render and check.
+const (
+	exitPlanErrors = 1 // the plan has error findings
+	exitBadInput   = 2 // the input could not be read or decoded, or bad usage
+)
+
+func newFlags(name, args string, stderr io.Writer) *flag.FlagSet {
+	fs := flag.NewFlagSet("gridloom "+name, flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	fs.Usage = func() {
+		fmt.Fprintf(stderr, "Usage: gridloom %s %s\n", name, args)
+		fs.PrintDefaults()
+	}
+	return fs
+}
+
+// parseFlags parses and turns -h and flag mistakes into exit statuses.
+func parseFlags(fs *flag.FlagSet, args []string) error {
+	if err := fs.Parse(args); err != nil {
+		if err == flag.ErrHelp {
+			return &exitError{code: 0}
+		}
+		return &exitError{code: exitBadInput}
+	}
+	return nil
+}
+
+// readPlan reads and decodes the plan named by path, "-" for stdin.
+func readPlan(path string, stdin io.Reader) (grid.Plan, error) {
+	var data []byte
+	var err error
+	if path == "-" {
+		data, err = io.ReadAll(io.LimitReader(stdin, planfile.MaxSize+1))
+	} else {
+		data, err = readFileLimited(path)
+	}
+	if err != nil {
+		return grid.Plan{}, &exitError{code: exitBadInput, msg: err.Error()}
+	}
+	var p grid.Plan
+	switch strings.ToLower(filepath.Ext(path)) {
+	case ".json":
+		p, err = planfile.DecodeJSON(data)
+	case ".yaml", ".yml":
+		p, err = planfile.DecodeYAML(data)
+	default:
+		p, err = planfile.Decode(data)
+	}
+	if err != nil {
+		return grid.Plan{}, &exitError{code: exitBadInput, msg: fmt.Sprintf("%s: %v", displayName(path), err)}
+	}
+	return p, nil
+}
+
+func readFileLimited(path string) ([]byte, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	return io.ReadAll(io.LimitReader(f, planfile.MaxSize+1))
+}
+
+func displayName(path string) string {
+	if path == "-" {
+		return "standard input"
+	}
+	return path
+}
+
+func onePlanArg(fs *flag.FlagSet) (string, error) {
+	if fs.NArg() != 1 {
+		fs.Usage()
+		return "", &exitError{code: exitBadInput, msg: "give exactly one plan file, or - for standard input"}
+	}
+	return fs.Arg(0), nil
+}
+
+func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
+	fs := newFlags("check", "PLAN", stderr)
+	if err := parseFlags(fs, args); err != nil {
+		return err
+	}
+	path, err := onePlanArg(fs)
+	if err != nil {
+		return err
+	}
+	p, err := readPlan(path, stdin)
+	if err != nil {
+		return err
+	}
+	res := grid.Compute(p)
+	errs, warns := 0, 0
+	for _, f := range res.Findings {
+		fmt.Fprintln(stdout, f)
+		switch f.Severity {
+		case grid.Error:
+			errs++
+		case grid.Warning:
+			warns++
+		}
+	}
+	fmt.Fprintf(stdout, "%s: %d errors, %d warnings, %d partitions placed\n", displayName(path), errs, warns, len(res.Partitions))
+	if errs > 0 {
+		return &exitError{code: exitPlanErrors}
+	}
+	return nil
+}
+
+func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
+	fs := newFlags("render", "[-format svg|json|csv] [-o FILE] PLAN", stderr)
+	format := fs.String("format", "svg", "output `format`: svg (the figure), json (lattice, summary and findings) or csv (one row per symbol)")
+	out := fs.String("o", "-", "write to `FILE` instead of standard output")
+	width := fs.Int("width", 0, "figure width in px (svg only; 0 for the default)")
+	if err := parseFlags(fs, args); err != nil {
+		return err
+	}
+	if *format != "svg" && *format != "json" && *format != "csv" {
+		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use svg, json or csv", *format)}
+	}
+	path, err := onePlanArg(fs)
+	if err != nil {
+		return err
+	}
+	p, err := readPlan(path, stdin)
+	if err != nil {
+		return err
+	}
+	res := grid.Compute(p)
+
+	w := stdout
+	var file *os.File
+	if *out != "-" {
+		if file, err = os.Create(*out); err != nil {
+			return &exitError{code: exitBadInput, msg: err.Error()}
+		}
+		w = file
+	}
+	switch *format {
+	case "svg":
+		err = render.Figure(w, res, render.Options{Width: *width})
+	case "csv":
+		err = render.SymbolCSV(w, res)
+	case "json":
+		err = writeJSON(w, res)
+	}
+	if file != nil {
+		if cerr := file.Close(); err == nil {
+			err = cerr
+		}
+	}
+	if err != nil {
+		return err
+	}
+	for _, f := range res.Findings {
+		if f.Severity != grid.Info {
+			fmt.Fprintln(stderr, f)
+		}
+	}
+	if res.HasErrors() {
+		return &exitError{code: exitPlanErrors, msg: "the plan has errors; the output shows what could be placed"}
+	}
+	return nil
+}
