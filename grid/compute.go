@@ -17,6 +17,9 @@ type Result struct {
 	Channel    Channel   // the channel and, when known, its absolute frequencies
 	Carriers   []Carrier // one per subcarrier spacing in use, ascending
 	Partitions []Lattice // the partitions that could be placed, in plan order
+	TDD        *TDD      // the TDD pattern, when the plan has a valid one
+	SSB        *SSB      // the SS/PBCH blocks, when the plan places valid ones
+	Fit        *Fit      // the numerology fit, when the plan describes its environment
 	Findings   []Finding
 }
 
@@ -87,8 +90,13 @@ type Lattice struct {
 	Direction            Direction
 	Layers               int
 	Modulation           string
-	PeakMbps             float64 // TS 38.306 4.1.2 estimate
-	SpanMs               int
+	// PeakMbps is the TS 38.306 4.1.2 estimate; under a TDD pattern it is
+	// scaled by Share, the fraction of the partition's symbols in its direction.
+	PeakMbps float64
+	Share    float64
+	SpanMs   int
+	// Dirs holds the TDD direction of every symbol of the span; nil without TDD.
+	Dirs []SymbolDir
 }
 
 // SymbolCount is the number of OFDM symbols in the span.
@@ -143,16 +151,27 @@ func Compute(plan Plan) Result {
 	if n := utf8.RuneCountInString(p.Name); n > MaxNameLen {
 		fs.add(Error, CodeLimit, "", "name", "The plan name is %d characters long; at most %d are allowed.", n, MaxNameLen)
 	}
-	span := p.SpanMs
-	if span < 1 || span > MaxSpanMs {
-		fs.add(Error, CodeLimit, "", "spanMs", "spanMs is %d; it must be a whole number of milliseconds from 1 to %d.", span, MaxSpanMs)
-		span = min(max(span, 1), MaxSpanMs)
-	}
 	rng, ok := parseFold(p.Carrier.Range, RangeNames(), ParseRange)
 	if !ok {
 		fs.add(Error, CodeRange, "", "carrier.range", "carrier.range %q is not a frequency range; use %s.", p.Carrier.Range, joinOr(RangeNames()))
 	}
 	p.Carrier.Range = rng.String()
+	var tdd *TDD
+	if p.TDD != nil {
+		if t, ok := checkTDD(&fs, rng, p.TDD); ok {
+			tdd = &t
+		}
+	}
+	span := p.SpanMs
+	switch {
+	case span == 0 && tdd != nil:
+		span = min(int((tdd.Period+TcPerSubframe-1)/TcPerSubframe), MaxSpanMs)
+	case span == 0:
+		span = 1
+	case span < 1 || span > MaxSpanMs:
+		fs.add(Error, CodeLimit, "", "spanMs", "spanMs is %d; it must be a whole number of milliseconds from 1 to %d.", span, MaxSpanMs)
+		span = min(max(span, 1), MaxSpanMs)
+	}
 	bw := p.Carrier.BandwidthMHz
 	bwKnown := slices.Contains(rng.AllBandwidths(), bw)
 	if !bwKnown {
@@ -209,10 +228,29 @@ func Compute(plan Plan) Result {
 		}
 	}
 
+	if tdd != nil {
+		res.TDD = tdd
+		applyTDD(&fs, *tdd, p.TDD.ReferenceSCSKHz, &res)
+	}
+	for i := range res.Partitions {
+		l := &res.Partitions[i]
+		l.PeakMbps = math.Round(l.PeakMbps*100) / 100
+	}
 	checkOverlaps(&fs, res.Partitions)
 	checkEdgeGuards(&fs, rng, bw, res.Channel, res.Partitions)
 	checkNumerologyGaps(&fs, p.NumerologyGapKHz, res.Partitions)
 	placeAbsolute(&fs, rng, &res.Channel, p.Carrier)
+	if p.SSB != nil && bwKnown {
+		if s, ok := checkSSB(&fs, rng, p.SSB, res.Channel, res.Channel.CenterHz, res.Channel.Absolute, tdd != nil, span); ok {
+			res.SSB = &s
+			checkSSBOverlaps(&fs, s, res.Partitions, tdd)
+		}
+	}
+	if p.Environment != nil {
+		if f, ok := checkFit(&fs, rng, p.Environment, res.Channel, res.Partitions); ok {
+			res.Fit = f
+		}
+	}
 	res.Channel.UsePercent = usePercent(res.Channel, res.Partitions)
 
 	p.SpanMs = span
@@ -601,10 +639,35 @@ func placePartition(fs *findings, rng Range, pt pending, c Carrier, span int) (L
 	l := Lattice{Index: pt.index, Name: pp.Name, Numerology: pt.num, StartCRB: start, SizePRB: size,
 		LocationAndBandwidth: riv, Low: low, High: low + Hz(size)*12*Hz(scs)*1000,
 		Direction: pt.dir, Layers: pp.Layers, Modulation: pp.Modulation, SpanMs: span}
+	l.Share = 1
 	if pt.bits > 0 && pp.Layers >= 1 && pp.Layers <= pt.dir.MaxLayers() {
-		l.PeakMbps = math.Round(PeakMbps(rng, pt.dir, pt.num, size, pp.Layers, pt.bits)*100) / 100
+		l.PeakMbps = PeakMbps(rng, pt.dir, pt.num, size, pp.Layers, pt.bits)
 	}
 	return l, true
+}
+
+// applyTDD maps the TDD pattern onto every partition and scales the rate
+// estimates. A partition below the reference spacing keeps no directions.
+func applyTDD(fs *findings, t TDD, refKHz int, res *Result) {
+	for i := range res.Partitions {
+		l := &res.Partitions[i]
+		if l.Numerology.Mu < t.Reference.Mu {
+			fs.add(Error, CodeTDD, l.Name, fmt.Sprintf("partitions[%d].scsKHz", l.Index), "Partition %q uses %d kHz, below tdd.referenceScsKHz %d; the reference spacing must be at most every partition's spacing (TS 38.213 11.1).", l.Name, l.Numerology.SCSKHz(), refKHz)
+			continue
+		}
+		dirs, straddles := t.Directions(*l)
+		l.Dirs = dirs
+		if len(straddles) > 0 {
+			s := l.Numerology.SymbolAt(straddles[0])
+			fs.add(Warning, CodeTDDStraddle, l.Name, fmt.Sprintf("partitions[%d].cp", l.Index), "Partition %q has %d symbols that straddle a downlink/uplink change of the %d kHz TDD pattern, the first slot %d symbol %d; they are marked flexible and cannot carry either direction whole.", l.Name, len(straddles), refKHz, s.Slot, s.Symbol)
+		}
+		want := Downlink
+		if l.Direction == UL {
+			want = Uplink
+		}
+		l.Share = t.Share(*l, want)
+		l.PeakMbps *= l.Share
+	}
 }
 
 func optInt(p *int) string {

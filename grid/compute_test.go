@@ -163,6 +163,8 @@ func TestLocationAndBandwidth(t *testing.T) {
 	}
 }
 
+func with(pp PartitionPlan, f func(*PartitionPlan)) PartitionPlan { f(&pp); return pp }
+
 func hasCode(r Result, code string) bool { return findCode(r, code) != nil }
 
 func findCode(r Result, code string) *Finding {
@@ -181,7 +183,6 @@ func TestFindings(t *testing.T) {
 		many[i] = part(fmt.Sprint("p", i), 15, i, 1)
 	}
 	withCarrier := func(p Plan, f func(*CarrierPlan)) Plan { f(&p.Carrier); return p }
-	with := func(pp PartitionPlan, f func(*PartitionPlan)) PartitionPlan { f(&pp); return pp }
 	ok40 := part("a", 15, 0, 24)
 
 	for _, c := range []struct {

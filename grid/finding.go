@@ -35,6 +35,11 @@ const (
 	CodeLayers         = "layers"          // layers outside the direction's bounds
 	CodeModulation     = "modulation"      // modulation unknown
 	CodeAutoOffset     = "auto-offset"     // offsets or carrier sizes Compute chose
+	CodeTDD            = "tdd"             // a TDD pattern the standard does not allow, or a partition below its reference spacing
+	CodeTDDStraddle    = "tdd-straddle"    // partition symbols that straddle a downlink/uplink change
+	CodeSSB            = "ssb"             // an SS/PBCH configuration the standard does not allow, or blocks beyond the channel
+	CodeSSBOverlap     = "ssb-overlap"     // SS/PBCH blocks on a partition of another spacing
+	CodeFit            = "fit"             // a numerology that suits the radio channel poorly (rules of thumb)
 )
 
 // Finding is one result of checking a plan. Field is the path of the plan

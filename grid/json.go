@@ -1,5 +1,10 @@
 package grid
 
+import (
+	"math"
+	"strconv"
+)
+
 // The JSON form of a Result, shared by the command line and the web API.
 // kHz values are relative to point A; MHz values are absolute and present
 // only when the plan ties the channel to a frequency.
@@ -10,7 +15,47 @@ type JSONResult struct {
 	Channel    JSONChannel     `json:"channel"`
 	Carriers   []JSONCarrier   `json:"carriers"`
 	Partitions []JSONPartition `json:"partitions"`
+	TDD        *JSONTDD        `json:"tdd,omitempty"`
+	SSB        *JSONSSB        `json:"ssb,omitempty"`
+	Fit        *Fit            `json:"fit,omitempty"`
 	Findings   []Finding       `json:"findings"`
+}
+
+// JSONSSB is the SS/PBCH configuration of a JSONResult. Slot and symbol
+// of each block count in the block's own spacing over the span.
+type JSONSSB struct {
+	Case       string         `json:"case"`
+	SCSKHz     int            `json:"scsKHz"`
+	Candidates int            `json:"candidates"`
+	PeriodMs   int            `json:"periodMs"`
+	Blocks     []JSONSSBBlock `json:"blocks"`
+}
+
+// JSONSSBBlock is one SS/PBCH block of a JSONSSB.
+type JSONSSBBlock struct {
+	Index   int     `json:"index"`
+	Slot    int     `json:"slot"`
+	Symbol  int     `json:"symbol"`
+	StartTc Tc      `json:"startTc"`
+	EndTc   Tc      `json:"endTc"`
+	LowKHz  float64 `json:"lowKHz"`
+	HighKHz float64 `json:"highKHz"`
+}
+
+// JSONTDD is the TDD pattern of a JSONResult. Slots writes each reference
+// slot of one period as D (all downlink), U (all uplink) or S (mixed or
+// flexible), the way engineers write patterns ("DDDSU").
+type JSONTDD struct {
+	ReferenceSCSKHz int     `json:"referenceScsKHz"`
+	PeriodMs        float64 `json:"periodMs"`
+	Slots           string  `json:"slots"`
+}
+
+// JSONSymbol is one symbol of a JSONPartition; Direction is D, U or F under
+// a TDD pattern and absent without one.
+type JSONSymbol struct {
+	Symbol
+	Direction string `json:"direction,omitempty"`
 }
 
 // JSONChannel is the channel of a JSONResult.
@@ -68,7 +113,13 @@ type JSONPartition struct {
 	Layers               int      `json:"layers"`
 	Modulation           string   `json:"modulation"`
 	PeakMbps             float64  `json:"peakMbps"`
-	Symbols              []Symbol `json:"symbols"`
+	// Share is the fraction of symbols in the partition's direction under
+	// the TDD pattern, by which PeakMbps is scaled; 1 without TDD.
+	Share float64 `json:"share"`
+	// MiniSlotUs gives the length of mini-slots of 2, 4 and 7 symbols away
+	// from the longer CP, for latency.
+	MiniSlotUs map[string]float64 `json:"miniSlotUs"`
+	Symbols    []JSONSymbol       `json:"symbols"`
 }
 
 // JSON returns the JSON document of r. With symbols false the per-symbol
@@ -109,7 +160,11 @@ func (r Result) JSON(symbols bool) JSONResult {
 			Slots: l.SlotCount(), SymbolCount: l.SymbolCount(), SlotUs: n.SlotTc().Micros(),
 			UsefulUs: n.UsefulTc().Micros(), CPUs: n.CPTc(1).Micros(), LongCPUs: n.CPTc(0).Micros(),
 			REPerSlot: l.REPerSlot(), Direction: string(l.Direction), Layers: l.Layers, Modulation: l.Modulation,
-			PeakMbps: l.PeakMbps, Symbols: []Symbol{}}
+			PeakMbps: l.PeakMbps, Share: math.Round(l.Share*1e4) / 1e4, Symbols: []JSONSymbol{},
+			MiniSlotUs: map[string]float64{}}
+		for _, k := range []int{2, 4, 7} {
+			jp.MiniSlotUs[strconv.Itoa(k)] = math.Round((Tc(k)*(n.UsefulTc()+n.CPTc(1))).Micros()*1e4) / 1e4
+		}
 		if l.LocationAndBandwidth >= 0 {
 			jp.LocationAndBandwidth = ptr(l.LocationAndBandwidth)
 		}
@@ -118,9 +173,26 @@ func (r Result) JSON(symbols bool) JSONResult {
 			jp.HighMHz = ptr(ch.Abs(l.High).MHz())
 		}
 		if symbols {
-			jp.Symbols = l.Symbols()
+			jp.Symbols = make([]JSONSymbol, l.SymbolCount())
+			for k := range jp.Symbols {
+				jp.Symbols[k].Symbol = n.SymbolAt(k)
+				if l.Dirs != nil {
+					jp.Symbols[k].Direction = l.Dirs[k].String()
+				}
+			}
 		}
 		out.Partitions = append(out.Partitions, jp)
+	}
+	if s := r.SSB; s != nil {
+		js := &JSONSSB{Case: s.Case, SCSKHz: s.Numerology.SCSKHz(), Candidates: s.Candidates, PeriodMs: s.PeriodMs, Blocks: []JSONSSBBlock{}}
+		for _, b := range s.Blocks {
+			js.Blocks = append(js.Blocks, JSONSSBBlock{Index: b.Index, Slot: b.Slot, Symbol: b.Symbol, StartTc: b.Start, EndTc: b.End, LowKHz: b.Low.KHz(), HighKHz: b.High.KHz()})
+		}
+		out.SSB = js
+	}
+	out.Fit = r.Fit
+	if t := r.TDD; t != nil {
+		out.TDD = &JSONTDD{ReferenceSCSKHz: t.Reference.SCSKHz(), PeriodMs: float64(t.Period) / float64(TcPerSubframe), Slots: t.SlotString()}
 	}
 	return out
 }

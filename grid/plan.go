@@ -5,7 +5,7 @@ package grid
 // refuses; a zero value means "the default" where the field says so.
 type Plan struct {
 	Name    string      `json:"name,omitempty" yaml:"name,omitempty"`     // free text, at most MaxNameLen characters
-	SpanMs  int         `json:"spanMs,omitempty" yaml:"spanMs,omitempty"` // 1…MaxSpanMs; 0 means 1
+	SpanMs  int         `json:"spanMs,omitempty" yaml:"spanMs,omitempty"` // 1…MaxSpanMs; 0 means 1 (or the TDD period)
 	Carrier CarrierPlan `json:"carrier" yaml:"carrier"`
 	// Partitions are the bandwidth parts, 1…MaxPartitions of them.
 	Partitions []PartitionPlan `json:"partitions" yaml:"partitions"`
@@ -13,6 +13,12 @@ type Plan struct {
 	// different subcarrier spacings (common practice, not a 3GPP rule). Nil
 	// means one PRB of the wider spacing of the pair; 0 turns the check off.
 	NumerologyGapKHz *float64 `json:"numerologyGapKHz,omitempty" yaml:"numerologyGapKHz,omitempty"`
+	// TDD is the optional TDD pattern; with it, SpanMs 0 means the pattern's period.
+	TDD *TDDPlan `json:"tdd,omitempty" yaml:"tdd,omitempty"`
+	// SSB places the SS/PBCH blocks; optional.
+	SSB *SSBPlan `json:"ssb,omitempty" yaml:"ssb,omitempty"`
+	// Environment describes the radio channel for the numerology fit; optional.
+	Environment *EnvironmentPlan `json:"environment,omitempty" yaml:"environment,omitempty"`
 }
 
 // CarrierPlan is the channel and its SCS-specific carriers.
@@ -76,6 +82,13 @@ func (p Plan) Clone() Plan {
 	q.Carrier.CenterMHz = clonePtr(p.Carrier.CenterMHz)
 	q.Carrier.ARFCN = clonePtr(p.Carrier.ARFCN)
 	q.NumerologyGapKHz = clonePtr(p.NumerologyGapKHz)
+	q.SSB = clonePtr(p.SSB)
+	q.Environment = clonePtr(p.Environment)
+	if p.TDD != nil {
+		t := *p.TDD
+		t.Pattern2 = clonePtr(p.TDD.Pattern2)
+		q.TDD = &t
+	}
 	q.Partitions = make([]PartitionPlan, len(p.Partitions))
 	for i, pp := range p.Partitions {
 		pp.StartCRB = clonePtr(pp.StartCRB)
@@ -107,9 +120,6 @@ func clonePtr[T any](p *T) *T {
 // withDefaults fills the fields whose zero value means a default.
 func (p Plan) withDefaults() Plan {
 	q := p.Clone()
-	if q.SpanMs == 0 {
-		q.SpanMs = 1
-	}
 	if q.Carrier.Range == "" {
 		q.Carrier.Range = DefaultRange
 	}

@@ -251,6 +251,9 @@ func yamlTree(n *yaml.Node, budget *int, depth int) (any, error) {
 			}
 			return b, nil
 		case "!!int":
+			if strings.Trim(strings.TrimLeft(n.Value, "+-"), "0123456789") == "" {
+				return number(n.Value), nil // plain digits: keep them, leading zeros and all
+			}
 			var i int64
 			if err := n.Decode(&i); err != nil {
 				return number(n.Value), nil // too large for int64: the walk refuses it by size
@@ -435,7 +438,7 @@ func sortedKeys(m map[string]any) []string {
 }
 
 func (w *walker) plan(v any) grid.Plan {
-	m := w.object(v, "", "name", "spanMs", "carrier", "partitions", "numerologyGapKHz")
+	m := w.object(v, "", "name", "spanMs", "carrier", "partitions", "numerologyGapKHz", "tdd", "ssb", "environment")
 	if m == nil {
 		return grid.Plan{}
 	}
@@ -446,6 +449,15 @@ func (w *walker) plan(v any) grid.Plan {
 	}
 	if c := m["carrier"]; c != nil {
 		p.Carrier = w.carrier(c)
+	}
+	if t := m["tdd"]; t != nil {
+		p.TDD = w.tdd(t)
+	}
+	if s := m["ssb"]; s != nil {
+		p.SSB = w.ssb(s)
+	}
+	if e := m["environment"]; e != nil {
+		p.Environment = w.environment(e)
 	}
 	switch ps := m["partitions"].(type) {
 	case nil:
@@ -496,6 +508,92 @@ func (w *walker) partition(v any, f string) grid.PartitionPlan {
 		Modulation:           w.str(m["modulation"], f+".modulation"),
 	}
 	return pp
+}
+
+func (w *walker) tdd(v any) *grid.TDDPlan {
+	m := w.object(v, "tdd", "referenceScsKHz", "pattern1", "pattern2")
+	if m == nil {
+		return nil
+	}
+	t := &grid.TDDPlan{ReferenceSCSKHz: w.intOr0(m["referenceScsKHz"], "tdd.referenceScsKHz")}
+	if m["pattern1"] == nil {
+		w.fail("tdd.pattern1", "a TDD pattern needs pattern1 (periodMs, downlinkSlots, downlinkSymbols, uplinkSlots, uplinkSymbols).")
+	} else {
+		t.Pattern1 = w.tddPattern(m["pattern1"], "tdd.pattern1")
+	}
+	if m["pattern2"] != nil {
+		p2 := w.tddPattern(m["pattern2"], "tdd.pattern2")
+		t.Pattern2 = &p2
+	}
+	return t
+}
+
+func (w *walker) tddPattern(v any, f string) grid.TDDPattern {
+	m := w.object(v, f, "periodMs", "downlinkSlots", "downlinkSymbols", "uplinkSlots", "uplinkSymbols")
+	if m == nil {
+		return grid.TDDPattern{}
+	}
+	var p grid.TDDPattern
+	if m["periodMs"] == nil {
+		w.fail(f+".periodMs", "the pattern has no periodMs; use one of %s ms.", periodList())
+	} else if ms, ok := w.float(m["periodMs"], f+".periodMs"); ok {
+		p.PeriodMs = ms
+	}
+	p.DownlinkSlots = w.intOr0(m["downlinkSlots"], f+".downlinkSlots")
+	p.DownlinkSymbols = w.intOr0(m["downlinkSymbols"], f+".downlinkSymbols")
+	p.UplinkSlots = w.intOr0(m["uplinkSlots"], f+".uplinkSlots")
+	p.UplinkSymbols = w.intOr0(m["uplinkSymbols"], f+".uplinkSymbols")
+	return p
+}
+
+func (w *walker) ssb(v any) *grid.SSBPlan {
+	m := w.object(v, "ssb", "scsKHz", "case", "bitmap", "offsetToPointA", "kSsb", "scsCommonKHz", "periodMs")
+	if m == nil {
+		return nil
+	}
+	return &grid.SSBPlan{
+		SCSKHz:         w.intOr0(m["scsKHz"], "ssb.scsKHz"),
+		Case:           w.str(m["case"], "ssb.case"),
+		Bitmap:         w.bitmap(m["bitmap"], "ssb.bitmap"),
+		OffsetToPointA: w.intOr0(m["offsetToPointA"], "ssb.offsetToPointA"),
+		KSSB:           w.intOr0(m["kSsb"], "ssb.kSsb"),
+		ScsCommonKHz:   w.intOr0(m["scsCommonKHz"], "ssb.scsCommonKHz"),
+		PeriodMs:       w.intOr0(m["periodMs"], "ssb.periodMs"),
+	}
+}
+
+// bitmap reads a string of 0 and 1; YAML may read an unquoted one as a number.
+func (w *walker) bitmap(v any, field string) string {
+	if n, ok := v.(number); ok && strings.Trim(string(n), "01") == "" {
+		return string(n)
+	}
+	return w.str(v, field)
+}
+
+func (w *walker) environment(v any) *grid.EnvironmentPlan {
+	m := w.object(v, "environment", "delaySpreadNs", "delayProfile", "speedKmh", "carrierMHz")
+	if m == nil {
+		return nil
+	}
+	e := &grid.EnvironmentPlan{DelayProfile: w.str(m["delayProfile"], "environment.delayProfile")}
+	if m["delaySpreadNs"] != nil {
+		e.DelaySpreadNs, _ = w.float(m["delaySpreadNs"], "environment.delaySpreadNs")
+	}
+	if m["speedKmh"] != nil {
+		e.SpeedKmh, _ = w.float(m["speedKmh"], "environment.speedKmh")
+	}
+	if m["carrierMHz"] != nil {
+		e.CarrierMHz, _ = w.float(m["carrierMHz"], "environment.carrierMHz")
+	}
+	return e
+}
+
+func periodList() string {
+	s := make([]string, len(grid.TDDPeriodsMs))
+	for i, v := range grid.TDDPeriodsMs {
+		s[i] = strconv.FormatFloat(v, 'f', -1, 64)
+	}
+	return strings.Join(s, ", ")
 }
 
 // EncodeJSON writes p as an indented JSON plan file.
