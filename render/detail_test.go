@@ -113,7 +113,9 @@ func TestDrawnLinesAreVisible(t *testing.T) {
 // half subframe has its own strips, wider and darker, at 15 kHz:
 // N_CP = 144κ + 16κ = 10240 Tc there against 9216 Tc (TS 38.211 5.3.1).
 func TestLongCPStrips(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+	p := loadPlan(t, "../testdata/plans/campus.yaml")
+	p.SpanMs = 1 // wide enough symbols for CP strips at the default width
+	r := compute(t, p)
 	i := slices.IndexFunc(r.Partitions, func(l grid.Lattice) bool { return l.Numerology.SCSKHz() == 15 })
 	if i < 0 {
 		t.Fatal("campus plan has no 15 kHz partition")
