@@ -7,6 +7,7 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+	"unicode"
 	"unicode/utf8"
 )
 
@@ -282,6 +283,8 @@ func checkPartition(fs *findings, rng Range, bw int, bwKnown bool, i int, pp *Pa
 	default:
 		if j := slices.IndexFunc(before, func(q PartitionPlan) bool { return q.Name == pp.Name }); j >= 0 {
 			fs.add(Error, CodeName, who, f+".name", "%s.name %q is already the name of partitions[%d]; names must be unique.", f, pp.Name, j)
+		} else if j := slices.IndexFunc(before, func(q PartitionPlan) bool { return visible(q.Name) == visible(pp.Name) }); j >= 0 {
+			fs.add(Error, CodeName, who, f+".name", "%s.name %q looks the same as partitions[%d].name %q: they differ only in spaces or invisible characters; names must be told apart.", f, pp.Name, j, before[j].Name)
 		}
 	}
 
@@ -349,6 +352,17 @@ func checkPartition(fs *findings, rng Range, bw int, bwKnown bool, i int, pp *Pa
 		pt.place = false
 	}
 	return pt
+}
+
+// visible is a name as a reader sees it: without surrounding spaces and
+// without format characters (zero-width spaces, direction overrides).
+func visible(name string) string {
+	return strings.Map(func(r rune) rune {
+		if unicode.Is(unicode.Cf, r) {
+			return -1
+		}
+		return r
+	}, strings.TrimSpace(name))
 }
 
 // given formats a number the user typed for a message; 0 is how a missing

@@ -245,6 +245,7 @@ func TestFindings(t *testing.T) {
 		{"bad modulation", plan(40, with(ok40, func(p *PartitionPlan) { p.Modulation = "8PSK" })), Error, CodeModulation, "partitions[0].modulation", "QPSK, 16QAM"},
 		{"duplicate names", plan(40, part("a", 15, 0, 10), part("a", 15, 20, 10)), Error, CodeName, "partitions[1].name", "unique"},
 		{"empty name", plan(40, part(" ", 15, 0, 10)), Error, CodeName, "partitions[0].name", "empty"},
+		{"names alike but for a zero-width space", plan(40, part("cam", 15, 0, 10), part("c\u200bam", 15, 20, 10)), Error, CodeName, "partitions[1].name", "invisible"},
 		{"negative gap", Plan{Carrier: CarrierPlan{BandwidthMHz: 40}, Partitions: []PartitionPlan{ok40}, NumerologyGapKHz: fptr(-1)}, Error, CodeLimit, "numerologyGapKHz", "0 (no check)"},
 	} {
 		t.Run(c.name, func(t *testing.T) {

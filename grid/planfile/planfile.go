@@ -24,6 +24,8 @@ import (
 	"gridloom/grid"
 )
 
+var bom = []byte("\ufeff")
+
 // MaxSize is the largest plan file accepted, in bytes.
 const MaxSize = 1 << 20
 
@@ -74,7 +76,8 @@ func Sniff(data []byte) Format {
 	return YAML
 }
 
-// Decode reads a plan file in either format.
+// Decode reads a plan file in either format. A leading UTF-8 byte order
+// mark, which some editors write, is ignored.
 func Decode(data []byte) (grid.Plan, error) {
 	if Sniff(data) == JSON {
 		return DecodeJSON(data)
@@ -87,6 +90,7 @@ func DecodeJSON(data []byte) (grid.Plan, error) {
 	if len(data) > MaxSize {
 		return grid.Plan{}, tooLarge(len(data))
 	}
+	data = bytes.TrimPrefix(data, bom)
 	tree, err := jsonTree(data)
 	if err != nil {
 		return grid.Plan{}, &FieldError{Msg: "The plan is not valid JSON: " + err.Error() + "."}
@@ -99,6 +103,7 @@ func DecodeYAML(data []byte) (grid.Plan, error) {
 	if len(data) > MaxSize {
 		return grid.Plan{}, tooLarge(len(data))
 	}
+	data = bytes.TrimPrefix(data, bom)
 	var doc yaml.Node
 	if err := yaml.Unmarshal(data, &doc); err != nil {
 		return grid.Plan{}, &FieldError{Msg: "The plan is not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: ") + "."}
