@@ -506,40 +506,59 @@ func chooseOffsets(rng Range, bw int, ref []int, sizes map[int]int, given map[in
 	s0 := ref[0]
 	nrb0, _ := rng.NRB(s0, bw)
 	half := Hz(bw) * 5e5
-	try := func(o0 int, shrink bool) (map[int]int, []int, bool) {
+	others := ref[1:]
+	found := make([]int, len(others))
+	shrunk := make([]bool, len(others))
+	// try fits every other carrier with point A o0 CRBs of s0 below the
+	// anchor carrier; below reports that some carrier would need a negative
+	// offset, which only a larger o0 can cure.
+	try := func(o0 int, shrink bool) (ok, below bool) {
 		centre := (12*Hz(o0) + 6*Hz(nrb0)) * Hz(s0) * 1000
-		offsets := map[int]int{s0: o0}
-		var shrunk []int
-		for _, scs := range ref[1:] {
-			o, ok := fitCarrier(rng, bw, scs, sizes[scs], centre, half)
-			if !ok && shrink && !given[scs] {
-				o, ok = fitCarrier(rng, bw, scs, sizes[scs]-1, centre, half)
-				shrunk = append(shrunk, scs)
+		ok = true
+		for i, scs := range others {
+			o, fits, neg := fitCarrier(rng, bw, scs, sizes[scs], centre, half)
+			shrunk[i] = false
+			if !fits && shrink && !given[scs] {
+				o, fits, neg = fitCarrier(rng, bw, scs, sizes[scs]-1, centre, half)
+				shrunk[i] = fits
+			}
+			below = below || neg
+			ok = ok && fits
+			found[i] = o
+		}
+		return ok, below
+	}
+	// Whether a carrier fits depends on where point A falls modulo its CRB
+	// width, which repeats every smax/s0 steps of o0; once no carrier needs a
+	// negative offset, one such cycle decides.
+	cycle := ref[len(ref)-1] / s0
+	for _, shrink := range []bool{false, true} {
+		clear := -1
+		for o0 := 0; o0 <= MaxOffset && (clear < 0 || o0 < clear+cycle); o0++ {
+			ok, below := try(o0, shrink)
+			if !below && clear < 0 {
+				clear = o0
 			}
 			if !ok {
-				return nil, nil, false
+				continue
 			}
-			offsets[scs] = o
-		}
-		return offsets, shrunk, true
-	}
-	for _, shrink := range []bool{false, true} {
-		for o0 := 0; o0 <= MaxOffset; o0++ {
-			if offsets, shrunk, ok := try(o0, shrink); ok {
-				note := ""
-				for _, scs := range shrunk {
+			offsets := map[int]int{s0: o0}
+			note := ""
+			for i, scs := range others {
+				offsets[scs] = found[i]
+				if shrunk[i] {
 					sizes[scs]--
 					note += fmt.Sprintf("; the %d kHz carrier has carrierBandwidth %d instead of N_RB %d, because no whole-CRB offset keeps both of its minimum guardbands at N_RB", scs, sizes[scs], sizes[scs]+1)
 				}
-				return offsets, note + "."
 			}
+			return offsets, note + "."
 		}
 	}
 	// Sizes the plan fixed leave no legal offset: centre each carrier as
 	// well as the grid allows and let the guard checks speak.
 	centre := 6 * Hz(nrb0) * Hz(s0) * 1000
 	offsets := map[int]int{s0: 0}
-	for _, scs := range ref[1:] {
+	for _, scs := range others {
 		offsets[scs] = max(0, centredOffset(scs, sizes[scs], centre))
 	}
 	return offsets, "; no offset keeps every minimum guardband with the carrierBandwidth given."
@@ -547,19 +566,23 @@ func chooseOffsets(rng Range, bw int, ref []int, sizes map[int]int, given map[in
 
 // fitCarrier returns the offset of a carrier of n PRBs at scsKHz whose
 // lower and upper guards both reach the minimum, nearest the centre, with
-// the channel [centre−half, centre+half) on the point A axis.
-func fitCarrier(rng Range, bw, scsKHz, n int, centre, half Hz) (int, bool) {
+// the channel [centre−half, centre+half) on the point A axis. negative
+// reports that only a negative offset could fit.
+func fitCarrier(rng Range, bw, scsKHz, n int, centre, half Hz) (offset int, ok, negative bool) {
 	g, _ := rng.MinGuard(scsKHz, bw)
 	scs := Hz(scsKHz) * 1000
 	step := 12 * scs
 	// CRBEdge(o) = o·step − scs/2 must lie in [centre−half+g, centre+half−g−n·step].
 	lo := ceilDiv(centre-half+g+scs/2, step)
 	hi := floorDiv(centre+half-g-Hz(n)*step+scs/2, step)
+	if hi < 0 {
+		return 0, false, true
+	}
 	lo = max(lo, 0)
 	if lo > hi {
-		return 0, false
+		return 0, false, false
 	}
-	return int(min(max(Hz(centredOffset(scsKHz, n, centre)), lo), hi)), true
+	return int(min(max(Hz(centredOffset(scsKHz, n, centre)), lo), hi)), true, false
 }
 
 // centredOffset is the offset that puts a carrier's midpoint nearest the centre.
