@@ -2,12 +2,152 @@ package main
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"io"
+	"io/fs"
+	"log/slog"
+	"net"
+	"net/http"
+	"slices"
+	"strings"
+	"syscall"
+	"time"
+
+	"gridloom/grid/planfile"
+	"gridloom/testdata/plans"
+	"gridloom/web"
 )
 
-// runServe starts the web app. Until it exists, gridloom prints its usage.
+// Timeouts and limits of the web server. A plan travels in the query
+// string, so the header limit bounds the largest plan a link can carry.
+const (
+	readHeaderTimeout = 5 * time.Second
+	readTimeout       = 30 * time.Second
+	writeTimeout      = 60 * time.Second
+	idleTimeout       = 2 * time.Minute
+	maxHeaderBytes    = 64 << 10
+	shutdownTimeout   = 10 * time.Second
+)
+
+// runServe starts the web app and serves until ctx ends, then shuts down
+// gracefully and returns nil.
 func runServe(ctx context.Context, args []string, stdout, stderr io.Writer) error {
-	fmt.Fprint(stderr, usage)
-	return &exitError{code: exitBadInput, msg: "the web app is not built yet; use render or check"}
+	fs := newFlags("serve", "[-addr HOST:PORT] [-plan FILE]", stderr)
+	addr := fs.String("addr", "127.0.0.1:8080", "listen on `HOST:PORT`; the app has no login, so keep it on a loopback address")
+	planPath := fs.String("plan", "", "open with the plan in `FILE` (JSON or YAML) instead of the demo plan")
+	if err := parseFlags(fs, args); err != nil {
+		return err
+	}
+	if fs.NArg() > 0 {
+		fs.Usage()
+		return &exitError{code: exitBadInput, msg: fmt.Sprintf("serve takes no arguments, but got %q; give a plan with -plan FILE", fs.Arg(0))}
+	}
+	demos, def, err := loadDemos()
+	if err != nil {
+		return err
+	}
+	start := def.Plan
+	if *planPath != "" {
+		if *planPath == "-" {
+			return &exitError{code: exitBadInput, msg: "-plan needs a file: the web app cannot read its plan from standard input"}
+		}
+		if start, err = readPlan(*planPath, nil); err != nil {
+			return err
+		}
+	}
+
+	logger := slog.New(slog.NewTextHandler(stderr, nil))
+	ln, err := net.Listen("tcp", *addr)
+	if err != nil {
+		return &exitError{code: 1, msg: listenMessage(*addr, err)}
+	}
+	srv := &http.Server{
+		Handler:           web.NewServer(logger, web.Config{Plan: start, Demos: demos}),
+		ReadHeaderTimeout: readHeaderTimeout,
+		ReadTimeout:       readTimeout,
+		WriteTimeout:      writeTimeout,
+		IdleTimeout:       idleTimeout,
+		MaxHeaderBytes:    maxHeaderBytes,
+		ErrorLog:          slog.NewLogLogger(logger.Handler(), slog.LevelWarn),
+	}
+	if !isLoopback(ln.Addr()) {
+		logger.Warn("gridloom has no login: anyone who can reach this address can use the app; listen on 127.0.0.1 to keep it to this machine",
+			"addr", ln.Addr().String())
+	}
+	fmt.Fprintf(stdout, "gridloom: serving %s\n", serveURL(ln.Addr(), *addr))
+
+	served := make(chan error, 1)
+	go func() { served <- srv.Serve(ln) }()
+	select {
+	case err := <-served:
+		return &exitError{code: 1, msg: "the web server stopped: " + err.Error()}
+	case <-ctx.Done():
+	}
+	logger.Info("shutting down")
+	shutdownCtx, cancel := context.WithTimeout(context.Background(), shutdownTimeout)
+	defer cancel()
+	if err := srv.Shutdown(shutdownCtx); err != nil {
+		return &exitError{code: 1, msg: "the web server did not shut down cleanly: " + err.Error()}
+	}
+	return nil
+}
+
+// listenMessage explains a failure to listen in one line.
+func listenMessage(addr string, err error) string {
+	if errors.Is(err, syscall.EADDRINUSE) {
+		return fmt.Sprintf("cannot listen on %s: the address is already in use; stop the other server or choose another address with -addr", addr)
+	}
+	return fmt.Sprintf("cannot listen on %s: %s", addr, strings.ReplaceAll(err.Error(), "\n", " "))
+}
+
+func isLoopback(a net.Addr) bool {
+	t, ok := a.(*net.TCPAddr)
+	return ok && t.IP.IsLoopback()
+}
+
+// serveURL is the address to print for a listener: one a browser can open,
+// so a listener on every interface is shown on loopback, of the family the
+// user asked for (requested is the -addr value).
+func serveURL(a net.Addr, requested string) string {
+	t, ok := a.(*net.TCPAddr)
+	if !ok {
+		return "http://" + a.String()
+	}
+	host := t.IP.String()
+	if t.IP == nil || t.IP.IsUnspecified() {
+		host = "127.0.0.1"
+		if h, _, err := net.SplitHostPort(requested); err == nil && strings.Contains(h, ":") {
+			host = "::1"
+		}
+	}
+	return "http://" + net.JoinHostPort(host, fmt.Sprint(t.Port))
+}
+
+// loadDemos decodes the embedded demo plans and returns them with the
+// default one, which the app opens with.
+func loadDemos() ([]web.Demo, web.Demo, error) {
+	names, err := fs.Glob(plans.FS, "*.yaml")
+	if err != nil {
+		return nil, web.Demo{}, err
+	}
+	slices.Sort(names)
+	var demos []web.Demo
+	var def web.Demo
+	for _, n := range names {
+		b, err := fs.ReadFile(plans.FS, n)
+		if err != nil {
+			return nil, web.Demo{}, err
+		}
+		p, err := planfile.DecodeYAML(b)
+		if err != nil {
+			return nil, web.Demo{}, fmt.Errorf("demo plan %s: %w", n, err)
+		}
+		d := web.Demo{Name: strings.TrimSuffix(n, ".yaml"), Plan: p}
+		demos = append(demos, d)
+		if n == plans.Default {
+			def = d
+		}
+	}
+	return demos, def, nil
 }

@@ -1,0 +1,588 @@
+// gridloom page script.
+//
+// 1. Live what-if: any change to the plan form fetches /fragment with the
+//    same query and swaps in the figure, the tables and the findings. The
+//    form itself is patched in place (messages, placeholders, choices), so
+//    what the user is typing is never touched; it is replaced whole only
+//    after an edit of the partition list, or when the set of fields changes.
+// 2. History: the address always holds the plan. A burst of typing opens one
+//    history entry (pushState) and keeps it current (replaceState); a
+//    committed change opens its own. The back button walks back through
+//    edits (popstate).
+// 3. The figure's readout: the pointer, or the arrow keys when the figure
+//    has focus, name the partition, slot, symbol, symbol start and cyclic
+//    prefix, CRB and frequency under it. They are computed here from the
+//    figure's hover contract (#gl-plot: data-x, data-y, data-w, data-h,
+//    data-span-tc, data-low-hz, data-high-hz) and the lattice parameters in
+//    #gl-lattice, with the timing of TS 38.211 5.3.1 — never from one DOM
+//    element per cell.
+//
+// Without this script the form still works: it is a plain GET form, and the
+// edit buttons submit an op that the server applies.
+(() => {
+  'use strict';
+
+  const DEBOUNCE_MS = 250;
+
+  // TS 38.211 4.1 and 5.3.1, in Tc = 1/(480 kHz · 4096).
+  const KAPPA = 64;
+  const TC_PER_SUBFRAME = 1966080;
+  const TC_PER_HALF = TC_PER_SUBFRAME / 2;
+  const TC_PER_US = 1966.08;
+
+  const byId = (id) => document.getElementById(id);
+
+  // ---------------------------------------------------------------------
+  // Live update
+
+  let timer = 0;
+  let inflight = null; // AbortController of the fragment request in flight
+  let seq = 0; // number of the latest request; older answers are dropped
+  let typing = false; // the current burst of typing has its history entry
+  let swapping = false; // the form is being replaced: its events are not edits
+
+  // queryOf serialises the plan form as the server reads it: empty values
+  // are left out, except partition names, which keep a partition in place.
+  function queryOf(form, op) {
+    const q = new URLSearchParams();
+    for (const [k, v] of new FormData(form)) {
+      if (typeof v !== 'string' || k === 'op') continue;
+      if (v === '' && !/^p\d+\.name$/.test(k)) continue;
+      q.append(k, v);
+    }
+    if (op) q.set('op', op);
+    return q.toString();
+  }
+
+  function schedule() {
+    clearTimeout(timer);
+    timer = setTimeout(() => update({ commit: false }), DEBOUNCE_MS);
+  }
+
+  // update fetches the workspace for the form (or for query, when the
+  // history gives one) and applies it.
+  async function update({ commit, op = '', query = null, fromHistory = false }) {
+    clearTimeout(timer);
+    const form = byId('gl-form');
+    if (!form) return;
+    const q = query !== null ? query : queryOf(form, op);
+    if (inflight) inflight.abort();
+    const ctl = new AbortController();
+    inflight = ctl;
+    const mine = ++seq;
+    setBusy(true);
+    let text;
+    try {
+      const res = await fetch('/fragment?' + q, { signal: ctl.signal, headers: { Accept: 'text/html' } });
+      if (res.status !== 200) {
+        throw new Error('the server answered ' + res.status + ' ' + res.statusText);
+      }
+      text = await res.text();
+    } catch (err) {
+      if (err.name === 'AbortError') return;
+      if (mine === seq) {
+        setBusy(false);
+        trouble('The plan could not be updated (' + err.message + '). Your input is still in the form; press Update to try again.');
+      }
+      return;
+    }
+    if (mine !== seq) return;
+    inflight = null;
+    setBusy(false);
+    const work = new DOMParser().parseFromString(text, 'text/html').getElementById('gl-work');
+    if (!work) {
+      trouble('The server sent something that is not the planner; press Update to try again.');
+      return;
+    }
+    trouble('');
+    apply(work, { full: op !== '' || fromHistory, commit, keepOpen: !fromHistory });
+    record(work.dataset.query || '', { commit, fromHistory });
+    if (work.dataset.title) document.title = work.dataset.title;
+    if (work.dataset.focus) focusControl(work.dataset.focus);
+  }
+
+  // record keeps the address in step with the plan.
+  function record(query, { commit, fromHistory }) {
+    if (fromHistory) return;
+    const url = '/?' + query;
+    const here = location.pathname + location.search;
+    if (commit) {
+      if (typing) history.replaceState(null, '', url);
+      else if (url !== here) history.pushState(null, '', url);
+      typing = false;
+    } else if (!typing) {
+      if (url !== here) history.pushState(null, '', url);
+      typing = true;
+    } else {
+      history.replaceState(null, '', url);
+    }
+  }
+
+  function setBusy(on) {
+    const r = byId('gl-results');
+    if (r) r.classList.toggle('gl-stale', on);
+  }
+
+  function trouble(msg) {
+    const t = byId('gl-trouble');
+    if (!t) return;
+    t.textContent = msg;
+    t.hidden = msg === '';
+  }
+
+  // apply swaps in a workspace that the server rendered.
+  function apply(work, { full, commit, keepOpen }) {
+    const results = byId('gl-results');
+    const fresh = work.querySelector('#gl-results');
+    if (results && fresh) {
+      const hadFocus = results.contains(document.activeElement) ? document.activeElement.id : '';
+      results.replaceWith(document.adoptNode(fresh));
+      resetReadout();
+      if (hadFocus && byId(hadFocus)) byId(hadFocus).focus({ preventScroll: true });
+    }
+    const upload = byId('gl-upload');
+    const freshUpload = work.querySelector('#gl-upload');
+    if (upload && freshUpload) {
+      upload.setAttribute('action', freshUpload.getAttribute('action'));
+      patchNotes(freshUpload);
+    }
+    const form = byId('gl-form');
+    const freshForm = work.querySelector('#gl-form');
+    if (!form || !freshForm) return;
+    if (full || form.dataset.shape !== freshForm.dataset.shape) {
+      replaceForm(form, freshForm, keepOpen);
+    } else {
+      patchForm(freshForm, commit);
+    }
+  }
+
+  function replaceForm(form, fresh, keepOpen) {
+    const active = document.activeElement;
+    const activeId = active && form.contains(active) ? active.id : '';
+    const open = {};
+    if (keepOpen) form.querySelectorAll('details[id]').forEach((d) => { open[d.id] = d.open; });
+    // Removing a control that has focus and unsaved text fires its change
+    // event; that is not an edit, so it must not open a history entry.
+    swapping = true;
+    try {
+      form.replaceWith(document.adoptNode(fresh));
+    } finally {
+      swapping = false;
+    }
+    for (const [id, wasOpen] of Object.entries(open)) {
+      const d = byId(id);
+      if (d && wasOpen) d.open = true;
+    }
+    if (activeId) focusControl(activeId);
+  }
+
+  function optionsKey(sel) {
+    return Array.from(sel.options, (o) => o.value + '\u0001' + o.text).join('\u0002');
+  }
+
+  function syncAttr(cur, fresh, name) {
+    const v = fresh.getAttribute(name);
+    if (v === null) cur.removeAttribute(name);
+    else if (cur.getAttribute(name) !== v) cur.setAttribute(name, v);
+  }
+
+  // patchForm brings the live form in line with the server's rendering
+  // without replacing a control: choices, placeholders and validity always;
+  // values only on a committed change, and never the control being typed in.
+  function patchForm(fresh, commit) {
+    const active = document.activeElement;
+    for (const el of fresh.querySelectorAll('input[id], select[id]')) {
+      const cur = byId(el.id);
+      if (!cur || cur.tagName !== el.tagName) continue;
+      syncAttr(cur, el, 'aria-invalid');
+      syncAttr(cur, el, 'placeholder');
+      if (el.tagName === 'SELECT') {
+        if (optionsKey(cur) !== optionsKey(el)) {
+          cur.replaceChildren(...Array.from(el.options, (o) => document.adoptNode(o.cloneNode(true))));
+          cur.value = el.value;
+        } else if (commit && cur !== active) {
+          cur.value = el.value;
+        }
+      } else if (commit && cur !== active && cur.value !== el.value) {
+        cur.value = el.value;
+      }
+    }
+    patchNotes(fresh);
+    for (const el of fresh.querySelectorAll('[data-sync][id]')) {
+      const cur = byId(el.id);
+      if (cur && cur.textContent !== el.textContent) cur.textContent = el.textContent;
+    }
+    for (const b of fresh.querySelectorAll('button[id]')) {
+      const cur = byId(b.id);
+      if (cur) cur.disabled = b.disabled;
+    }
+    for (const d of fresh.querySelectorAll('details[id][open]')) {
+      const cur = byId(d.id);
+      if (cur && d.querySelector('.gl-error, .gl-warning')) cur.open = true;
+    }
+  }
+
+  function patchNotes(fresh) {
+    for (const n of fresh.querySelectorAll('[data-notes][id]')) {
+      const cur = byId(n.id);
+      if (cur && cur.innerHTML !== n.innerHTML) {
+        cur.replaceChildren(...Array.from(n.childNodes, (c) => document.adoptNode(c.cloneNode(true))));
+      }
+    }
+  }
+
+  // focusControl focuses a control by id, or, when it is disabled (a move
+  // button at the end of the list), the name of its partition.
+  function focusControl(id) {
+    let el = byId(id);
+    if (el && el.disabled) {
+      const m = /^b-\w+-(\d+)$/.exec(id);
+      el = m ? byId('f-p' + m[1] + '-name') : null;
+    }
+    if (el) el.focus();
+  }
+
+  // Typing a locationAndBandwidth places the partition by it: the start
+  // and size it replaces show as placeholders until the server fills them.
+  function clearPlacement(riv) {
+    const m = /^p(\d+)\.riv$/.exec(riv.name);
+    if (!m || riv.value.trim() === '') return;
+    for (const k of ['start', 'size']) {
+      const el = byId('f-p' + m[1] + '-' + k);
+      if (el) el.value = '';
+    }
+  }
+
+  function inPlanForm(t) {
+    return !swapping && t && t.form && t.form.id === 'gl-form';
+  }
+
+  document.addEventListener('input', (e) => {
+    const t = e.target;
+    if (!inPlanForm(t) || t.tagName === 'SELECT') return;
+    if (/^p\d+\.riv$/.test(t.name)) clearPlacement(t);
+    schedule();
+  });
+
+  document.addEventListener('change', (e) => {
+    if (inPlanForm(e.target)) update({ commit: true });
+  });
+
+  document.addEventListener('submit', (e) => {
+    const form = e.target;
+    if (!form || form.id !== 'gl-form') return;
+    e.preventDefault();
+    const b = e.submitter;
+    update({ commit: true, op: b && b.name === 'op' ? b.value : '' });
+  });
+
+  window.addEventListener('popstate', () => {
+    typing = false;
+    if (location.search.length <= 1) {
+      location.reload();
+      return;
+    }
+    update({ commit: true, query: location.search.slice(1), fromHistory: true });
+  });
+
+  // ---------------------------------------------------------------------
+  // Timing of TS 38.211 5.3.1
+
+  // numerology holds, in Tc, the symbol parts of a partition's numerology:
+  // N_u = 2048·κ·2^−μ; with normal CP N_CP = 144·κ·2^−μ, and 16·κ more at
+  // l = 0 and l = 7·2^μ of each subframe; with extended CP (60 kHz only)
+  // N_CP = 512·κ·2^−μ.
+  function numerology(p) {
+    const scale = 2 ** p.mu;
+    const nu = (2048 * KAPPA) / scale;
+    const cp = (p.extended ? 512 * KAPPA : 144 * KAPPA) / scale;
+    const perSlot = p.extended ? 12 : 14;
+    return {
+      nu, cp, ext: p.extended, perSlot,
+      longCp: p.extended ? cp : cp + 16 * KAPPA,
+      perSubframe: perSlot * scale,
+      half: 7 * scale, // symbols per half subframe, normal CP
+    };
+  }
+
+  // symbolAt returns symbol k counted from the start of the span: the sum of
+  // N_u + N_CP,l over the symbols before it, in closed form per half subframe.
+  function symbolAt(n, k) {
+    const sf = Math.floor(k / n.perSubframe);
+    const l = k % n.perSubframe;
+    let start = sf * TC_PER_SUBFRAME;
+    let cp = n.cp;
+    if (n.ext) {
+      start += l * (n.nu + n.cp);
+    } else {
+      const h = Math.floor(l / n.half);
+      const j = l % n.half;
+      start += h * TC_PER_HALF;
+      if (j > 0) start += 16 * KAPPA + j * (n.nu + n.cp);
+      else cp = n.longCp;
+    }
+    return { k, slot: Math.floor(k / n.perSlot), symbol: k % n.perSlot, start, cp, length: n.nu + cp };
+  }
+
+  // symbolIndexAt is the symbol that holds instant t (Tc from the span start).
+  function symbolIndexAt(n, t) {
+    const sf = Math.floor(t / TC_PER_SUBFRAME);
+    const r = t - sf * TC_PER_SUBFRAME;
+    let l;
+    if (n.ext) {
+      l = Math.min(Math.floor(r / (n.nu + n.cp)), n.perSubframe - 1);
+    } else {
+      const h = Math.min(Math.floor(r / TC_PER_HALF), 1);
+      const rr = r - h * TC_PER_HALF;
+      const first = n.nu + n.longCp;
+      const j = rr < first ? 0 : Math.min(n.half - 1, 1 + Math.floor((rr - first) / (n.nu + n.cp)));
+      l = h * n.half + j;
+    }
+    return sf * n.perSubframe + l;
+  }
+
+  // crbEdge is the lower edge of CRB c: subcarrier 0 of CRB 0 is centred on
+  // point A (TS 38.211 4.4.4.3), so the edge is c·12·SCS − SCS/2, in Hz.
+  function crbEdge(p, c) {
+    return c * 12 * p.scsHz - p.scsHz / 2;
+  }
+
+  // ---------------------------------------------------------------------
+  // The figure's readout
+
+  let fig = null; // the figure's geometry and lattice, for the current results
+  let cursor = null; // the cell the keyboard points at: { part, k, crb }
+  let pending = null; // the last pointer event, drawn on the next frame
+
+  function resetReadout() {
+    fig = null;
+    cursor = null;
+  }
+
+  function figure() {
+    if (fig && fig.plot.isConnected) return fig;
+    const box = byId('gl-figure');
+    const plot = box && box.querySelector('#gl-plot');
+    const data = byId('gl-lattice');
+    if (!plot || !data) return null;
+    let lattice;
+    try {
+      lattice = JSON.parse(data.textContent);
+    } catch {
+      return null;
+    }
+    const num = (name) => Number(plot.getAttribute(name));
+    fig = {
+      box, plot, lattice,
+      x: num('data-x'), y: num('data-y'), w: num('data-w'), h: num('data-h'),
+      spanTc: num('data-span-tc'), lowHz: num('data-low-hz'), highHz: num('data-high-hz'),
+      nums: lattice.parts.map(numerology),
+      mark: null,
+    };
+    if (!(fig.w > 0 && fig.h > 0 && fig.spanTc > 0 && fig.highHz > fig.lowHz)) {
+      fig = null;
+    }
+    return fig;
+  }
+
+  // toPlot maps a pointer position to time (Tc) and frequency (Hz from
+  // point A), or null outside the plot area.
+  function toPlot(f, clientX, clientY) {
+    const m = f.plot.getScreenCTM();
+    if (!m) return null;
+    const p = new DOMPoint(clientX, clientY).matrixTransform(m.inverse());
+    if (p.x < f.x || p.x > f.x + f.w || p.y < f.y || p.y > f.y + f.h) return null;
+    return {
+      t: ((p.x - f.x) / f.w) * f.spanTc,
+      hz: f.lowHz + ((f.y + f.h - p.y) / f.h) * (f.highHz - f.lowHz),
+    };
+  }
+
+  // cellAt finds the partition, symbol and CRB at (t, hz).
+  function cellAt(f, t, hz) {
+    const parts = f.lattice.parts;
+    const hits = [];
+    parts.forEach((p, i) => { if (hz >= p.lowHz && hz < p.highHz) hits.push(i); });
+    if (hits.length === 0) return { t, hz, part: -1 };
+    const i = hits[0];
+    const p = parts[i];
+    const n = f.nums[i];
+    const k = Math.min(symbolIndexAt(n, Math.max(0, Math.min(t, f.spanTc - 1))), p.symbols - 1);
+    const crb = Math.min(Math.max(Math.floor((hz + p.scsHz / 2) / (12 * p.scsHz)), p.startCrb), p.startCrb + p.sizePrb - 1);
+    return { t, hz, part: i, k, crb, also: hits.slice(1) };
+  }
+
+  const fmtUs = (tc) => (tc / TC_PER_US).toFixed(3);
+  const fmtKHz = (hz) => (hz / 1000).toFixed(1);
+  const fmtMHz = (hz) => (hz / 1e6).toFixed(4);
+  const DIRS = { D: 'downlink', U: 'uplink', F: 'flexible' };
+
+  function show(f, cell) {
+    const out = byId('gl-readout');
+    if (!out) return;
+    const parts = f.lattice.parts;
+    f.plot.querySelectorAll('.gl-part.gl-hot').forEach((g) => g.classList.remove('gl-hot'));
+    f.plot.classList.toggle('gl-hovering', cell.part >= 0);
+    const abs = (hz) => (f.lattice.pointAHz !== null ? ' (' + fmtMHz(f.lattice.pointAHz + hz) + ' MHz)' : '');
+    if (cell.part < 0) {
+      out.textContent = 'No partition at ' + fmtKHz(cell.hz) + ' kHz from point A' + abs(cell.hz) + ', ' + fmtUs(cell.t) + ' µs into the span.';
+      setData(out, {});
+      mark(f, null);
+      return;
+    }
+    const p = parts[cell.part];
+    const n = f.nums[cell.part];
+    const s = symbolAt(n, cell.k);
+    const g = f.plot.querySelector('.gl-part[data-index="' + cell.part + '"]');
+    if (g) g.classList.add('gl-hot');
+    const bits = [
+      p.name + ' · ' + p.scsHz / 1000 + ' kHz' + (p.extended ? ' extended CP' : ''),
+      'slot ' + s.slot + ', symbol ' + s.symbol,
+      'starts ' + fmtUs(s.start) + ' µs, CP ' + fmtUs(s.cp) + ' µs',
+      'CRB ' + cell.crb + ' (PRB ' + (cell.crb - p.startCrb) + ')',
+      fmtKHz(cell.hz) + ' kHz from point A' + abs(cell.hz),
+    ];
+    if (p.dirs) bits.push(DIRS[p.dirs[cell.k]] || p.dirs[cell.k]);
+    const ssb = (f.lattice.ssb || []).find((b) => cell.t >= b.startTc && cell.t < b.endTc && cell.hz >= b.lowHz && cell.hz < b.highHz);
+    if (ssb) bits.push('SS/PBCH block ' + ssb.index);
+    if (cell.also && cell.also.length) bits.push('overlaps ' + cell.also.map((i) => parts[i].name).join(', '));
+    out.textContent = bits.join(' · ');
+    setData(out, {
+      part: String(p.plan), name: p.name, slot: String(s.slot), symbol: String(s.symbol), k: String(s.k),
+      startTc: String(s.start), cpTc: String(s.cp), crb: String(cell.crb),
+    });
+    mark(f, { p, s, crb: cell.crb });
+  }
+
+  function setData(el, d) {
+    for (const k of ['part', 'name', 'slot', 'symbol', 'k', 'startTc', 'cpTc', 'crb']) {
+      if (k in d) el.dataset[k] = d[k];
+      else delete el.dataset[k];
+    }
+  }
+
+  // mark outlines the cell (one symbol by one CRB) in the figure.
+  function mark(f, cell) {
+    if (!cell) {
+      if (f.mark) f.mark.remove();
+      f.mark = null;
+      return;
+    }
+    if (!f.mark) {
+      f.mark = document.createElementNS('http://www.w3.org/2000/svg', 'rect');
+      f.mark.setAttribute('class', 'gl-cursor');
+      f.plot.appendChild(f.mark);
+    }
+    const { p, s, crb } = cell;
+    const x0 = f.x + (s.start / f.spanTc) * f.w;
+    const x1 = f.x + ((s.start + s.length) / f.spanTc) * f.w;
+    const yOf = (hz) => f.y + f.h - ((hz - f.lowHz) / (f.highHz - f.lowHz)) * f.h;
+    const top = yOf(crbEdge(p, crb + 1));
+    const bottom = yOf(crbEdge(p, crb));
+    f.mark.setAttribute('x', String(x0));
+    f.mark.setAttribute('y', String(top));
+    f.mark.setAttribute('width', String(Math.max(x1 - x0, 1)));
+    f.mark.setAttribute('height', String(Math.max(bottom - top, 1)));
+  }
+
+  function hide() {
+    const f = figure();
+    if (!f) return;
+    f.plot.classList.remove('gl-hovering');
+    f.plot.querySelectorAll('.gl-part.gl-hot').forEach((g) => g.classList.remove('gl-hot'));
+    mark(f, null);
+  }
+
+  document.addEventListener('pointermove', (e) => {
+    if (!e.target.closest || !e.target.closest('#gl-figure')) return;
+    if (pending === null) requestAnimationFrame(drawPending);
+    pending = { x: e.clientX, y: e.clientY };
+  });
+
+  function drawPending() {
+    const at = pending;
+    pending = null;
+    const f = figure();
+    if (!f || !at) return;
+    const p = toPlot(f, at.x, at.y);
+    if (!p) return;
+    show(f, cellAt(f, p.t, p.hz));
+  }
+
+  document.addEventListener('pointerout', (e) => {
+    if (e.target.closest && e.target.closest('#gl-figure') && !(e.relatedTarget && e.relatedTarget.closest && e.relatedTarget.closest('#gl-figure'))) {
+      if (document.activeElement && document.activeElement.id === 'gl-figure' && cursor) showCursor();
+      else hide();
+    }
+  });
+
+  // Keyboard: arrows move by symbol and CRB (with Shift by slot and ten
+  // CRBs), Page Up and Page Down change partition, Home and End jump to
+  // the span's ends, Escape hides the mark.
+  function showCursor() {
+    const f = figure();
+    if (!f || !cursor) return;
+    const p = f.lattice.parts[cursor.part];
+    const s = symbolAt(f.nums[cursor.part], cursor.k);
+    show(f, { part: cursor.part, k: cursor.k, crb: cursor.crb, t: s.start + s.length / 2, hz: crbEdge(p, cursor.crb) + 6 * p.scsHz });
+  }
+
+  // byFrequency lists the partition indexes from the lowest up.
+  function byFrequency(f) {
+    return f.lattice.parts.map((_, i) => i).sort((a, b) => f.lattice.parts[a].lowHz - f.lattice.parts[b].lowHz);
+  }
+
+  document.addEventListener('focusin', (e) => {
+    if (e.target.id !== 'gl-figure') return;
+    const f = figure();
+    if (!f || f.lattice.parts.length === 0) return;
+    if (!cursor) {
+      const i = byFrequency(f)[0];
+      cursor = { part: i, k: 0, crb: f.lattice.parts[i].startCrb };
+    }
+    showCursor();
+  });
+
+  document.addEventListener('focusout', (e) => {
+    if (e.target.id === 'gl-figure') hide();
+  });
+
+  document.addEventListener('keydown', (e) => {
+    if (e.target.id !== 'gl-figure' || e.altKey || e.ctrlKey || e.metaKey) return;
+    const f = figure();
+    if (!f || !cursor) return;
+    const p = f.lattice.parts[cursor.part];
+    const n = f.nums[cursor.part];
+    const clampK = (k) => Math.max(0, Math.min(k, p.symbols - 1));
+    const clampC = (c) => Math.max(p.startCrb, Math.min(c, p.startCrb + p.sizePrb - 1));
+    const step = e.shiftKey ? n.perSlot : 1;
+    switch (e.key) {
+      case 'ArrowRight': cursor.k = clampK(cursor.k + step); break;
+      case 'ArrowLeft': cursor.k = clampK(cursor.k - step); break;
+      case 'ArrowUp': cursor.crb = clampC(cursor.crb + (e.shiftKey ? 10 : 1)); break;
+      case 'ArrowDown': cursor.crb = clampC(cursor.crb - (e.shiftKey ? 10 : 1)); break;
+      case 'Home': cursor.k = 0; break;
+      case 'End': cursor.k = p.symbols - 1; break;
+      case 'PageUp':
+      case 'PageDown': {
+        const order = byFrequency(f);
+        const at = order.indexOf(cursor.part) + (e.key === 'PageUp' ? 1 : -1);
+        if (at < 0 || at >= order.length) break;
+        const s = symbolAt(n, cursor.k);
+        const j = order[at];
+        const q = f.lattice.parts[j];
+        const t = s.start + s.length / 2;
+        cursor = {
+          part: j,
+          k: Math.min(symbolIndexAt(f.nums[j], t), q.symbols - 1),
+          crb: e.key === 'PageUp' ? q.startCrb : q.startCrb + q.sizePrb - 1,
+        };
+        break;
+      }
+      case 'Escape': hide(); return;
+      default: return;
+    }
+    e.preventDefault();
+    showCursor();
+  });
+})();

@@ -1,0 +1,98 @@
+package web
+
+import (
+	"bytes"
+	"crypto/sha256"
+	"encoding/base64"
+	"html"
+	"io"
+	"regexp"
+	"slices"
+	"strings"
+
+	"gridloom/grid"
+	"gridloom/render"
+)
+
+// FigureFunc draws a result as an SVG document; render.Figure is the one
+// the app uses.
+type FigureFunc func(w io.Writer, r grid.Result, opt render.Options) error
+
+// drawFigure draws res into memory, so that a failure never sends half a
+// figure.
+func drawFigure(draw FigureFunc, res grid.Result) ([]byte, error) {
+	var buf bytes.Buffer
+	if err := draw(&buf, res, render.Options{}); err != nil {
+		return nil, err
+	}
+	return buf.Bytes(), nil
+}
+
+// inlineSVG prepares an SVG document for inlining in the page: the XML
+// declaration and doctype before the root element go, since HTML has no use
+// for them.
+func inlineSVG(doc []byte) string {
+	if i := bytes.Index(doc, []byte("<svg")); i > 0 {
+		doc = doc[i:]
+	}
+	return string(bytes.TrimSpace(doc))
+}
+
+var (
+	styleElement = regexp.MustCompile(`(?s)<style\b[^>]*>(.*?)</style\s*>`)
+	styleAttr    = regexp.MustCompile(`\sstyle\s*=\s*("([^"]*)"|'([^']*)')`)
+)
+
+// styleSources lists the CSP sources that let the inline figure keep its own
+// styling under the page's policy, which otherwise allows only the app's
+// stylesheet: a hash for each <style> element and, with 'unsafe-hashes',
+// for each distinct style attribute. The hashes cover exactly the figure
+// drawn for this response, so nothing else can be injected through them.
+func styleSources(svg string) []string {
+	var out []string
+	for _, m := range styleElement.FindAllStringSubmatch(svg, -1) {
+		out = append(out, cspHash(styleText(m[1])))
+	}
+	var attrs []string
+	for _, m := range styleAttr.FindAllStringSubmatch(svg, -1) {
+		v := m[2] + m[3]
+		h := cspHash(html.UnescapeString(v))
+		if !slices.Contains(attrs, h) {
+			attrs = append(attrs, h)
+		}
+	}
+	if len(attrs) > 0 {
+		out = append(out, "'unsafe-hashes'")
+		out = append(out, attrs...)
+	}
+	slices.Sort(out)
+	return slices.Compact(out)
+}
+
+// styleText is the text of a <style> element as the HTML parser sees it in
+// SVG content: CDATA sections are text, character references are decoded.
+func styleText(raw string) string {
+	var b strings.Builder
+	for raw != "" {
+		i := strings.Index(raw, "<![CDATA[")
+		if i < 0 {
+			b.WriteString(html.UnescapeString(raw))
+			break
+		}
+		b.WriteString(html.UnescapeString(raw[:i]))
+		raw = raw[i+len("<![CDATA["):]
+		j := strings.Index(raw, "]]>")
+		if j < 0 {
+			b.WriteString(raw)
+			break
+		}
+		b.WriteString(raw[:j])
+		raw = raw[j+3:]
+	}
+	return b.String()
+}
+
+func cspHash(s string) string {
+	sum := sha256.Sum256([]byte(s))
+	return "'sha256-" + base64.StdEncoding.EncodeToString(sum[:]) + "'"
+}
