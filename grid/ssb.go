@@ -45,10 +45,10 @@ var ssbCases = []ssbCase{
 	{"G", 960, []int{2, 9}, 14},
 }
 
-// ssbSCS lists the SS/PBCH spacings of each range (TS 38.101-1/-2 and
-// TS 38.104 band tables: 15 or 30 kHz in FR1; 120 or 240 kHz in FR2-1;
+// SSBSCS lists the SS/PBCH block spacings (kHz) of the range (TS 38.101-1/-2
+// and TS 38.104 band tables: 15 or 30 kHz in FR1; 120 or 240 kHz in FR2-1;
 // 120, 480 or 960 kHz in FR2-2).
-func ssbSCS(r Range) []int {
+func (r Range) SSBSCS() []int {
 	switch r {
 	case FR2_1:
 		return []int{120, 240}
@@ -119,7 +119,7 @@ type SSB struct {
 }
 
 func checkSSB(fs *findings, rng Range, s *SSBPlan, ch Channel, freq Hz, freqKnown, unpaired bool, span int) (SSB, bool) {
-	allowed := ssbSCS(rng)
+	allowed := rng.SSBSCS()
 	mu, _ := MuForSCS(s.SCSKHz)
 	if !slices.Contains(allowed, s.SCSKHz) {
 		fs.add(Error, CodeSSB, "", "ssb.scsKHz", "ssb.scsKHz %s is not an SS/PBCH block spacing of %s; use %s kHz.", given(s.SCSKHz), rng, joinInts(allowed))
