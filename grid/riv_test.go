@@ -61,3 +61,26 @@ func TestRIVRefuses(t *testing.T) {
 		}
 	}
 }
+
+// FuzzRIV: any value decodes only inside 0…37949, and then to a start and
+// length that encode back to it (TS 38.214 5.1.2.2.2).
+func FuzzRIV(f *testing.F) {
+	for _, v := range []int{0, 1099, 13750, 37949, 37950, -1, 274, 275, 1 << 40} {
+		f.Add(v)
+	}
+	f.Fuzz(func(t *testing.T, riv int) {
+		start, length, ok := DecodeRIV(riv)
+		if ok != (riv >= 0 && riv <= MaxRIV) {
+			t.Fatalf("DecodeRIV(%d) ok = %v", riv, ok)
+		}
+		if !ok {
+			return
+		}
+		if start < 0 || length < 1 || start+length > RIVSize {
+			t.Fatalf("DecodeRIV(%d) = start %d, length %d: outside the %d RBs", riv, start, length, RIVSize)
+		}
+		if back, ok := EncodeRIV(start, length); !ok || back != riv {
+			t.Fatalf("EncodeRIV(DecodeRIV(%d)) = %d, %v", riv, back, ok)
+		}
+	})
+}
