@@ -2,6 +2,7 @@ package render
 
 import (
 	"bytes"
+	"fmt"
 	"testing"
 )
 
@@ -36,4 +37,24 @@ func BenchmarkSymbolCSV(b *testing.B) {
 		}
 	}
 	b.SetBytes(int64(buf.Len()))
+}
+
+// BenchmarkFigurePNG rasterises each demo plan and the heaviest plan at the
+// default width and the widest; png-bytes is the size of one image.
+func BenchmarkFigurePNG(b *testing.B) {
+	for _, path := range append(demoPlans(b), stressPlan) {
+		r := compute(b, loadPlan(b, path))
+		for _, width := range []int{DefaultWidth, MaxWidth} {
+			b.Run(fmt.Sprintf("%s-%d", planName(path), width), func(b *testing.B) {
+				var buf bytes.Buffer
+				for b.Loop() {
+					buf.Reset()
+					if err := FigurePNG(&buf, r, Options{Width: width}); err != nil {
+						b.Fatal(err)
+					}
+				}
+				b.ReportMetric(float64(buf.Len()), "png-bytes")
+			})
+		}
+	}
 }

@@ -94,8 +94,10 @@ func TestDrawnLinesAreVisible(t *testing.T) {
 					}
 				}
 				d := chooseDetail(r.Partitions[i], plotFrame(r, width))
-				if !strings.Contains(legend, d.describe(r.Partitions[i].SizePRB)) {
-					t.Errorf("%s: legend does not say %q", where, d.describe(r.Partitions[i].SizePRB))
+				for _, part := range d.parts(r.Partitions[i].SizePRB) {
+					if !strings.Contains(legend, part) {
+						t.Errorf("%s: legend does not say %q", where, part)
+					}
 				}
 				has := func(kind string) bool { return len(g.all(byClass(kind))) > 0 }
 				if has("gl-symbols") != d.symbols {

@@ -4,8 +4,6 @@ import (
 	"fmt"
 	"strings"
 
-	svg "github.com/ajstarks/svgo"
-
 	"gridloom/grid"
 )
 
@@ -55,7 +53,10 @@ func chooseDetail(l grid.Lattice, f frame) detail {
 }
 
 // describe says in words what d draws, for the legend.
-func (d detail) describe(sizePRB int) string {
+func (d detail) describe(sizePRB int) string { return strings.Join(d.parts(sizePRB), " · ") }
+
+// parts says what d draws, one phrase per line kind.
+func (d detail) parts(sizePRB int) []string {
 	var parts []string
 	switch {
 	case d.rowStep >= sizePRB && sizePRB > 1:
@@ -83,116 +84,109 @@ func (d detail) describe(sizePRB int) string {
 	default:
 		parts = append(parts, "CP strips omitted (under 1 px)")
 	}
-	return strings.Join(parts, " · ")
+	return parts
 }
 
 // drawPartition draws lattice l, number i of the result, in its gl-part
-// group: the filled body, then one path per line kind with one segment per
-// drawn line.
-func drawPartition(s *svg.SVG, f frame, i int, l grid.Lattice, d detail) {
-	colour := partColour(i)
+// group: the filled body, the wash over symbols of the other TDD direction,
+// then one path per line kind with one segment per drawn line, the TDD
+// band and the name.
+func drawPartition(b *builder, f frame, i int, l grid.Lattice, d detail, t *tddDrawing, tdd *grid.TDD) {
+	lk := b.lk
 	top, bottom := f.Y(l.High), f.Y(l.Low)
 	left, right := float64(f.x), f.right()
 	span := f.span
 	half := grid.TcPerHalfFrame
 
-	s.Group(`class="gl-part"`, fmt.Sprintf(`data-index="%d"`, i))
-
-	var body pathData
-	body.rect(left, top, right, bottom)
-	s.Path(body.String(), `class="gl-body"`, `fill="url(#`+fillID(i)+`)"`,
-		`stroke="`+colour+`"`, `stroke-width="1.2"`)
+	b.open(group{class: "gl-part", data: []attr{{"data-index", fmt.Sprint(i)}}})
+	b.add(shape{class: "gl-body", d: pathOf(func(p *pathData) { p.rect(left, top, right, bottom) }),
+		fill: b.partFill(i), stroke: solid(lk.part(i)), strokeW: lk.bodyW})
+	if t != nil {
+		drawTDDWash(b, t, top, bottom)
+	}
 
 	n := l.Numerology
 	count := l.SymbolCount()
 
 	// Cyclic prefixes: each strip is one stroke as wide as the CP, centred
 	// on it, so a strip is a single segment.
-	cpW, longW := float64(n.CPTc(1))*f.pxPerTc(), float64(n.CPTc(0))*f.pxPerTc()
-	var normal, long pathData
-	if d.cp {
-		for k := range count {
-			sym := n.SymbolAt(k)
-			if sym.Start >= span {
-				break
-			}
-			if !d.hasLong || sym.CP == n.CPTc(1) {
-				normal.vline(f.X(sym.Start)+cpW/2, top, bottom)
+	if b.shows(LayerCP) {
+		cpW, longW := float64(n.CPTc(1))*f.pxPerTc(), float64(n.CPTc(0))*f.pxPerTc()
+		var normal, long pathData
+		if d.cp {
+			for k := range count {
+				sym := n.SymbolAt(k)
+				if sym.Start >= span {
+					break
+				}
+				if !d.hasLong || sym.CP == n.CPTc(1) {
+					normal.vline(f.X(sym.Start)+cpW/2, top, bottom)
+				}
 			}
 		}
-	}
-	if d.longCP {
-		// The longer CP opens every half subframe (TS 38.211 5.3.1).
-		for t := grid.Tc(0); t < span; t += half {
-			long.vline(f.X(t)+longW/2, top, bottom)
+		if d.longCP {
+			// The longer CP opens every half subframe (TS 38.211 5.3.1).
+			for t := grid.Tc(0); t < span; t += half {
+				long.vline(f.X(t)+longW/2, top, bottom)
+			}
 		}
-	}
-	if normal.segs > 0 {
-		s.Path(normal.String(), `class="gl-cp"`, `fill="none"`, `stroke="`+inkLattice+`"`,
-			`stroke-opacity="0.2"`, `stroke-width="`+width(cpW)+`"`)
-	}
-	if long.segs > 0 {
-		s.Path(long.String(), `class="gl-longcp"`, `fill="none"`, `stroke="`+inkLattice+`"`,
-			`stroke-opacity="0.55"`, `stroke-width="`+width(longW)+`"`)
+		b.add(line("gl-cp", normal, lk.lattice, lk.cpA, cpW))
+		b.add(line("gl-longcp", long, lk.lattice, lk.longA, longW))
 	}
 
-	// PRB rows, counted from PRB 0 of the partition; a row too close to
-	// the partition's upper edge would merge with it and is left out.
-	var rows pathData
-	prbPx := float64(12*n.SCS()) * f.pxPerHz()
-	for p := d.rowStep; p < l.SizePRB; p += d.rowStep {
-		if float64(l.SizePRB-p)*prbPx < minLineGap {
-			break
+	if b.shows(LayerLattice) {
+		// PRB rows, counted from PRB 0 of the partition; a row too close to
+		// the partition's upper edge would merge with it and is left out.
+		var rows pathData
+		prbPx := float64(12*n.SCS()) * f.pxPerHz()
+		for p := d.rowStep; p < l.SizePRB; p += d.rowStep {
+			if float64(l.SizePRB-p)*prbPx < minLineGap {
+				break
+			}
+			rows.hline(f.Y(l.Low+grid.Hz(p)*12*n.SCS()), left, right)
 		}
-		rows.hline(f.Y(l.Low+grid.Hz(p)*12*n.SCS()), left, right)
-	}
-	if rows.segs > 0 {
-		s.Path(rows.String(), `class="gl-rows"`, `fill="none"`, `stroke="`+inkLattice+`"`,
-			`stroke-opacity="0.5"`, `stroke-width="0.6"`)
+		b.add(line("gl-rows", rows, lk.lattice, lk.rowA, lk.rowW))
+
+		// Symbol boundaries that are not slot boundaries, and slot boundaries
+		// that are not 0.5 ms marks (those are drawn across the whole plot).
+		var syms, slots pathData
+		if d.symbols {
+			for k := 1; k < count; k++ {
+				sym := n.SymbolAt(k)
+				if sym.Start >= span {
+					break
+				}
+				if sym.Start%half == 0 || sym.Symbol == 0 {
+					continue
+				}
+				syms.vline(f.X(sym.Start), top, bottom)
+			}
+		}
+		if d.slots {
+			for k := 1; k < l.SlotCount(); k++ {
+				start, _ := n.Slot(k)
+				if start >= span {
+					break
+				}
+				if start%half != 0 {
+					slots.vline(f.X(start), top, bottom)
+				}
+			}
+		}
+		b.add(line("gl-symbols", syms, lk.lattice, lk.symA, lk.symW))
+		b.add(line("gl-slots", slots, lk.lattice, lk.slotA, lk.slotW))
 	}
 
-	// Symbol boundaries that are not slot boundaries, and slot boundaries
-	// that are not 0.5 ms marks (those are drawn across the whole plot).
-	var syms, slots pathData
-	if d.symbols {
-		for k := 1; k < count; k++ {
-			sym := n.SymbolAt(k)
-			if sym.Start >= span {
-				break
-			}
-			if sym.Start%half == 0 || sym.Symbol == 0 {
-				continue
-			}
-			syms.vline(f.X(sym.Start), top, bottom)
-		}
-	}
-	if d.slots {
-		for k := 1; k < l.SlotCount(); k++ {
-			start, _ := n.Slot(k)
-			if start >= span {
-				break
-			}
-			if start%half != 0 {
-				slots.vline(f.X(start), top, bottom)
-			}
-		}
-	}
-	if syms.segs > 0 {
-		s.Path(syms.String(), `class="gl-symbols"`, `fill="none"`, `stroke="`+inkLattice+`"`,
-			`stroke-opacity="0.55"`, `stroke-width="0.6"`)
-	}
-	if slots.segs > 0 {
-		s.Path(slots.String(), `class="gl-slots"`, `fill="none"`, `stroke="`+inkLattice+`"`,
-			`stroke-opacity="0.85"`, `stroke-width="1.2"`)
+	if t != nil {
+		drawTDDBand(b, t, tdd, top, bottom)
 	}
 
 	// The name, where the partition is tall enough to hold it; the legend
 	// always has it.
-	if bottom-top >= 16 {
-		s.Textspan(f.x+5, int(top)+13, shown(l.Name), `font-size="11"`, `font-weight="bold"`,
-			`fill="`+inkText+`"`, `stroke="#ffffff"`, `stroke-width="3"`, `stroke-linejoin="round"`, `paint-order="stroke"`)
-		s.Span(fmt.Sprintf("%d kHz", n.SCSKHz()), `dx="6"`, `font-weight="normal"`)
-		s.TextEnd()
+	if bottom-top >= 16 && b.shows(LayerLabels) {
+		b.text(label{class: "gl-name", x: float64(f.x + 5), y: float64(int(top) + 13),
+			runs: []run{{text: clean(shown(l.Name)), bold: true}, {text: fmt.Sprintf("%d kHz", n.SCSKHz()), dx: 6}},
+			halo: true})
 	}
-	s.Gend()
+	b.end()
 }

@@ -1,35 +1,110 @@
 package render
 
-import (
-	"fmt"
+import "fmt"
 
-	svg "github.com/ajstarks/svgo"
-)
+// look is everything a theme decides: inks, line widths and opacities,
+// and the patterns. Themes are fixed values of the package; nothing a user
+// types reaches a style.
+type look struct {
+	parts []rgb // partition colours, used in turn
+
+	text, soft, lattice rgb
+	outsideGround       rgb
+	outsideLines        rgb
+	unusedDot           rgb
+	guard               rgb // guardband fill, when not hatched
+	guardHatch          bool
+
+	// Line widths in px and opacities of the lattice lines.
+	bodyW, slotW, symW, rowW float64
+	slotA, symA, rowA        float64
+	cpA, longA               float64
+	edgeW, alignW, frameW    float64
+
+	// Partition patterns: tint of the partition colour under marks of it.
+	tintA, markA, strokeA float64
+	fineW, coarseW        float64
+
+	// TDD band inks and the wash over symbols of the other direction.
+	tddD, tddF, tddUHatch rgb
+	tddLetterOnD          rgb
+	washA                 float64
+
+	// SS/PBCH blocks.
+	ssbFill  rgb
+	ssbFillA float64
+	ssbLine  rgb
+	ssbW     float64
+}
 
 // partColours is the Okabe–Ito colour-blind-safe palette (Okabe and Ito,
 // "Color Universal Design", 2008) without its black, which the figure keeps
 // for lines and text. Blue comes first because it prints darkest.
-var partColours = []string{
-	"#0072B2", // blue
-	"#E69F00", // orange
-	"#009E73", // bluish green
-	"#D55E00", // vermillion
-	"#56B4E9", // sky blue
-	"#CC79A7", // reddish purple
-	"#F0E442", // yellow
+var partColours = []rgb{
+	{0x00, 0x72, 0xB2}, // blue
+	{0xE6, 0x9F, 0x00}, // orange
+	{0x00, 0x9E, 0x73}, // bluish green
+	{0xD5, 0x5E, 0x00}, // vermillion
+	{0x56, 0xB4, 0xE9}, // sky blue
+	{0xCC, 0x79, 0xA7}, // reddish purple
+	{0xF0, 0xE4, 0x42}, // yellow
 }
 
-// Neutral inks. Everything that is not a partition is drawn in greys, so
-// the colours belong to the partitions alone.
-const (
-	inkText      = "#1a1a1a"
-	inkSoft      = "#555555"
-	inkLattice   = "#202020"
-	inkGuard     = "#e3e3e3"
-	inkOutside   = "#f4f4f4"
-	inkOutLines  = "#b8b8b8"
-	inkUnusedDot = "#9a9a9a"
-)
+// lightLook is the screen figure. Everything that is not a partition is
+// drawn in greys, so the colours belong to the partitions alone.
+var lightLook = look{
+	parts:         partColours,
+	text:          rgb{0x1a, 0x1a, 0x1a},
+	soft:          rgb{0x55, 0x55, 0x55},
+	lattice:       rgb{0x20, 0x20, 0x20},
+	outsideGround: rgb{0xf4, 0xf4, 0xf4},
+	outsideLines:  rgb{0xb8, 0xb8, 0xb8},
+	unusedDot:     rgb{0x9a, 0x9a, 0x9a},
+	guard:         rgb{0xe3, 0xe3, 0xe3},
+
+	bodyW: 1.2, slotW: 1.2, symW: 0.6, rowW: 0.6,
+	slotA: 0.85, symA: 0.55, rowA: 0.5,
+	cpA: 0.2, longA: 0.55,
+	edgeW: 2, alignW: 1.3, frameW: 1,
+
+	tintA: 0.14, markA: 0.4, strokeA: 0.5,
+	fineW: 0.8, coarseW: 1.4,
+
+	tddD: rgb{0x3a, 0x3a, 0x3a}, tddF: rgb{0xa8, 0xa8, 0xa8}, tddUHatch: rgb{0x3a, 0x3a, 0x3a},
+	tddLetterOnD: white,
+	washA:        0.55,
+
+	ssbFill: white, ssbFillA: 0.8, ssbLine: black, ssbW: 1.6,
+}
+
+// printLook is for documents: black and white patterns without tints,
+// greys no lighter than a laser printer keeps, and heavier lines.
+var printLook = look{
+	parts:         []rgb{black},
+	text:          black,
+	soft:          rgb{0x40, 0x40, 0x40},
+	lattice:       black,
+	outsideGround: white,
+	outsideLines:  rgb{0x70, 0x70, 0x70},
+	unusedDot:     rgb{0x80, 0x80, 0x80},
+	guardHatch:    true,
+
+	bodyW: 1.6, slotW: 1.6, symW: 0.9, rowW: 0.9,
+	slotA: 1, symA: 0.8, rowA: 0.7,
+	cpA: 0.3, longA: 0.65,
+	edgeW: 2.6, alignW: 1.8, frameW: 1.4,
+
+	tintA: 0, markA: 1, strokeA: 1,
+	fineW: 0.9, coarseW: 1.5,
+
+	tddD: black, tddF: rgb{0x80, 0x80, 0x80}, tddUHatch: black,
+	tddLetterOnD: white,
+	washA:        0.6,
+
+	ssbFill: white, ssbFillA: 0.85, ssbLine: black, ssbW: 2.2,
+}
+
+func (lk *look) part(i int) rgb { return lk.parts[i%len(lk.parts)] }
 
 // fillKinds is the number of pattern shapes. A partition's pattern is
 // shape i mod fillKinds, drawn fine for the first fillKinds partitions and
@@ -37,60 +112,143 @@ const (
 // has a pattern of its own and the figure still reads in greyscale.
 const fillKinds = 8
 
-func partColour(i int) string { return partColours[i%len(partColours)] }
-
 func fillID(i int) string { return fmt.Sprintf("gl-fill-%d", i) }
 
-// defineFills writes one <pattern> per partition and the patterns of the
-// spectrum that no partition occupies.
-func defineFills(s *svg.SVG, n int) {
-	for i := range n {
-		definePartFill(s, i)
-	}
-	// Outside the channel: thin grey diagonals on an off-white ground.
-	s.Pattern("gl-outside", 0, 0, 6, 6, "user")
-	s.Rect(0, 0, 6, 6, `fill="`+inkOutside+`"`)
-	s.Path("M0 6L6 0M-1 1L1 -1M5 7L7 5", `stroke="`+inkOutLines+`"`, `stroke-width="0.7"`, `fill="none"`)
-	s.PatternEnd()
-	// Unused spectrum inside the channel: sparse grey dots on white.
-	s.Pattern("gl-unused", 0, 0, 8, 8, "user")
-	s.Rect(0, 0, 8, 8, `fill="#ffffff"`)
-	s.Circle(4, 4, 1, `fill="`+inkUnusedDot+`"`)
-	s.PatternEnd()
+// pathOf builds a pathData with fn.
+func pathOf(fn func(p *pathData)) pathData {
+	var p pathData
+	fn(&p)
+	return p
 }
 
-// definePartFill writes pattern i: a light tint of the partition's colour
-// with marks of one of fillKinds shapes in that colour.
-func definePartFill(s *svg.SVG, i int) {
-	colour := partColour(i)
-	t, sw := 8, "0.8" // fine: tile and stroke width
+func tileRect(t float64) pathData {
+	return pathOf(func(p *pathData) { p.rect(0, 0, t, t) })
+}
+
+// partFill is pattern i: a tint of the partition's colour (none in print)
+// under marks of one of fillKinds shapes in that colour.
+func (lk *look) partFill(i int) pattern {
+	c := lk.part(i)
+	t, sw := 8.0, lk.fineW
 	if (i/fillKinds)%2 == 1 {
-		t, sw = 12, "1.4" // coarse
+		t, sw = 12, lk.coarseW
 	}
 	h := t / 2
-	s.Pattern(fillID(i), 0, 0, t, t, "user")
-	s.Rect(0, 0, t, t, `fill="`+colour+`"`, `fill-opacity="0.14"`)
-	stroke := []string{`fill="none"`, `stroke="` + colour + `"`, `stroke-opacity="0.5"`, `stroke-width="` + sw + `"`}
-	mark := []string{`fill="` + colour + `"`, `fill-opacity="0.4"`}
+	var shapes []shape
+	if lk.tintA > 0 {
+		shapes = append(shapes, shape{d: tileRect(t), fill: solid(c).withAlpha(lk.tintA)})
+	} else {
+		shapes = append(shapes, shape{d: tileRect(t), fill: solid(white)})
+	}
+	line := func(fn func(p *pathData)) {
+		shapes = append(shapes, shape{d: pathOf(fn), stroke: solid(c).withAlpha(lk.strokeA), strokeW: sw})
+	}
+	mark := solid(c).withAlpha(lk.markA)
 	switch i % fillKinds {
 	case 0: // rising hatch
-		s.Path(fmt.Sprintf("M0 %[1]dL%[1]d 0M-2 2L2 -2M%[2]d %[3]dL%[3]d %[2]d", t, t-2, t+2), stroke...)
-	case 1: // dots
-		s.Circle(h, h, max(1, t/6), mark...)
+		line(func(p *pathData) {
+			p.moveTo(0, t)
+			p.lineTo(t, 0)
+			p.moveTo(-2, 2)
+			p.lineTo(2, -2)
+			p.moveTo(t-2, t+2)
+			p.lineTo(t+2, t-2)
+		})
+	case 1: // dots; in print larger, to stand apart from the unused spectrum's
+		r := max(1, int(t)/6)
+		if lk.tintA == 0 {
+			r = int(t) / 4
+		}
+		shapes = append(shapes, shape{circle: &circle{h, h, float64(r)}, fill: mark})
 	case 2: // falling hatch
-		s.Path(fmt.Sprintf("M0 0L%[1]d %[1]dM%[2]d -2L%[3]d 2M-2 %[2]dL2 %[3]d", t, t-2, t+2), stroke...)
+		line(func(p *pathData) {
+			p.moveTo(0, 0)
+			p.lineTo(t, t)
+			p.moveTo(t-2, -2)
+			p.lineTo(t+2, 2)
+			p.moveTo(-2, t-2)
+			p.lineTo(2, t+2)
+		})
 	case 3: // diagonal cross-hatch
-		s.Path(fmt.Sprintf("M0 0L%[1]d %[1]dM0 %[1]dL%[1]d 0", t), stroke...)
+		line(func(p *pathData) {
+			p.moveTo(0, 0)
+			p.lineTo(t, t)
+			p.moveTo(0, t)
+			p.lineTo(t, 0)
+		})
 	case 4: // rings
-		s.Circle(h, h, max(2, t/4), stroke...)
+		shapes = append(shapes, shape{circle: &circle{h, h, float64(max(2, int(t)/4))}, stroke: solid(c).withAlpha(lk.strokeA), strokeW: sw})
 	case 5: // chevrons
-		s.Path(fmt.Sprintf("M0 %dL%d %dL%d %d", t*3/4, h, t/4, t, t*3/4), stroke...)
+		line(func(p *pathData) {
+			p.moveTo(0, t*3/4)
+			p.lineTo(h, t/4)
+			p.lineTo(t, t*3/4)
+		})
 	case 6: // checks, lighter than the dots: they cover a quarter of the tile
-		light := []string{`fill="` + colour + `"`, `fill-opacity="0.25"`}
-		s.Rect(0, 0, h, h, light...)
-		s.Rect(h, h, h, h, light...)
+		a := 0.25
+		if lk.tintA == 0 {
+			a = 0.45 // print: a grey that survives, still lighter than the dots
+		}
+		shapes = append(shapes, shape{d: pathOf(func(p *pathData) {
+			p.rect(0, 0, h, h)
+			p.rect(h, h, t, t)
+		}), fill: solid(c).withAlpha(a)})
 	case 7: // small crosses
-		s.Path(fmt.Sprintf("M%[1]d 1V%[2]dM1 %[1]dH%[2]d", h, t-1), stroke...)
+		line(func(p *pathData) {
+			p.moveTo(h, 1)
+			p.lineTo(h, t-1)
+			p.moveTo(1, h)
+			p.lineTo(t-1, h)
+		})
 	}
-	s.PatternEnd()
+	return pattern{id: fillID(i), tile: int(t), shapes: shapes}
+}
+
+// outsideFill: thin diagonals on an off-white ground (white in print).
+func (lk *look) outsideFill() pattern {
+	return pattern{id: "gl-outside", tile: 6, shapes: []shape{
+		{d: tileRect(6), fill: solid(lk.outsideGround)},
+		{d: pathOf(func(p *pathData) {
+			p.moveTo(0, 6)
+			p.lineTo(6, 0)
+			p.moveTo(-1, 1)
+			p.lineTo(1, -1)
+			p.moveTo(5, 7)
+			p.lineTo(7, 5)
+		}), stroke: solid(lk.outsideLines), strokeW: 0.7},
+	}}
+}
+
+// unusedFill: sparse dots on white, for spectrum inside the channel that
+// no partition occupies.
+func (lk *look) unusedFill() pattern {
+	return pattern{id: "gl-unused", tile: 8, shapes: []shape{
+		{d: tileRect(8), fill: solid(white)},
+		{circle: &circle{4, 4, 1}, fill: solid(lk.unusedDot)},
+	}}
+}
+
+// guardFill, in print only: close horizontal lines, which a printer keeps
+// where a light grey would vanish.
+func (lk *look) guardFill() pattern {
+	return pattern{id: "gl-guard", tile: 4, shapes: []shape{
+		{d: tileRect(4), fill: solid(white)},
+		{d: pathOf(func(p *pathData) { p.hline(2, 0, 4) }), stroke: solid(black), strokeW: 0.7},
+	}}
+}
+
+// uplinkFill is the hatch of uplink runs in the TDD band: dark diagonals
+// on white, lighter overall than flexible and much lighter than downlink.
+func (lk *look) uplinkFill() pattern {
+	return pattern{id: "gl-tdd-hatch", tile: 4, shapes: []shape{
+		{d: tileRect(4), fill: solid(white)},
+		{d: pathOf(func(p *pathData) {
+			p.moveTo(0, 4)
+			p.lineTo(4, 0)
+			p.moveTo(-1, 1)
+			p.lineTo(1, -1)
+			p.moveTo(3, 5)
+			p.lineTo(5, 3)
+		}), stroke: solid(lk.tddUHatch), strokeW: 0.8},
+	}}
 }

@@ -1,12 +1,19 @@
-// Package render draws a grid.Result: the lattice figure as SVG and the
-// symbol table as CSV. It writes to an io.Writer and returns one error.
+// Package render draws a grid.Result: the lattice figure as SVG or PNG and
+// the symbol table as CSV. It writes to an io.Writer and returns one error.
 //
 // The figure's cost follows what is drawn, not the size of the lattice:
 // each partition is one group with one path per line kind, and a path has
 // one segment per line that is at least a few pixels from its neighbours.
 // Finer lines give way to coarser ones (PRB rows every few PRBs, slot
 // lines instead of symbol lines, 0.5 ms marks alone) and the legend says
-// which were drawn.
+// which were drawn. TDD directions are drawn per run of like symbols, and
+// SS/PBCH blocks as one path.
+//
+// The figure is built once as a display list that both the SVG writer and
+// the PNG rasteriser consume, so the two share one layout. Options choose
+// the width, a theme (light, or print for documents), the layers shown and
+// a caption; the SVG can carry the plan file in its <metadata>, which
+// PlanFromSVG reads back.
 //
 // The plot area is published for scripts that map the pointer to time and
 // frequency: the group with id "gl-plot" carries data-x, data-y, data-w and
@@ -14,10 +21,12 @@
 // data-high-hz (frequency from point A at y+h and at y). Partition i of
 // Result.Partitions is drawn inside <g class="gl-part" data-index="i">.
 //
-// Security: plan and partition names are untrusted. They reach the SVG only
-// as element text through svgo's escaping functions (Text, Textspan, Span),
-// never inside an attribute, and the CSV neutralises cells a spreadsheet
-// would read as a formula.
+// Security: plan and partition names and the caption are untrusted. They
+// reach the SVG only as element text through svgo's escaping functions
+// (Text, Textspan, Span), never inside an attribute; every style value is
+// one of the package's own constants. The stored plan is base64 text, and
+// PlanFromSVG reads a bounded input with encoding/xml. The CSV neutralises
+// cells a spreadsheet would read as a formula.
 package render
 
 import (
@@ -28,21 +37,7 @@ import (
 	"slices"
 	"strings"
 
-	svg "github.com/ajstarks/svgo"
-
 	"gridloom/grid"
-)
-
-// Options shape the figure. The zero value draws the default figure.
-type Options struct {
-	Width int // figure width in px, MinWidth to MaxWidth; 0 means DefaultWidth
-}
-
-// Figure widths, in px.
-const (
-	DefaultWidth = 1200
-	MinWidth     = 640
-	MaxWidth     = 4800
 )
 
 // Layout of the figure, in px.
@@ -60,64 +55,25 @@ const (
 	legendLeft    = 24
 	partRow       = 32 // one legend row per partition
 	keyRow        = 17 // one key row per mark
-	keyWidth      = 340
-	sideBySide    = 1000 // from this width the key stands beside the partition rows
+	minKeyWidth   = 300
+	maxKeyWidth   = 460
+	legendGap     = 24 // partition rows to key, when side by side
+	captionSize   = 12
+	captionLine   = 16
 	maxShownTitle = 120
+	baseFontSize  = 11
 )
 
 // Figure draws r as a self-contained SVG document: no scripts, external
 // fonts, styles or images.
 func Figure(w io.Writer, r grid.Result, opt Options) error {
-	width := opt.Width
-	if width == 0 {
-		width = DefaultWidth
-	}
-	if width < MinWidth || width > MaxWidth {
-		return fmt.Errorf("render: the figure width is %d px; it must be 0 (the default, %d px) or from %d to %d px", opt.Width, DefaultWidth, MinWidth, MaxWidth)
-	}
-	if err := checkNumerologies(r); err != nil {
+	d, err := build(r, opt)
+	if err != nil {
 		return err
 	}
-
-	f := plotFrame(r, width)
-	details := make([]detail, len(r.Partitions))
-	for i, l := range r.Partitions {
-		details[i] = chooseDetail(l, f)
-	}
-	keyBelow := width < sideBySide
-	partsH := max(1, len(r.Partitions)) * partRow
-	legendH := max(partsH, keyEntries*keyRow)
-	if keyBelow {
-		legendH = partsH + 12 + keyEntries*keyRow
-	}
-	legendTop := f.y + f.h + axisBand + 6
-	height := legendTop + legendH + 12
-
 	var buf bytes.Buffer
-	s := svg.New(&buf)
-	s.Start(width, height, fmt.Sprintf(`viewBox="0 0 %d %d"`, width, height), `role="img"`,
-		`aria-labelledby="gl-title"`, `aria-describedby="gl-desc"`)
-	title := r.Plan.Name
-	if strings.TrimSpace(title) == "" {
-		title = "gridloom plan"
-	}
-	textElement(&buf, s, "title", "gl-title", shownN(title, maxShownTitle))
-	textElement(&buf, s, "desc", "gl-desc", summary(r))
-
-	s.Def()
-	defineFills(s, len(r.Partitions))
-	s.DefEnd()
-
-	s.Group(`font-family="sans-serif"`, `font-size="11"`, `fill="`+inkText+`"`)
-	s.Rect(0, 0, width, height, `fill="#ffffff"`)
-	drawPlot(s, f, r, details)
-	drawAxes(s, f, r.Channel)
-	drawRail(s, f, r)
-	drawLegend(s, r, details, width, legendTop, keyBelow)
-	s.Gend()
-	s.End()
-
-	_, err := w.Write(buf.Bytes())
+	writeSVG(&buf, d)
+	_, err = w.Write(buf.Bytes())
 	return err
 }
 
@@ -129,14 +85,155 @@ func checkNumerologies(r grid.Result) error {
 			return fmt.Errorf("render: partition %d has numerology μ=%d with %s CP, which TS 38.211 Table 4.2-1 does not define", i, l.Numerology.Mu, l.Numerology.CP)
 		}
 	}
+	if r.SSB != nil && !r.SSB.Numerology.Valid() {
+		return fmt.Errorf("render: the SS/PBCH blocks have numerology μ=%d, which TS 38.211 Table 4.2-1 does not define", r.SSB.Numerology.Mu)
+	}
 	return nil
 }
 
-// textElement writes <tag id="id">text</tag>, the text escaped by svgo.
-func textElement(buf *bytes.Buffer, s *svg.SVG, tag, id, text string) {
-	fmt.Fprintf(buf, `<%s id="%s">`, tag, id)
-	s.Span(text)
-	fmt.Fprintf(buf, "</%s>\n", tag)
+// builder appends to a doc in paint order.
+type builder struct {
+	d      *doc
+	lk     *look
+	layers Layers
+	pats   map[string]int
+}
+
+func (b *builder) shows(l Layer) bool { return b.layers.Shows(l) }
+
+func (b *builder) open(g group) { b.d.items = append(b.d.items, &g) }
+func (b *builder) end()         { b.d.items = append(b.d.items, groupEnd{}) }
+
+// add appends a shape unless it has nothing to draw.
+func (b *builder) add(s shape) {
+	if s.d.segs == 0 && s.circle == nil {
+		return
+	}
+	b.d.items = append(b.d.items, &s)
+}
+
+// text appends a label, in the base font size and the theme's text colour
+// unless it sets its own.
+func (b *builder) text(l label) {
+	if l.size == 0 {
+		l.size = baseFontSize
+	}
+	if l.fill == (rgb{}) {
+		l.fill = b.lk.text
+	}
+	b.d.items = append(b.d.items, &l)
+}
+
+// pattern returns the paint of the pattern named id, defining it with
+// define on first use.
+func (b *builder) pattern(id string, define func() pattern) paint {
+	i, ok := b.pats[id]
+	if !ok {
+		i = len(b.d.patterns)
+		b.d.patterns = append(b.d.patterns, define())
+		b.pats[id] = i
+	}
+	return paint{kind: paintPattern, pattern: i, alpha: 1}
+}
+
+func (b *builder) partFill(i int) paint {
+	return b.pattern(fillID(i), func() pattern { return b.lk.partFill(i) })
+}
+
+// line is a stroke-only shape.
+func line(class string, d pathData, c rgb, alpha, w float64) shape {
+	return shape{class: class, d: d, stroke: solid(c).withAlpha(alpha), strokeW: w}
+}
+
+// build validates the options and lays the figure out.
+func build(r grid.Result, opt Options) (*doc, error) {
+	width, err := opt.check()
+	if err != nil {
+		return nil, err
+	}
+	if err := checkNumerologies(r); err != nil {
+		return nil, err
+	}
+	lk := opt.Theme.look()
+	b := &builder{d: &doc{w: width, plan: opt.Plan}, lk: lk, layers: opt.Layers, pats: map[string]int{}}
+
+	f := plotFrame(r, width)
+	details := make([]detail, len(r.Partitions))
+	for i, l := range r.Partitions {
+		details[i] = chooseDetail(l, f)
+	}
+	var tdds []tddDrawing
+	if r.TDD != nil && b.shows(LayerTDD) {
+		tdds = make([]tddDrawing, len(r.Partitions))
+		for i, l := range r.Partitions {
+			tdds[i] = planTDD(l, f)
+		}
+	}
+	var blocks *ssbDrawing
+	if r.SSB != nil && b.shows(LayerSSB) {
+		blocks = planSSB(*r.SSB, f)
+	}
+
+	rows := partRows(r, details, tdds, b)
+	keys := keyRows(r, b, blocks)
+	keyW := minKeyWidth
+	for _, k := range keys {
+		keyW = max(keyW, int(textWidth(k.text, 10, false))+40+1)
+	}
+	keyW = min(keyW, maxKeyWidth)
+	rowsW := 0
+	for _, row := range rows {
+		rowsW = max(rowsW, int(max(measure(&row.head), textWidth(row.drawnText(), drawnSize, false)))+40+1)
+	}
+	keyBelow := legendLeft+rowsW+legendGap > width-legendLeft-keyW
+	avail := float64(width - 2*legendLeft - 40)
+	if !keyBelow {
+		avail -= float64(keyW + legendGap)
+	}
+	partsH := partRow
+	if len(rows) > 0 {
+		partsH = 0
+	}
+	for i := range rows {
+		rows[i].wrap(avail)
+		partsH += rows[i].height()
+	}
+	keyH := len(keys) * keyRow
+	legendH := max(partsH, keyH)
+	if keyBelow {
+		legendH = partsH + 12 + keyH
+	}
+	legendTop := f.y + f.h + axisBand + 6
+	captionTop := legendTop + legendH + 12
+	caption := wrap(clean(opt.Caption), float64(width-2*legendLeft), captionSize)
+	height := captionTop
+	if len(caption) > 0 {
+		height += 6 + len(caption)*captionLine
+	}
+
+	d := b.d
+	d.h = height
+	d.ink = lk.text
+	title := r.Plan.Name
+	if strings.TrimSpace(title) == "" {
+		title = "gridloom plan"
+	}
+	d.title = clean(shownN(title, maxShownTitle))
+	d.desc = clean(summary(r))
+
+	b.add(shape{d: pathOf(func(p *pathData) { p.rect(0, 0, float64(width), float64(height)) }), fill: solid(white)})
+	drawPlot(b, f, r, details, tdds, blocks)
+	drawAxes(b, f, r.Channel)
+	drawRail(b, f, r)
+	drawLegend(b, r, rows, keys, width, legendTop, keyW, partsH, keyBelow)
+	if len(caption) > 0 {
+		b.open(group{class: "gl-caption", fontSize: captionSize})
+		for i, text := range caption {
+			b.text(label{x: legendLeft, y: float64(captionTop + 6 + (i+1)*captionLine - 4), runs: []run{{text: text}}, size: captionSize})
+		}
+		b.end()
+	}
+	return d, nil
 }
 
 // plotFrame places the plot area and its axes' ranges: the span, and the
@@ -166,6 +263,9 @@ func plotFrame(r grid.Result, width int) frame {
 	}
 	for _, l := range r.Partitions {
 		widen(l.Low, l.High)
+	}
+	if r.SSB != nil {
+		widen(r.SSB.Low, r.SSB.High)
 	}
 	if !have {
 		lo, hi = r.Channel.Center-500_000, r.Channel.Center+500_000
@@ -223,70 +323,89 @@ func spectrum(r grid.Result) (guards, unused []span) {
 }
 
 // drawPlot draws the plot area inside the gl-plot group.
-func drawPlot(s *svg.SVG, f frame, r grid.Result, details []detail) {
-	s.Group(`id="gl-plot"`, fmt.Sprintf(`data-x="%d"`, f.x), fmt.Sprintf(`data-y="%d"`, f.y),
-		fmt.Sprintf(`data-w="%d"`, f.w), fmt.Sprintf(`data-h="%d"`, f.h),
-		fmt.Sprintf(`data-span-tc="%d"`, f.span), fmt.Sprintf(`data-low-hz="%d"`, f.low),
-		fmt.Sprintf(`data-high-hz="%d"`, f.high))
+func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDrawing, blocks *ssbDrawing) {
+	lk := b.lk
+	b.open(group{id: "gl-plot", data: []attr{
+		{"data-x", fmt.Sprint(f.x)}, {"data-y", fmt.Sprint(f.y)},
+		{"data-w", fmt.Sprint(f.w)}, {"data-h", fmt.Sprint(f.h)},
+		{"data-span-tc", fmt.Sprint(f.span)}, {"data-low-hz", fmt.Sprint(f.low)},
+		{"data-high-hz", fmt.Sprint(f.high)},
+	}})
 	left, right := float64(f.x), f.right()
 
-	var whole pathData
-	whole.rect(left, float64(f.y), right, f.bottom())
-	s.Path(whole.String(), `class="gl-outside"`, `fill="url(#gl-outside)"`)
+	whole := pathOf(func(p *pathData) { p.rect(left, float64(f.y), right, f.bottom()) })
+	b.add(shape{class: "gl-outside", d: whole, fill: b.pattern("gl-outside", lk.outsideFill)})
 
 	ch := r.Channel
-	guards, unused := spectrum(r)
 	if ch.High > ch.Low {
-		var inside pathData
-		inside.rect(left, f.Y(ch.High), right, f.Y(ch.Low))
-		s.Path(inside.String(), `class="gl-channel"`, `fill="#ffffff"`)
+		b.add(shape{class: "gl-channel", d: pathOf(func(p *pathData) { p.rect(left, f.Y(ch.High), right, f.Y(ch.Low)) }), fill: solid(white)})
 	}
-	var g, u pathData
-	for _, sp := range guards {
-		g.rect(left, f.Y(sp.hi), right, f.Y(sp.lo))
-	}
-	for _, sp := range unused {
-		u.rect(left, f.Y(sp.hi), right, f.Y(sp.lo))
-	}
-	if g.segs > 0 {
-		s.Path(g.String(), `class="gl-guard"`, `fill="`+inkGuard+`"`)
-	}
-	if u.segs > 0 {
-		s.Path(u.String(), `class="gl-unused"`, `fill="url(#gl-unused)"`)
+	if b.shows(LayerGuards) {
+		guards, unused := spectrum(r)
+		var g, u pathData
+		for _, sp := range guards {
+			g.rect(left, f.Y(sp.hi), right, f.Y(sp.lo))
+		}
+		for _, sp := range unused {
+			u.rect(left, f.Y(sp.hi), right, f.Y(sp.lo))
+		}
+		guardPaint := solid(lk.guard)
+		if lk.guardHatch {
+			guardPaint = b.pattern("gl-guard", lk.guardFill)
+		}
+		b.add(shape{class: "gl-guard", d: g, fill: guardPaint})
+		b.add(shape{class: "gl-unused", d: u, fill: b.pattern("gl-unused", lk.unusedFill)})
 	}
 
 	for i, l := range r.Partitions {
-		drawPartition(s, f, i, l, details[i])
+		var t *tddDrawing
+		if tdds != nil {
+			t = &tdds[i]
+		}
+		drawPartition(b, f, i, l, details[i], t, r.TDD)
+	}
+	if blocks != nil {
+		drawSSB(b, blocks)
 	}
 
-	// Every numerology starts a symbol at every 0.5 ms (TS 38.211 5.3.1).
-	var marks, heads pathData
-	for t := grid.TcPerHalfFrame; t < f.span; t += grid.TcPerHalfFrame {
-		x := f.X(t)
-		marks.vline(x, float64(f.y), f.bottom())
-		heads.b = fmt.Appendf(heads.b, "M%s %dH%sL%s %dZ", num(x-4), f.y-8, num(x+4), num(x), f.y-1)
-	}
-	if marks.segs > 0 {
-		s.Path(marks.String(), `class="gl-align"`, `fill="none"`, `stroke="#000000"`,
-			`stroke-width="1.3"`, `stroke-dasharray="6 3"`)
-		s.Path(heads.String(), `class="gl-align-heads"`, `fill="#000000"`)
+	if b.shows(LayerLattice) {
+		// Every numerology starts a symbol at every 0.5 ms (TS 38.211 5.3.1).
+		var marks, heads pathData
+		for t := grid.TcPerHalfFrame; t < f.span; t += grid.TcPerHalfFrame {
+			x := f.X(t)
+			marks.vline(x, float64(f.y), f.bottom())
+			heads.moveTo(x-4, float64(f.y-8))
+			heads.lineTo(x+4, float64(f.y-8))
+			heads.lineTo(x, float64(f.y-1))
+			heads.close()
+		}
+		align := line("gl-align", marks, black, 1, lk.alignW)
+		align.dash = []float64{6, 3}
+		b.add(align)
+		b.add(shape{class: "gl-align-heads", d: heads, fill: solid(black)})
 	}
 
 	if ch.High > ch.Low {
 		var edges pathData
 		edges.hline(f.Y(ch.High), left, right)
 		edges.hline(f.Y(ch.Low), left, right)
-		s.Path(edges.String(), `class="gl-edges"`, `fill="none"`, `stroke="#000000"`, `stroke-width="2"`)
+		b.add(line("gl-edges", edges, black, 1, lk.edgeW))
 	}
-	s.Path(whole.String(), `class="gl-frame"`, `fill="none"`, `stroke="`+inkSoft+`"`, `stroke-width="1"`)
-	s.Gend()
+	b.add(line("gl-frame", whole, lk.soft, 1, lk.frameW))
+	if blocks != nil && b.shows(LayerLabels) {
+		drawSSBLabels(b, blocks)
+	}
+	b.end()
 }
 
 // drawAxes draws the time axis below the plot and the frequency axis to its
 // left, each with a title naming its unit.
-func drawAxes(s *svg.SVG, f frame, ch grid.Channel) {
+func drawAxes(b *builder, f frame, ch grid.Channel) {
 	var tickMarks pathData
-	s.Group(`class="gl-axes"`, `font-size="10"`)
+	b.open(group{class: "gl-axes", fontSize: 10})
+	tick := func(x, y float64, text string, a anchor) {
+		b.text(label{x: x, y: y, runs: []run{{text: text}}, size: 10, anchor: a})
+	}
 
 	// Time: µs up to 2 ms, ms beyond; ticks at least 70 px apart.
 	unit, unitTc := "ms", float64(grid.TcPerSubframe)
@@ -298,9 +417,9 @@ func drawAxes(s *svg.SVG, f frame, ch grid.Channel) {
 	for _, v := range ticks(0, spanU, step) {
 		x := float64(f.x) + v/spanU*float64(f.w)
 		tickMarks.vline(x, f.bottom(), f.bottom()+5)
-		s.Text(int(x+0.5), f.y+f.h+18, fmtTick(v, step), `text-anchor="middle"`)
+		tick(float64(int(x+0.5)), float64(f.y+f.h+18), fmtTick(v, step), anchorMiddle)
 	}
-	s.Text(f.x+f.w/2, f.y+f.h+40, "time ("+unit+")", `text-anchor="middle"`, `font-size="12"`)
+	b.text(label{x: float64(f.x + f.w/2), y: float64(f.y + f.h + 40), runs: []run{{text: "time (" + unit + ")"}}, size: 12, anchor: anchorMiddle})
 
 	// Frequency: MHz, absolute when the plan fixes the channel centre,
 	// otherwise from point A; ticks at least 36 px apart.
@@ -317,18 +436,23 @@ func drawAxes(s *svg.SVG, f frame, ch grid.Channel) {
 	for _, v := range ticks(lo, hi, fstep) {
 		y := f.Y(fromV(v))
 		tickMarks.hline(y, float64(f.x)-5, float64(f.x))
-		s.Text(f.x-8, int(y+3.5), fmtTick(v, fstep), `text-anchor="end"`)
+		tick(float64(f.x-8), float64(int(y+3.5)), fmtTick(v, fstep), anchorEnd)
 	}
-	mid := f.y + f.h/2
-	s.Text(18, mid, title, `text-anchor="middle"`, `font-size="12"`, fmt.Sprintf(`transform="rotate(-90 18 %d)"`, mid))
-	s.Path(tickMarks.String(), `fill="none"`, `stroke="`+inkText+`"`, `stroke-width="1"`)
+	mid := float64(f.y + f.h/2)
+	b.text(label{x: 18, y: mid, runs: []run{{text: title}}, size: 12, anchor: anchorMiddle, rotate: true})
+	b.add(line("", tickMarks, b.lk.text, 1, 1))
 
 	// Heading of the 0.5 ms marks, above the plot.
-	if f.span > grid.TcPerHalfFrame {
-		s.Path(fmt.Sprintf("M%d %dH%dL%d %dZ", f.x, f.y-30, f.x+8, f.x+4, f.y-23), `fill="#000000"`)
-		s.Text(f.x+13, f.y-23, "0.5 ms alignment marks (dashed): every numerology starts a symbol together here", `font-size="11"`)
+	if f.span > grid.TcPerHalfFrame && b.shows(LayerLattice) {
+		var head pathData
+		head.moveTo(float64(f.x), float64(f.y-30))
+		head.lineTo(float64(f.x+8), float64(f.y-30))
+		head.lineTo(float64(f.x+4), float64(f.y-23))
+		head.close()
+		b.add(shape{d: head, fill: solid(black)})
+		b.text(label{x: float64(f.x + 13), y: float64(f.y - 23), runs: []run{{text: "0.5 ms alignment marks (dashed): every numerology starts a symbol together here"}}})
 	}
-	s.Gend()
+	b.end()
 }
 
 // note is one line of text beside the rail, pointing at a frequency.
@@ -340,7 +464,8 @@ type note struct {
 // drawRail draws one bar per SCS-specific carrier with its minimum
 // guardbands at both channel edges, and the notes on the channel edges,
 // guardbands and unused spectrum, spread so they never overlap.
-func drawRail(s *svg.SVG, f frame, r grid.Result) {
+func drawRail(b *builder, f frame, r grid.Result) {
+	lk := b.lk
 	ch := r.Channel
 	railX := f.x + f.w + railGap
 	notesX := railX + len(r.Carriers)*railStep + notesGap
@@ -363,25 +488,30 @@ func drawRail(s *svg.SVG, f frame, r grid.Result) {
 		}
 		notes = append(notes, note{f.Y(0), text})
 	}
-	guards, unused := spectrum(r)
-	for _, g := range guards {
-		notes = append(notes, note{(f.Y(g.lo) + f.Y(g.hi)) / 2, "guard " + fmtSpan(g.hi-g.lo)})
+	if b.shows(LayerGuards) {
+		guards, unused := spectrum(r)
+		for _, g := range guards {
+			notes = append(notes, note{(f.Y(g.lo) + f.Y(g.hi)) / 2, "guard " + fmtSpan(g.hi-g.lo)})
+		}
+		for _, u := range unused {
+			notes = append(notes, note{(f.Y(u.lo) + f.Y(u.hi)) / 2, "unused " + fmtSpan(u.hi-u.lo)})
+		}
 	}
-	for _, u := range unused {
-		notes = append(notes, note{(f.Y(u.lo) + f.Y(u.hi)) / 2, "unused " + fmtSpan(u.hi-u.lo)})
+	if !b.shows(LayerLabels) {
+		notes = nil
 	}
 	placed := spread(notes, float64(f.y-12), f.bottom()+float64(axisBand)-8)
 
-	s.Group(`class="gl-rail"`, `font-size="10"`)
+	b.open(group{class: "gl-rail", fontSize: 10})
 	var leaders pathData
 	for i, n := range notes {
-		leaders.b = fmt.Appendf(leaders.b, "M%s %sH%dL%d %s", num(f.right()), num(n.y), notesX-14, notesX-3, num(placed[i]))
+		leaders.moveTo(f.right(), n.y)
+		leaders.lineTo(float64(notesX-14), n.y)
+		leaders.lineTo(float64(notesX-3), placed[i])
 	}
-	if len(notes) > 0 {
-		s.Path(string(leaders.b), `fill="none"`, `stroke="`+inkSoft+`"`, `stroke-width="0.6"`)
-	}
+	b.add(line("gl-leaders", leaders, lk.soft, 1, 0.6))
 	for i, n := range notes {
-		s.Text(notesX, int(placed[i]+3.5), n.text)
+		b.text(label{class: "gl-note", x: float64(notesX), y: float64(int(placed[i] + 3.5)), runs: []run{{text: n.text}}, size: 10})
 	}
 
 	var bars, keep pathData
@@ -392,15 +522,13 @@ func drawRail(s *svg.SVG, f frame, r grid.Result) {
 			keep.rect(x, f.Y(ch.Low+c.MinGuard), x+railBar, f.Y(ch.Low))
 			keep.rect(x, f.Y(ch.High), x+railBar, f.Y(ch.High-c.MinGuard))
 		}
-		s.Text(int(x)+railBar/2, f.y-6, fmt.Sprint(c.SCSKHz), `text-anchor="middle"`, `font-size="9"`)
+		b.text(label{x: x + railBar/2, y: float64(f.y - 6), runs: []run{{text: fmt.Sprint(c.SCSKHz)}}, size: 9, anchor: anchorMiddle})
 	}
-	if bars.segs > 0 {
-		s.Path(bars.String(), `class="gl-carriers"`, `fill="#ffffff"`, `stroke="`+inkText+`"`, `stroke-width="1"`)
+	b.add(shape{class: "gl-carriers", d: bars, fill: solid(white), stroke: solid(lk.text), strokeW: 1})
+	if b.shows(LayerGuards) {
+		b.add(shape{class: "gl-minguard", d: keep, fill: solid(lk.text).withAlpha(0.8)})
 	}
-	if keep.segs > 0 {
-		s.Path(keep.String(), `class="gl-minguard"`, `fill="`+inkText+`"`, `fill-opacity="0.8"`)
-	}
-	s.Gend()
+	b.end()
 }
 
 // spread moves the notes' positions apart by at least noteSpacing, keeping
@@ -434,12 +562,18 @@ func summary(r grid.Result) string {
 	if r.Channel.Absolute {
 		fmt.Fprintf(&b, " centred on %s", fmtMHz(r.Channel.CenterHz))
 	}
+	if r.TDD != nil {
+		fmt.Fprintf(&b, ", TDD %s", tddName(r.TDD))
+	}
 	for i, l := range r.Partitions {
 		sep := "; "
 		if i == 0 {
 			sep = ": "
 		}
 		fmt.Fprintf(&b, "%s%s (%d kHz, %d PRBs)", sep, shown(l.Name), l.Numerology.SCSKHz(), l.SizePRB)
+	}
+	if r.SSB != nil {
+		fmt.Fprintf(&b, "; %d SS/PBCH block%s of case %s at %d kHz", len(r.SSB.Blocks), plural(len(r.SSB.Blocks)), r.SSB.Case, r.SSB.Numerology.SCSKHz())
 	}
 	b.WriteString(".")
 	return b.String()
@@ -452,99 +586,252 @@ func plural(n int) string {
 	return "s"
 }
 
-// keyEntries is the number of rows in the key of marks.
-const keyEntries = 10
+// partRowText is the legend's text for one partition: a heading line and
+// what was drawn, in parts that wrap to lines of their own.
+type partRowText struct {
+	head  label
+	drawn []string
+	lines []string // drawn, wrapped by wrap
+}
+
+// Legend rows, in px.
+const (
+	drawnSize = 10
+	drawnLine = 13 // each further line of a wrapped drawn text
+)
+
+func (p *partRowText) drawnText() string { return "drawn: " + strings.Join(p.drawn, " · ") }
+
+// wrap breaks the drawn text between its parts into lines of at most maxW px.
+func (p *partRowText) wrap(maxW float64) {
+	p.lines = p.lines[:0]
+	cur := "drawn:"
+	for i, part := range p.drawn {
+		sep := " "
+		if i > 0 {
+			sep = " · "
+		}
+		if i > 0 && textWidth(cur+sep+part, drawnSize, false) > maxW {
+			p.lines = append(p.lines, cur+" ·")
+			cur, sep = "", ""
+		}
+		cur += sep + part
+	}
+	p.lines = append(p.lines, cur)
+}
+
+func (p *partRowText) height() int { return partRow + drawnLine*max(0, len(p.lines)-1) }
+
+// partRows writes the legend text of every partition.
+func partRows(r grid.Result, details []detail, tdds []tddDrawing, b *builder) []partRowText {
+	rows := make([]partRowText, len(r.Partitions))
+	for i, l := range r.Partitions {
+		n := l.Numerology
+		spec := fmt.Sprintf("%d kHz · μ %d · %s CP · %d PRB%s at CRB %d–%d · %s",
+			n.SCSKHz(), n.Mu, n.CP, l.SizePRB, plural(l.SizePRB), l.StartCRB, l.StartCRB+l.SizePRB-1, l.Direction)
+		drawn := details[i].parts(l.SizePRB)
+		if tdds != nil {
+			if l.Dirs == nil {
+				spec += " · no TDD directions (below the reference SCS)"
+			} else {
+				spec += fmt.Sprintf(" on %s of symbols", percent(l.Share))
+			}
+			drawn = append(drawn, tdds[i].parts()...)
+		}
+		rows[i] = partRowText{
+			head:  label{runs: []run{{text: clean(shown(l.Name)), bold: true}, {text: spec, dx: 8}}, size: baseFontSize},
+			drawn: drawn,
+		}
+	}
+	return rows
+}
+
+// percent formats a share as a whole percentage, or to a tenth below 10 %.
+func percent(v float64) string {
+	p := v * 100
+	if p > 0 && p < 10 {
+		return fmt.Sprintf("%.1f %%", p)
+	}
+	return fmt.Sprintf("%.0f %%", p)
+}
 
 // drawLegend draws one row per partition (swatch, name, numerology, size,
 // and the detail drawn) and the key of the figure's other marks.
-func drawLegend(s *svg.SVG, r grid.Result, details []detail, width, top int, keyBelow bool) {
-	s.Group(`class="gl-legend"`)
-	x := legendLeft
+func drawLegend(b *builder, r grid.Result, rows []partRowText, keys []keyEntry, width, top, keyW, partsH int, keyBelow bool) {
+	b.open(group{class: "gl-legend"})
+	x := float64(legendLeft)
 	if len(r.Partitions) == 0 {
-		s.Text(x, top+12, "No partition could be placed; the plan's findings say why.")
+		b.text(label{x: x, y: float64(top + 12), runs: []run{{text: "No partition could be placed; the plan's findings say why."}}})
 	}
-	for i, l := range r.Partitions {
-		y := top + i*partRow
-		var sw pathData
-		sw.rect(float64(x), float64(y), float64(x+30), float64(y+18))
-		s.Path(sw.String(), `fill="url(#`+fillID(i)+`)"`, `stroke="`+partColour(i)+`"`, `stroke-width="1.2"`)
-		n := l.Numerology
-		s.Textspan(x+40, y+11, shown(l.Name), `font-weight="bold"`)
-		s.Span(fmt.Sprintf("%d kHz · μ %d · %s CP · %d PRB%s at CRB %d–%d · %s",
-			n.SCSKHz(), n.Mu, n.CP, l.SizePRB, plural(l.SizePRB), l.StartCRB, l.StartCRB+l.SizePRB-1, l.Direction), `dx="8"`, `font-weight="normal"`)
-		s.TextEnd()
-		s.Text(x+40, y+24, "drawn: "+details[i].describe(l.SizePRB), `font-size="10"`, `fill="`+inkSoft+`"`)
+	y := float64(top)
+	for i, row := range rows {
+		b.add(shape{d: pathOf(func(p *pathData) { p.rect(x, y, x+30, y+18) }), fill: b.partFill(i),
+			stroke: solid(b.lk.part(i)), strokeW: b.lk.bodyW})
+		head := row.head
+		head.x, head.y = x+40, y+11
+		b.text(head)
+		for k, text := range row.lines {
+			b.text(label{x: x + 40, y: y + 24 + float64(k*drawnLine), runs: []run{{text: text}}, size: drawnSize, fill: b.lk.soft})
+		}
+		y += float64(row.height())
 	}
-
-	kx, ky := width-legendLeft-keyWidth, top
+	kx, ky := width-legendLeft-keyW, top
 	if keyBelow {
-		kx, ky = legendLeft, top+max(1, len(r.Partitions))*partRow+12
+		kx, ky = legendLeft, top+partsH+12
 	}
-	drawKey(s, kx, ky)
-	s.Gend()
+	drawKey(b, keys, kx, ky)
+	b.end()
+}
+
+// keyEntry is one row of the key: a sample drawn as in the plot, in the
+// box (x0, y0)–(x1, y1), and its text.
+type keyEntry struct {
+	text   string
+	sample func(b *builder, x0, y0, x1, y1 float64)
+}
+
+// keyRows lists the key's rows for what the figure shows.
+func keyRows(r grid.Result, b *builder, blocks *ssbDrawing) []keyEntry {
+	lk := b.lk
+	vline := func(dx float64, c rgb, a, w float64, pad float64) func(b *builder, x0, y0, x1, y1 float64) {
+		return func(b *builder, x0, y0, x1, y1 float64) {
+			var d pathData
+			d.vline(x0+dx, y0-pad, y1+pad)
+			b.add(line("", d, c, a, w))
+		}
+	}
+	box := func(fill func() paint, edge bool) func(b *builder, x0, y0, x1, y1 float64) {
+		return func(b *builder, x0, y0, x1, y1 float64) {
+			s := shape{d: pathOf(func(p *pathData) { p.rect(x0, y0, x1, y1) }), fill: fill()}
+			if edge {
+				s.stroke, s.strokeW = solid(lk.outsideLines), 0.6
+			}
+			b.add(s)
+		}
+	}
+	var keys []keyEntry
+	if b.shows(LayerLattice) {
+		keys = append(keys,
+			keyEntry{"slot boundary", vline(15, lk.lattice, lk.slotA, lk.slotW, 0)},
+			keyEntry{"symbol boundary", vline(15, lk.lattice, lk.symA, lk.symW, 0)})
+	}
+	if b.shows(LayerCP) {
+		keys = append(keys,
+			keyEntry{"cyclic prefix, at the start of each symbol", vline(10, lk.lattice, lk.cpA, 5, 0)},
+			keyEntry{"longer CP: first symbol of each 0.5 ms (+16κ Tc)", vline(10, lk.lattice, lk.longA, 5.5, 0)})
+	}
+	if b.shows(LayerLattice) {
+		keys = append(keys, keyEntry{"0.5 ms alignment of all numerologies", func(b *builder, x0, y0, x1, y1 float64) {
+			var d pathData
+			d.vline(x0+15, y0-2, y1+2)
+			s := line("", d, black, 1, lk.alignW)
+			s.dash = []float64{6, 3}
+			b.add(s)
+		}})
+	}
+	keys = append(keys, keyEntry{"channel edge", func(b *builder, x0, y0, x1, y1 float64) {
+		var d pathData
+		d.hline((y0+y1)/2, x0, x1)
+		b.add(line("", d, black, 1, lk.edgeW))
+	}})
+	if b.shows(LayerGuards) {
+		guard := func() paint {
+			if lk.guardHatch {
+				return b.pattern("gl-guard", lk.guardFill)
+			}
+			return solid(lk.guard)
+		}
+		keys = append(keys,
+			keyEntry{"guardband: channel edge to outermost carrier or partition", box(guard, false)},
+			keyEntry{"unused spectrum inside the channel", box(func() paint { return b.pattern("gl-unused", lk.unusedFill) }, true)})
+	}
+	keys = append(keys, keyEntry{"outside the channel", box(func() paint { return b.pattern("gl-outside", lk.outsideFill) }, false)})
+	rail := "carrier rail (SCS in kHz above)"
+	if b.shows(LayerGuards) {
+		rail += "; dark: min. guardband"
+	}
+	keys = append(keys, keyEntry{rail, func(b *builder, x0, y0, x1, y1 float64) {
+		b.add(shape{d: pathOf(func(p *pathData) { p.rect(x0, y0+2, x1, y1-2) }), fill: solid(white), stroke: solid(lk.text), strokeW: 1})
+		if b.shows(LayerGuards) {
+			b.add(shape{d: pathOf(func(p *pathData) {
+				p.rect(x0, y0+2, x0+6, y1-2)
+				p.rect(x1-6, y0+2, x1, y1-2)
+			}), fill: solid(lk.text).withAlpha(0.8)})
+		}
+	}})
+	if r.TDD != nil && b.shows(LayerTDD) {
+		keys = append(keys, tddKeys(r.TDD, b)...)
+	}
+	if r.SSB != nil && blocks != nil {
+		keys = append(keys, ssbKey(*r.SSB, blocks, b))
+	}
+	return keys
 }
 
 // drawKey explains the marks that are not partitions, each beside a small
 // sample drawn as in the plot.
-func drawKey(s *svg.SVG, x, y int) {
-	rows := [keyEntries]string{
-		"slot boundary",
-		"symbol boundary",
-		"cyclic prefix, at the start of each symbol",
-		"longer CP: first symbol of each 0.5 ms (+16κ Tc)",
-		"0.5 ms alignment of all numerologies",
-		"channel edge",
-		"guardband: channel edge to outermost carrier or partition",
-		"unused spectrum inside the channel",
-		"outside the channel",
-		"carrier rail (SCS in kHz above); dark: min. guardband",
+func drawKey(b *builder, keys []keyEntry, x, y int) {
+	b.open(group{class: "gl-key", fontSize: 10})
+	for i, k := range keys {
+		b.text(label{x: float64(x + 40), y: float64(y + i*keyRow + 10), runs: []run{{text: k.text}}, size: 10})
 	}
-	s.Group(`class="gl-key"`, `font-size="10"`)
-	for i, text := range rows {
-		s.Text(x+40, y+i*keyRow+10, text)
+	for i, k := range keys {
+		t := float64(y + i*keyRow)
+		k.sample(b, float64(x), t, float64(x+30), t+12)
 	}
-	row := func(i int) (float64, float64) { return float64(y + i*keyRow), float64(y + i*keyRow + 12) }
-	x0, x1, xm := float64(x), float64(x+30), float64(x+15)
-	line := func(d pathData, attrs ...string) { s.Path(d.String(), append([]string{`fill="none"`}, attrs...)...) }
-	box := func(i int, attrs ...string) {
-		var d pathData
-		t, b := row(i)
-		d.rect(x0, t, x1, b)
-		s.Path(d.String(), attrs...)
+	b.end()
+}
+
+// wrap breaks text into lines that fit maxW px at size, at spaces where it
+// can and inside a word that is longer than a line.
+func wrap(text string, maxW, size float64) []string {
+	text = strings.TrimSpace(text)
+	if text == "" {
+		return nil
 	}
-	var d pathData
-	t, b := row(0)
-	d.vline(xm, t, b)
-	line(d, `stroke="`+inkLattice+`"`, `stroke-opacity="0.85"`, `stroke-width="1.2"`)
-	d = pathData{}
-	t, b = row(1)
-	d.vline(xm, t, b)
-	line(d, `stroke="`+inkLattice+`"`, `stroke-opacity="0.55"`, `stroke-width="0.6"`)
-	d = pathData{}
-	t, b = row(2)
-	d.vline(x0+10, t, b)
-	line(d, `stroke="`+inkLattice+`"`, `stroke-opacity="0.2"`, `stroke-width="5"`)
-	d = pathData{}
-	t, b = row(3)
-	d.vline(x0+10, t, b)
-	line(d, `stroke="`+inkLattice+`"`, `stroke-opacity="0.55"`, `stroke-width="5.5"`)
-	d = pathData{}
-	t, b = row(4)
-	d.vline(xm, t-2, b+2)
-	line(d, `stroke="#000000"`, `stroke-width="1.3"`, `stroke-dasharray="6 3"`)
-	d = pathData{}
-	t, b = row(5)
-	d.hline((t+b)/2, x0, x1)
-	line(d, `stroke="#000000"`, `stroke-width="2"`)
-	box(6, `fill="`+inkGuard+`"`)
-	box(7, `fill="url(#gl-unused)"`, `stroke="`+inkOutLines+`"`, `stroke-width="0.6"`)
-	box(8, `fill="url(#gl-outside)"`)
-	t, b = row(9)
-	var bar, ends pathData
-	bar.rect(x0, t+2, x1, b-2)
-	ends.rect(x0, t+2, x0+6, b-2)
-	ends.rect(x1-6, t+2, x1, b-2)
-	s.Path(bar.String(), `fill="#ffffff"`, `stroke="`+inkText+`"`, `stroke-width="1"`)
-	s.Path(ends.String(), `fill="`+inkText+`"`, `fill-opacity="0.8"`)
-	s.Gend()
+	var lines []string
+	cur := ""
+	for _, word := range strings.Fields(text) {
+		try := word
+		if cur != "" {
+			try = cur + " " + word
+		}
+		if textWidth(try, size, false) <= maxW {
+			cur = try
+			continue
+		}
+		if cur != "" {
+			lines = append(lines, cur)
+		}
+		// A word too long for a line is cut by runes.
+		for textWidth(word, size, false) > maxW {
+			rs := []rune(word)
+			k := len(rs) - 1
+			for k > 1 && textWidth(string(rs[:k]), size, false) > maxW {
+				k--
+			}
+			lines = append(lines, string(rs[:k]))
+			word = string(rs[k:])
+		}
+		cur = word
+	}
+	if cur != "" {
+		lines = append(lines, cur)
+	}
+	return lines
+}
+
+// clean replaces the characters an XML document cannot carry with U+FFFD,
+// as svgo's escaping does, and turns line breaks and tabs into spaces, so
+// that the SVG and the PNG show the same text.
+func clean(s string) string {
+	return strings.Map(func(r rune) rune {
+		switch {
+		case r == '\t' || r == '\n' || r == '\r':
+			return ' '
+		case r >= 0x20 && r <= 0xD7FF || r >= 0xE000 && r <= 0xFFFD || r >= 0x10000 && r <= 0x10FFFF:
+			return r
+		}
+		return '\uFFFD'
+	}, s)
 }

@@ -18,30 +18,38 @@ var update = flag.Bool("update", false, "rewrite the golden files in testdata/go
 
 const goldenDir = "../testdata/golden/render"
 
-// TestFigureGolden compares each demo plan's figure with its golden file.
-// Run "go test ./render -update" after a deliberate change and review the diff.
+// TestFigureGolden compares each demo plan's figure, in the light theme
+// and in the print theme, with its golden file. Run
+// "go test ./render -update" after a deliberate change and review the diff.
 func TestFigureGolden(t *testing.T) {
 	for _, path := range demoPlans(t) {
-		t.Run(planName(path), func(t *testing.T) {
-			got := figure(t, compute(t, loadPlan(t, path)), Options{})
-			golden := filepath.Join(goldenDir, planName(path)+".svg")
-			if *update {
-				if err := os.MkdirAll(goldenDir, 0o755); err != nil {
-					t.Fatal(err)
+		r := compute(t, loadPlan(t, path))
+		for _, theme := range []Theme{ThemeLight, ThemePrint} {
+			name := planName(path)
+			if theme != ThemeLight {
+				name = theme.String() + "-" + name
+			}
+			t.Run(name, func(t *testing.T) {
+				got := figure(t, r, Options{Theme: theme})
+				golden := filepath.Join(goldenDir, name+".svg")
+				if *update {
+					if err := os.MkdirAll(goldenDir, 0o755); err != nil {
+						t.Fatal(err)
+					}
+					if err := os.WriteFile(golden, got, 0o644); err != nil {
+						t.Fatal(err)
+					}
+					return
 				}
-				if err := os.WriteFile(golden, got, 0o644); err != nil {
-					t.Fatal(err)
+				want, err := os.ReadFile(golden)
+				if err != nil {
+					t.Fatalf("%v (run go test ./render -update to create it)", err)
 				}
-				return
-			}
-			want, err := os.ReadFile(golden)
-			if err != nil {
-				t.Fatalf("%v (run go test ./render -update to create it)", err)
-			}
-			if !bytes.Equal(got, want) {
-				t.Errorf("figure of %s differs from %s (go test ./render -update rewrites it):\n%s", path, golden, lineDiff(got, want, 5))
-			}
-		})
+				if !bytes.Equal(got, want) {
+					t.Errorf("figure of %s differs from %s (go test ./render -update rewrites it):\n%s", path, golden, lineDiff(got, want, 5))
+				}
+			})
+		}
 	}
 }
 

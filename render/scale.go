@@ -35,69 +35,6 @@ func (f frame) pxPerHz() float64 { return float64(f.h) / float64(f.high-f.low) }
 func (f frame) right() float64  { return float64(f.x + f.w) }
 func (f frame) bottom() float64 { return float64(f.y + f.h) }
 
-// pathData builds the d attribute of one <path>, one subpath per line.
-type pathData struct {
-	b    []byte
-	segs int
-}
-
-// vline adds a vertical segment at x from y1 to y2.
-func (p *pathData) vline(x, y1, y2 float64) {
-	p.b = append(p.b, 'M')
-	p.b = appendNum(p.b, x)
-	p.b = append(p.b, ' ')
-	p.b = appendNum(p.b, y1)
-	p.b = append(p.b, 'V')
-	p.b = appendNum(p.b, y2)
-	p.segs++
-}
-
-// hline adds a horizontal segment at y from x1 to x2.
-func (p *pathData) hline(y, x1, x2 float64) {
-	p.b = append(p.b, 'M')
-	p.b = appendNum(p.b, x1)
-	p.b = append(p.b, ' ')
-	p.b = appendNum(p.b, y)
-	p.b = append(p.b, 'H')
-	p.b = appendNum(p.b, x2)
-	p.segs++
-}
-
-// rect adds a closed rectangle with corners (x1, y1) and (x2, y2).
-func (p *pathData) rect(x1, y1, x2, y2 float64) {
-	p.b = append(p.b, 'M')
-	p.b = appendNum(p.b, x1)
-	p.b = append(p.b, ' ')
-	p.b = appendNum(p.b, y1)
-	p.b = append(p.b, 'H')
-	p.b = appendNum(p.b, x2)
-	p.b = append(p.b, 'V')
-	p.b = appendNum(p.b, y2)
-	p.b = append(p.b, 'H')
-	p.b = appendNum(p.b, x1)
-	p.b = append(p.b, 'Z')
-	p.segs++
-}
-
-func (p *pathData) String() string { return string(p.b) }
-
-// appendNum writes v rounded to a tenth of a pixel, which is finer than any
-// screen or printer resolves at the figure's sizes and keeps paths short.
-func appendNum(b []byte, v float64) []byte {
-	v = math.Round(v*10) / 10
-	if v == 0 {
-		v = 0 // no "-0"
-	}
-	return strconv.AppendFloat(b, v, 'f', -1, 64)
-}
-
-func num(v float64) string { return string(appendNum(nil, v)) }
-
-// width formats a stroke width to a hundredth of a pixel.
-func width(v float64) string {
-	return strconv.FormatFloat(math.Round(v*100)/100, 'f', -1, 64)
-}
-
 // niceStep is the smallest 1, 2 or 5 × 10^k that is at least least.
 func niceStep(least float64) float64 {
 	if !(least > 0) || math.IsInf(least, 0) {

@@ -1,0 +1,181 @@
+package render
+
+import (
+	"fmt"
+	"strings"
+	"unicode/utf8"
+)
+
+// Options shape the figure. The zero value draws the default figure: light
+// theme, every layer, no caption, no plan in the metadata.
+type Options struct {
+	Width  int    // figure width in px, MinWidth to MaxWidth; 0 means DefaultWidth
+	Theme  Theme  // ThemeLight (the zero value) or ThemePrint
+	Layers Layers // the layers hidden; the zero value hides none
+	// Caption is a line of text under the figure, at most MaxCaption
+	// characters; it wraps to the figure's width. Untrusted: it reaches the
+	// SVG only as escaped element text.
+	Caption string
+	// Plan is the plan file the figure was drawn from, stored verbatim in
+	// the SVG's <metadata> so that PlanFromSVG can give it back; at most
+	// MaxPlanBytes. Nil stores nothing. The PNG does not carry it.
+	Plan []byte
+}
+
+// Figure widths, in px.
+const (
+	DefaultWidth = 1200
+	MinWidth     = 640
+	MaxWidth     = 4800
+)
+
+// MaxCaption is the longest caption, in characters.
+const MaxCaption = 300
+
+// Theme is the look of the figure.
+type Theme uint8
+
+// Themes. ThemePrint is for documents: black-and-white patterns, no tints
+// that a printer drops, and heavier lines; it reads the same in greyscale.
+const (
+	ThemeLight Theme = iota
+	ThemePrint
+	themeCount
+)
+
+var themeNames = [themeCount]string{"light", "print"}
+
+// String returns the theme's name as ParseTheme reads it.
+func (t Theme) String() string {
+	if t < themeCount {
+		return themeNames[t]
+	}
+	return fmt.Sprintf("Theme(%d)", uint8(t))
+}
+
+func (t Theme) look() *look {
+	if t == ThemePrint {
+		return &printLook
+	}
+	return &lightLook
+}
+
+// ParseTheme reads a theme name; "" is the default, light.
+func ParseTheme(s string) (Theme, error) {
+	s = strings.TrimSpace(s)
+	if s == "" {
+		return ThemeLight, nil
+	}
+	for i, name := range themeNames {
+		if strings.EqualFold(s, name) {
+			return Theme(i), nil
+		}
+	}
+	return 0, fmt.Errorf("theme %q is not a figure theme; use light or print.", shownN(s, 40))
+}
+
+// Layer is one part of the figure that can be hidden.
+type Layer uint8
+
+// Layers of the figure. The partition bodies, the axes, the carrier rail
+// and the legend are always drawn.
+const (
+	LayerLattice Layer = 1 << iota // PRB rows, symbol and slot lines, 0.5 ms marks
+	LayerCP                        // cyclic-prefix strips
+	LayerGuards                    // guardbands, unused spectrum, minimum guardbands on the rail
+	LayerLabels                    // names in the plot, TDD letters, SS/PBCH labels, notes beside the rail
+	LayerTDD                       // TDD direction bands and the wash over the other direction
+	LayerSSB                       // SS/PBCH blocks
+	allLayers    Layer = 1<<iota - 1
+)
+
+// layerNames lists the layers in the order of their bits.
+var layerNames = []string{"lattice", "cp", "guards", "labels", "tdd", "ssb"}
+
+// LayerNames returns the names ParseLayers reads, in drawing order.
+func LayerNames() []string { return append([]string(nil), layerNames...) }
+
+// Layers is the set of hidden layers, so that the zero value shows all.
+type Layers struct{ hidden Layer }
+
+// Shows reports whether layer l is drawn.
+func (ls Layers) Shows(l Layer) bool { return ls.hidden&l == 0 }
+
+// Hide returns ls with the given layers hidden as well.
+func (ls Layers) Hide(l ...Layer) Layers {
+	for _, x := range l {
+		ls.hidden |= x
+	}
+	return ls
+}
+
+// String lists the layers shown, comma-separated, as ParseLayers reads
+// them; "none" when every layer is hidden.
+func (ls Layers) String() string {
+	var shown []string
+	for i, name := range layerNames {
+		if ls.Shows(Layer(1 << i)) {
+			shown = append(shown, name)
+		}
+	}
+	if len(shown) == 0 {
+		return "none"
+	}
+	return strings.Join(shown, ",")
+}
+
+func (ls Layers) valid() bool { return ls.hidden&^allLayers == 0 }
+
+// ParseLayers reads a comma-separated list of the layers to show, such as
+// "lattice,tdd,ssb". "" or "all" shows every layer and "none" hides them
+// all; names are case-insensitive.
+func ParseLayers(s string) (Layers, error) {
+	switch strings.ToLower(strings.TrimSpace(s)) {
+	case "", "all":
+		return Layers{}, nil
+	case "none":
+		return Layers{hidden: allLayers}, nil
+	}
+	shown := Layer(0)
+	for item := range strings.SplitSeq(s, ",") {
+		item = strings.TrimSpace(item)
+		if item == "" {
+			continue
+		}
+		found := false
+		for i, name := range layerNames {
+			if strings.EqualFold(item, name) {
+				shown |= 1 << i
+				found = true
+			}
+		}
+		if !found {
+			return Layers{}, fmt.Errorf("layers: %q is not a figure layer; list the layers to show from lattice, cp, guards, labels, tdd and ssb, separated by commas, or give all or none.", shownN(item, 40))
+		}
+	}
+	return Layers{hidden: allLayers &^ shown}, nil
+}
+
+// check validates the options and returns the figure width.
+func (opt Options) check() (int, error) {
+	width := opt.Width
+	if width == 0 {
+		width = DefaultWidth
+	}
+	if width < MinWidth || width > MaxWidth {
+		return 0, fmt.Errorf("render: the figure width is %d px; it must be 0 (the default, %d px) or from %d to %d px", opt.Width, DefaultWidth, MinWidth, MaxWidth)
+	}
+	if opt.Theme >= themeCount {
+		return 0, fmt.Errorf("render: theme %s is not defined; use ThemeLight or ThemePrint", opt.Theme)
+	}
+	if !opt.Layers.valid() {
+		return 0, fmt.Errorf("render: the layer set %#x holds layers that do not exist; build it with ParseLayers or Hide", opt.Layers.hidden)
+	}
+	if n := utf8.RuneCountInString(opt.Caption); n > MaxCaption {
+		return 0, fmt.Errorf("render: the caption has %d characters; it may have at most %d", n, MaxCaption)
+	}
+	if len(opt.Plan) > MaxPlanBytes {
+		return 0, fmt.Errorf("render: the plan is %d bytes; at most %d can be stored in the figure", len(opt.Plan), MaxPlanBytes)
+	}
+	return width, nil
+}
