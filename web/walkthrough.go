@@ -1,0 +1,210 @@
+package web
+
+import (
+	"fmt"
+	"strconv"
+	"strings"
+
+	"gridloom/grid"
+)
+
+// WalkStep is one step of a walkthrough: a title, two or three sentences
+// of narration made from the plan's own numbers, and the parts of the
+// figure it highlights (the others are dimmed).
+type WalkStep struct {
+	Key       string // stable name of the step: "channel", "grids", "part-0", "align", "tdd", "ssb", "findings"
+	Title     string
+	Narration []string
+	Highlight []string // figure targets: "channel", "guards", "carriers", "part:I", "align", "tdd", "ssb"
+}
+
+// Walkthrough turns a computed plan into the steps an engineer would walk
+// a team through: the channel and its guardbands, point A and the CRB
+// grids, each partition, the half-millisecond alignment, the TDD pattern
+// and the SS/PBCH blocks when the plan has them, and the findings.
+func Walkthrough(res grid.Result) []WalkStep {
+	var steps []WalkStep
+	steps = append(steps, channelStep(res))
+	if len(res.Carriers) > 0 {
+		steps = append(steps, gridsStep(res))
+	}
+	for i, l := range res.Partitions {
+		steps = append(steps, partitionStep(res, i, l))
+	}
+	if len(res.Partitions) > 0 {
+		steps = append(steps, alignStep(res))
+	}
+	if res.TDD != nil {
+		steps = append(steps, tddStep(res))
+	}
+	if res.SSB != nil {
+		steps = append(steps, ssbStep(res))
+	}
+	steps = append(steps, findingsStep(res))
+	return steps
+}
+
+func num(f float64) string { return strconv.FormatFloat(f, 'f', -1, 64) }
+
+// kHz writes a frequency in kHz, or in MHz from 10 MHz up, as an engineer
+// would say it.
+func kHz(f grid.Hz) string {
+	if f >= 10e6 || f <= -10e6 {
+		return num(float64(f)/1e6) + " MHz"
+	}
+	return num(f.KHz()) + " kHz"
+}
+
+func microseconds(d grid.Tc) string { return strconv.FormatFloat(d.Micros(), 'f', 2, 64) + " µs" }
+
+func channelStep(res grid.Result) WalkStep {
+	ch := res.Channel
+	s := WalkStep{Key: "channel", Title: "The channel and its guardbands", Highlight: []string{"channel", "guards"}}
+	where := "its position is given relative to point A only"
+	if ch.Absolute {
+		where = fmt.Sprintf("centred on %s MHz", strconv.FormatFloat(ch.CenterHz.MHz(), 'f', 3, 64))
+		if ch.OnRaster {
+			where += fmt.Sprintf(" (NR-ARFCN %d)", ch.ARFCN)
+		}
+	}
+	s.Narration = append(s.Narration, fmt.Sprintf("The channel is %d MHz of %s, %s.", ch.BandwidthMHz, ch.Range, where))
+	for _, c := range res.Carriers {
+		s.Narration = append(s.Narration, fmt.Sprintf("At %d kHz it holds N_RB = %d PRBs; the carrier leaves %s below and %s above, against a minimum guardband of %s.",
+			c.SCSKHz, c.NRB, kHz(c.GuardLow), kHz(c.GuardHigh), kHz(c.MinGuard)))
+	}
+	s.Narration = append(s.Narration, fmt.Sprintf("The partitions use %s%% of the channel.", num(ch.UsePercent)))
+	return s
+}
+
+func gridsStep(res grid.Result) WalkStep {
+	ch := res.Channel
+	s := WalkStep{Key: "grids", Title: "Point A and the CRB grids", Highlight: []string{"carriers", "channel"}}
+	pa := "Point A is the frequency from which every CRB grid counts"
+	if ch.Absolute {
+		pa += fmt.Sprintf("; here it is %s MHz", strconv.FormatFloat(ch.PointAHz.MHz(), 'f', 3, 64))
+		if ch.PointAOnRaster {
+			pa += fmt.Sprintf(" (absoluteFrequencyPointA %d)", ch.PointAARFCN)
+		}
+	}
+	s.Narration = append(s.Narration, pa+".")
+	var parts []string
+	for _, c := range res.Carriers {
+		how := ""
+		if c.Chosen {
+			how = ", chosen by gridloom"
+		}
+		parts = append(parts, fmt.Sprintf("%d kHz starts at CRB %d%s and spans %d PRBs", c.SCSKHz, c.OffsetToCarrier, how, c.CarrierBandwidth))
+	}
+	s.Narration = append(s.Narration, "Each subcarrier spacing has its own carrier: "+strings.Join(parts, "; ")+".")
+	if len(res.Carriers) > 1 {
+		a, b := res.Carriers[0].SCSKHz, res.Carriers[1].SCSKHz
+		s.Narration = append(s.Narration, fmt.Sprintf("Subcarrier 0 of CRB 0 sits on point A for every spacing, so the CRB edges of %d and %d kHz are offset by half a subcarrier and never coincide.", a, b))
+	}
+	return s
+}
+
+func partitionStep(res grid.Result, i int, l grid.Lattice) WalkStep {
+	n := l.Numerology
+	s := WalkStep{Key: fmt.Sprintf("part-%d", i), Title: fmt.Sprintf("Partition %s", l.Name), Highlight: []string{fmt.Sprintf("part:%d", i)}}
+	s.Narration = append(s.Narration, fmt.Sprintf("%s uses %d kHz (μ = %d, %s CP): %d slots per millisecond of %d symbols, each a %s useful symbol with a %s cyclic prefix (%s at each half millisecond).",
+		l.Name, n.SCSKHz(), n.Mu, n.CP, n.SlotsPerSubframe(), n.SymbolsPerSlot(), microseconds(n.UsefulTc()), microseconds(n.CPTc(1)), microseconds(n.CPTc(0))))
+	riv := "which no locationAndBandwidth can express"
+	if l.LocationAndBandwidth >= 0 {
+		riv = fmt.Sprintf("locationAndBandwidth %d", l.LocationAndBandwidth)
+	}
+	where := fmt.Sprintf("%s to %s from point A", kHz(l.Low), kHz(l.High))
+	if res.Channel.Absolute {
+		where = fmt.Sprintf("%s to %s MHz", strconv.FormatFloat(res.Channel.Abs(l.Low).MHz(), 'f', 4, 64), strconv.FormatFloat(res.Channel.Abs(l.High).MHz(), 'f', 4, 64))
+	}
+	s.Narration = append(s.Narration, fmt.Sprintf("It takes CRBs %d to %d, %d PRBs or %s MHz, %s; %s.",
+		l.StartCRB, l.StartCRB+l.SizePRB-1, l.SizePRB, num(l.Width().MHz()), where, riv))
+	rate := fmt.Sprintf("At %s on %s it carries about %s Mb/s %s", l.Modulation, plural(l.Layers, "layer", "layers"), strconv.FormatFloat(l.PeakMbps, 'f', 0, 64), l.Direction)
+	if res.TDD != nil && l.Dirs != nil {
+		rate += fmt.Sprintf(", on the %s%% of its symbols the TDD pattern gives that direction", strconv.FormatFloat(l.Share*100, 'f', 0, 64))
+	}
+	s.Narration = append(s.Narration, rate+" (TS 38.306 4.1.2).")
+	return s
+}
+
+func alignStep(res grid.Result) WalkStep {
+	s := WalkStep{Key: "align", Title: "Every numerology meets every half millisecond", Highlight: []string{"align"}}
+	var counts []string
+	seen := map[int]bool{}
+	for _, l := range res.Partitions {
+		n := l.Numerology
+		if seen[n.SCSKHz()*10+int(n.CP)] {
+			continue
+		}
+		seen[n.SCSKHz()*10+int(n.CP)] = true
+		counts = append(counts, fmt.Sprintf("%d symbols of %d kHz", n.SymbolsPerSubframe()/2, n.SCSKHz()))
+	}
+	s.Narration = append(s.Narration, fmt.Sprintf("In each half millisecond fit exactly %s, so all partitions start a symbol together %d times in the %d ms shown.",
+		strings.Join(counts, ", "), 2*res.Partitions[0].SpanMs, res.Partitions[0].SpanMs))
+	s.Narration = append(s.Narration, "It works because the first symbol of each half millisecond has a cyclic prefix 16κ = 1024 Tc (0.52 µs) longer than the others, in every numerology with normal CP (TS 38.211 5.3.1).")
+	return s
+}
+
+func tddStep(res grid.Result) WalkStep {
+	t := res.TDD
+	s := WalkStep{Key: "tdd", Title: "The TDD pattern", Highlight: []string{"tdd"}}
+	ms := float64(t.Period) / float64(grid.TcPerSubframe)
+	d, u, f := 0, 0, 0
+	for _, x := range t.RefDirs {
+		switch x {
+		case grid.Downlink:
+			d++
+		case grid.Uplink:
+			u++
+		default:
+			f++
+		}
+	}
+	s.Narration = append(s.Narration, fmt.Sprintf("The pattern %s repeats every %s ms on %d kHz slots: %d downlink, %d flexible and %d uplink symbols of %d.",
+		t.SlotString(), num(ms), t.Reference.SCSKHz(), d, f, u, len(t.RefDirs)))
+	s.Narration = append(s.Narration, "Each partition's symbols take the direction of the reference symbols they overlap in time, and its rate estimate counts only the symbols in its own direction.")
+	return s
+}
+
+func ssbStep(res grid.Result) WalkStep {
+	b := res.SSB
+	s := WalkStep{Key: "ssb", Title: "SS/PBCH blocks", Highlight: []string{"ssb"}}
+	s.Narration = append(s.Narration, fmt.Sprintf("Case %s at %d kHz has %d candidate positions per half frame; %d blocks fall in the span shown, every %d ms.",
+		b.Case, b.Numerology.SCSKHz(), b.Candidates, len(b.Blocks), b.PeriodMs))
+	s.Narration = append(s.Narration, fmt.Sprintf("Each block is 4 symbols by 240 subcarriers, %s to %s from point A.", kHz(b.Low), kHz(b.High)))
+	return s
+}
+
+func findingsStep(res grid.Result) WalkStep {
+	s := WalkStep{Key: "findings", Title: "Findings"}
+	counts := map[grid.Severity]int{}
+	for _, f := range res.Findings {
+		counts[f.Severity]++
+	}
+	if counts[grid.Error]+counts[grid.Warning] == 0 {
+		s.Narration = append(s.Narration, "The plan raises no errors and no warnings.")
+	} else {
+		s.Narration = append(s.Narration, fmt.Sprintf("The plan raises %s and %s.", plural(counts[grid.Error], "error", "errors"), plural(counts[grid.Warning], "warning", "warnings")))
+	}
+	shown := 0
+	for _, f := range res.Findings {
+		if f.Severity == grid.Info || shown == 2 {
+			continue
+		}
+		s.Narration = append(s.Narration, f.Message)
+		shown++
+		for i, l := range res.Partitions {
+			if l.Name == f.Partition {
+				s.Highlight = append(s.Highlight, fmt.Sprintf("part:%d", i))
+			}
+		}
+	}
+	if counts[grid.Info] > 0 && shown < 2 {
+		for _, f := range res.Findings {
+			if f.Severity == grid.Info {
+				s.Narration = append(s.Narration, f.Message)
+				break
+			}
+		}
+	}
+	return s
+}

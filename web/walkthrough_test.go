@@ -1,0 +1,88 @@
+package web
+
+import (
+	"fmt"
+	"os"
+	"strings"
+	"testing"
+
+	"gridloom/grid"
+	"gridloom/grid/planfile"
+)
+
+func computeFile(t *testing.T, path string) grid.Result {
+	t.Helper()
+	data, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := planfile.Decode(data)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return grid.Compute(p)
+}
+
+// The walkthrough is made from the plan's numbers: each step says what the
+// engine computed, so a changed plan changes the narration.
+func TestWalkthroughCampus(t *testing.T) {
+	res := computeFile(t, "../testdata/plans/campus.yaml")
+	steps := Walkthrough(res)
+	var keys []string
+	for _, s := range steps {
+		keys = append(keys, s.Key)
+		if len(s.Narration) < 1 || len(s.Narration) > 4 {
+			t.Errorf("step %s has %d sentences", s.Key, len(s.Narration))
+		}
+	}
+	if got, want := strings.Join(keys, " "), "channel grids part-0 part-1 part-2 align tdd ssb findings"; got != want {
+		t.Errorf("steps %q, want %q", got, want)
+	}
+	say := func(key string) string {
+		for _, s := range steps {
+			if s.Key == key {
+				return strings.Join(s.Narration, " ")
+			}
+		}
+		return ""
+	}
+	for key, want := range map[string][]string{
+		// TS 38.101-1 Table 5.3.3-1: 552.5 kHz at 15 kHz and 905 kHz at 30 kHz in 40 MHz.
+		"channel": {"40 MHz of FR1", "3750.000 MHz (NR-ARFCN 650000)", "552.5 kHz", "905 kHz"},
+		"grids":   {"3730.560 MHz", "30 kHz starts at CRB 1, chosen by gridloom", "half a subcarrier"},
+		// 30 kHz: 33.33 µs useful, 2.34 µs CP, 2.86 µs at each half millisecond (TS 38.211 5.3.1).
+		"part-1": {"30 kHz (μ = 1", "33.33 µs", "2.34 µs", "2.86 µs", "CRBs 26 to 75", "locationAndBandwidth 13500", "256QAM on 2 layers"},
+		"align":  {"7 symbols of 15 kHz", "14 symbols of 30 kHz", "10 times in the 5 ms"},
+		"tdd":    {"DDDSU", "every 5 ms on 15 kHz slots"},
+		"ssb":    {"Case C at 30 kHz has 8 candidate", "4 symbols by 240 subcarriers"},
+	} {
+		got := say(key)
+		for _, w := range want {
+			if !strings.Contains(got, w) {
+				t.Errorf("step %s does not say %q:\n%s", key, w, got)
+			}
+		}
+	}
+}
+
+func TestWalkthroughFollowsThePlan(t *testing.T) {
+	res := computeFile(t, "../testdata/plans/port.yaml")
+	steps := Walkthrough(res)
+	for _, s := range steps {
+		if s.Key == "tdd" || s.Key == "ssb" {
+			t.Errorf("the port plan has no %s, but the walkthrough has a step for it", s.Key)
+		}
+	}
+	text := fmt.Sprint(steps)
+	for _, want := range []string{"extended CP", "4.17 µs", "100 MHz of FR1"} {
+		if !strings.Contains(text, want) {
+			t.Errorf("port walkthrough lacks %q", want)
+		}
+	}
+	// A broken plan's findings step names its errors and highlights the partition.
+	res = computeFile(t, "../testdata/broken/overlap.yaml")
+	last := Walkthrough(res)[len(Walkthrough(res))-1]
+	if !strings.Contains(strings.Join(last.Narration, " "), "1 error") || len(last.Highlight) == 0 {
+		t.Errorf("findings step %+v", last)
+	}
+}
