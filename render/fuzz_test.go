@@ -14,8 +14,9 @@ import (
 )
 
 // FuzzFigure: any plan the decoder accepts draws to well-formed XML with
-// no script, whatever its names, numbers and findings, in every theme;
-// and the plan carried in the metadata comes back unchanged.
+// no script, whatever its names, numbers and findings, in every theme and
+// in a window larger than the plan's; and the plan carried in the metadata
+// comes back unchanged.
 func FuzzFigure(f *testing.F) {
 	for _, path := range demoPlans(f) {
 		data, err := os.ReadFile(path)
@@ -26,6 +27,7 @@ func FuzzFigure(f *testing.F) {
 	}
 	f.Add([]byte(`{"name":"<script>]]>&","carrier":{"bandwidthMHz":40},"partitions":[{"name":"a\u0000\"<b>","scsKHz":15,"sizePrb":216}]}`), uint8(1))
 	f.Add([]byte(`{"spanMs":10,"carrier":{"range":"FR2-2","bandwidthMHz":2000},"tdd":{"referenceScsKHz":120,"pattern1":{"periodMs":0.625,"downlinkSlots":3,"uplinkSlots":1}},"partitions":[{"name":"w","scsKHz":960,"sizePrb":148}]}`), uint8(2))
+	f.Add([]byte(`{"spanMs":1,"carrier":{"bandwidthMHz":40,"centerMHz":3600},"partitions":[{"name":"a","scsKHz":30,"sizePrb":106}]}`), uint8(5))
 	f.Fuzz(func(t *testing.T, data []byte, opts uint8) {
 		p, err := planfile.Decode(data)
 		if err != nil {
@@ -38,6 +40,13 @@ func FuzzFigure(f *testing.F) {
 		}
 		if opts&2 != 0 {
 			opt.Layers = opt.Layers.Hide(LayerLattice, LayerCP)
+		}
+		if opts&4 != 0 {
+			// A window wider and longer than the plan's, as a comparison
+			// draws, is never refused.
+			w := FitWindow(r)
+			w.Span, w.Low, w.High, w.Rails = grid.MaxSpanMs*grid.TcPerSubframe, w.Low-1_000_000, w.High+1_000_000, w.Rails+1
+			opt.Window, opt.IDPrefix, opt.FromPointA = w, "fz-", true
 		}
 		if len(opt.Caption) > MaxCaption {
 			opt.Caption = ""

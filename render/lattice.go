@@ -94,8 +94,8 @@ func (d detail) parts(sizePRB int) []string {
 func drawPartition(b *builder, f frame, i int, l grid.Lattice, d detail, t *tddDrawing, tdd *grid.TDD) {
 	lk := b.lk
 	top, bottom := f.Y(l.High), f.Y(l.Low)
-	left, right := float64(f.x), f.right()
-	span := f.span
+	left, right := float64(f.x), f.planRight()
+	span := f.planSpan
 	half := grid.TcPerHalfFrame
 
 	b.open(group{class: "gl-part", data: []attr{{"data-index", fmt.Sprint(i)}}})

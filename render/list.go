@@ -16,6 +16,7 @@ type doc struct {
 	ink         rgb // the text colour the labels inherit
 	title, desc string
 	plan        []byte // Options.Plan, stored in <metadata>
+	idPrefix    string // Options.IDPrefix, put before every id
 	patterns    []pattern
 	items       []item
 }
@@ -77,6 +78,9 @@ const (
 	anchorMiddle
 	anchorEnd
 )
+
+// id is the document's id for name: the prefix and the name.
+func (d *doc) id(name string) string { return d.idPrefix + name }
 
 func (*group) isItem()   {}
 func (groupEnd) isItem() {}

@@ -33,9 +33,9 @@ const (
 // ErrNoPlan is returned by PlanFromSVG for a figure that carries no plan.
 var ErrNoPlan = errors.New("the figure carries no gridloom plan; only an SVG exported by gridloom with its plan can be reopened")
 
-// writePlan writes the <metadata> element holding plan.
-func writePlan(buf *bytes.Buffer, plan []byte) {
-	buf.WriteString(`<metadata id="gl-meta"><gl:plan xmlns:gl="` + PlanNamespace + `" encoding="base64">` + "\n")
+// writePlan writes the <metadata> element holding plan, with the given id.
+func writePlan(buf *bytes.Buffer, id string, plan []byte) {
+	buf.WriteString(`<metadata id="` + id + `"><gl:plan xmlns:gl="` + PlanNamespace + `" encoding="base64">` + "\n")
 	enc := base64.StdEncoding.EncodeToString(plan)
 	for len(enc) > 76 {
 		buf.WriteString(enc[:76])

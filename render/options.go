@@ -7,7 +7,8 @@ import (
 )
 
 // Options shape the figure. The zero value draws the default figure: light
-// theme, every layer, no caption, no plan in the metadata.
+// theme, every layer, no caption, no plan in the metadata, the plot fitted
+// to the plan.
 type Options struct {
 	Width  int    // figure width in px, MinWidth to MaxWidth; 0 means DefaultWidth
 	Theme  Theme  // ThemeLight (the zero value) or ThemePrint
@@ -20,6 +21,18 @@ type Options struct {
 	// the SVG's <metadata> so that PlanFromSVG can give it back; at most
 	// MaxPlanBytes. Nil stores nothing. The PNG does not carry it.
 	Plan []byte
+	// Window fixes the plot's time and frequency axes, so that figures of
+	// two plans share their scales; the zero Window fits them to the plan.
+	Window Window
+	// FromPointA labels the frequency axis and the notes beside the rail
+	// from point A even when the channel has an absolute frequency, for a
+	// figure set beside one of a plan that has none.
+	FromPointA bool
+	// IDPrefix is put before every id in the SVG ("gl-plot" becomes
+	// IDPrefix+"gl-plot"), so that several figures can be inlined in one
+	// HTML page; "" or a lower-case letter followed by lower-case letters,
+	// digits and hyphens, at most MaxIDPrefix bytes.
+	IDPrefix string
 }
 
 // Figure widths, in px.
@@ -176,6 +189,9 @@ func (opt Options) check() (int, error) {
 	}
 	if len(opt.Plan) > MaxPlanBytes {
 		return 0, fmt.Errorf("render: the plan is %d bytes; at most %d can be stored in the figure", len(opt.Plan), MaxPlanBytes)
+	}
+	if err := checkIDPrefix(opt.IDPrefix); err != nil {
+		return 0, err
 	}
 	return width, nil
 }

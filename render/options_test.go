@@ -95,7 +95,11 @@ func TestLayersHidden(t *testing.T) {
 	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
 	classes := func(data []byte) map[string]bool {
 		seen := map[string]bool{}
-		parseSVG(t, data).walk(func(n *node) { seen[n.attr["class"]] = true })
+		parseSVG(t, data).walk(func(n *node) {
+			for _, c := range strings.Fields(n.attr["class"]) {
+				seen[c] = true
+			}
+		})
 		return seen
 	}
 	full := classes(figure(t, r, Options{Width: MaxWidth}))

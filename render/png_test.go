@@ -9,6 +9,8 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"slices"
+	"strings"
 	"testing"
 
 	"gridloom/grid"
@@ -255,10 +257,10 @@ func TestFigurePNGSensitivity(t *testing.T) {
 		less := *d
 		less.items = nil
 		for _, it := range d.items {
-			if s, ok := it.(*shape); ok && s.class == class {
+			if s, ok := it.(*shape); ok && slices.Contains(strings.Fields(s.class), class) {
 				continue
 			}
-			if l, ok := it.(*label); ok && l.class == class {
+			if l, ok := it.(*label); ok && slices.Contains(strings.Fields(l.class), class) {
 				continue
 			}
 			less.items = append(less.items, it)

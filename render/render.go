@@ -16,10 +16,19 @@
 // PlanFromSVG reads back.
 //
 // The plot area is published for scripts that map the pointer to time and
-// frequency: the group with id "gl-plot" carries data-x, data-y, data-w and
-// data-h (px), data-span-tc (time 0 at x, span at x+w) and data-low-hz and
-// data-high-hz (frequency from point A at y+h and at y). Partition i of
-// Result.Partitions is drawn inside <g class="gl-part" data-index="i">.
+// frequency: the group with id "gl-plot" (and class "gl-plot") carries
+// data-x, data-y, data-w and data-h (px), data-span-tc (time 0 at x, span
+// at x+w) and data-low-hz and data-high-hz (frequency from point A at y+h
+// and at y), and, when the channel has an absolute frequency,
+// data-point-a-hz. Partition i of Result.Partitions is drawn inside
+// <g class="gl-part" data-index="i">, and its legend row inside
+// <g class="gl-legend-part" data-index="i">; every other mark has a class
+// of its own (gl-guard, gl-edges, gl-carriers, gl-align, gl-ssb, gl-note-…),
+// so a page can highlight parts of an inline figure with its stylesheet.
+//
+// Options.Window fixes the axes, so that figures of two plans share their
+// scales (FitWindow and Window.Union make one that holds both), and
+// Options.IDPrefix keeps the ids of several inline figures apart.
 //
 // Security: plan and partition names and the caption are untrusted. They
 // reach the SVG only as element text through svgo's escaping functions
@@ -97,6 +106,7 @@ type builder struct {
 	lk     *look
 	layers Layers
 	pats   map[string]int
+	fromA  bool // Options.FromPointA
 }
 
 func (b *builder) shows(l Layer) bool { return b.layers.Shows(l) }
@@ -154,10 +164,14 @@ func build(r grid.Result, opt Options) (*doc, error) {
 	if err := checkNumerologies(r); err != nil {
 		return nil, err
 	}
+	win, err := opt.window(r)
+	if err != nil {
+		return nil, err
+	}
 	lk := opt.Theme.look()
-	b := &builder{d: &doc{w: width, plan: opt.Plan}, lk: lk, layers: opt.Layers, pats: map[string]int{}}
+	b := &builder{d: &doc{w: width, plan: opt.Plan, idPrefix: opt.IDPrefix}, lk: lk, layers: opt.Layers, pats: map[string]int{}, fromA: opt.FromPointA}
 
-	f := plotFrame(r, width)
+	f := plotFrameIn(r, width, win)
 	details := make([]detail, len(r.Partitions))
 	for i, l := range r.Partitions {
 		details[i] = chooseDetail(l, f)
@@ -175,7 +189,7 @@ func build(r grid.Result, opt Options) (*doc, error) {
 	}
 
 	rows := partRows(r, details, tdds, b)
-	keys := keyRows(r, b, blocks)
+	keys := keyRows(r, b, blocks, f)
 	keyW := minKeyWidth
 	for _, k := range keys {
 		keyW = max(keyW, int(textWidth(k.text, 10, false))+40+1)
@@ -236,44 +250,16 @@ func build(r grid.Result, opt Options) (*doc, error) {
 	return d, nil
 }
 
-// plotFrame places the plot area and its axes' ranges: the span, and the
-// channel with every carrier and partition, padded by 3 % so the channel
-// edges stand clear of the frame.
-func plotFrame(r grid.Result, width int) frame {
-	spanMs := max(1, r.Plan.SpanMs)
-	for _, l := range r.Partitions {
-		spanMs = max(spanMs, l.SpanMs)
-	}
-	spanMs = min(spanMs, grid.MaxSpanMs)
+// plotFrame places the plot area of the default figure: the window fitted
+// to the plan.
+func plotFrame(r grid.Result, width int) frame { return plotFrameIn(r, width, FitWindow(r)) }
 
-	lo, hi, have := grid.Hz(0), grid.Hz(0), false
-	widen := func(a, b grid.Hz) {
-		if b <= a {
-			return
-		}
-		if !have {
-			lo, hi, have = a, b, true
-			return
-		}
-		lo, hi = min(lo, a), max(hi, b)
-	}
-	widen(r.Channel.Low, r.Channel.High)
-	for _, c := range r.Carriers {
-		widen(c.Low, c.High)
-	}
-	for _, l := range r.Partitions {
-		widen(l.Low, l.High)
-	}
-	if r.SSB != nil {
-		widen(r.SSB.Low, r.SSB.High)
-	}
-	if !have {
-		lo, hi = r.Channel.Center-500_000, r.Channel.Center+500_000
-	}
-	pad := max((hi-lo)*3/100, 1)
-	right := railGap + len(r.Carriers)*railStep + notesGap + notesWidth
+// plotFrameIn places the plot area, room for win.Rails carrier rails beside
+// it, and its axes' ranges: the window resolved by Options.window.
+func plotFrameIn(r grid.Result, width int, win Window) frame {
+	right := railGap + win.Rails*railStep + notesGap + notesWidth
 	return frame{x: marginLeft, y: marginTop, w: width - marginLeft - right, h: plotHeight,
-		span: grid.Tc(spanMs) * grid.TcPerSubframe, low: lo - pad, high: hi + pad}
+		span: win.Span, low: win.Low, high: win.High, planSpan: planSpan(r), rails: win.Rails}
 }
 
 // span is a half-open frequency interval.
@@ -325,12 +311,16 @@ func spectrum(r grid.Result) (guards, unused []span) {
 // drawPlot draws the plot area inside the gl-plot group.
 func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDrawing, blocks *ssbDrawing) {
 	lk := b.lk
-	b.open(group{id: "gl-plot", data: []attr{
+	data := []attr{
 		{"data-x", fmt.Sprint(f.x)}, {"data-y", fmt.Sprint(f.y)},
 		{"data-w", fmt.Sprint(f.w)}, {"data-h", fmt.Sprint(f.h)},
 		{"data-span-tc", fmt.Sprint(f.span)}, {"data-low-hz", fmt.Sprint(f.low)},
 		{"data-high-hz", fmt.Sprint(f.high)},
-	}})
+	}
+	if r.Channel.Absolute {
+		data = append(data, attr{"data-point-a-hz", fmt.Sprint(r.Channel.PointAHz)})
+	}
+	b.open(group{id: "gl-plot", class: "gl-plot", data: data})
 	left, right := float64(f.x), f.right()
 
 	whole := pathOf(func(p *pathData) { p.rect(left, float64(f.y), right, f.bottom()) })
@@ -367,11 +357,24 @@ func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDr
 	if blocks != nil {
 		drawSSB(b, blocks)
 	}
+	if f.pastPlan() {
+		// The window runs on past the plan's span: nothing of the plan is there.
+		x := f.planRight()
+		b.add(shape{class: "gl-past", d: pathOf(func(p *pathData) { p.rect(x, float64(f.y), right, f.bottom()) }),
+			fill: b.pattern("gl-outside", lk.outsideFill)})
+		var edge pathData
+		edge.vline(x, float64(f.y), f.bottom())
+		b.add(line("gl-past-edge", edge, lk.text, 1, lk.edgeW))
+		if b.shows(LayerLabels) && right-x > 60 {
+			b.text(label{class: "gl-past-label", x: x + 6, y: float64(f.y + 14),
+				runs: []run{{text: "end of this plan's " + fmtMs(f.planSpan) + " span"}}, size: 10, halo: true})
+		}
+	}
 
 	if b.shows(LayerLattice) {
 		// Every numerology starts a symbol at every 0.5 ms (TS 38.211 5.3.1).
 		var marks, heads pathData
-		for t := grid.TcPerHalfFrame; t < f.span; t += grid.TcPerHalfFrame {
+		for t := grid.TcPerHalfFrame; t < f.planSpan; t += grid.TcPerHalfFrame {
 			x := f.X(t)
 			marks.vline(x, float64(f.y), f.bottom())
 			heads.moveTo(x-4, float64(f.y-8))
@@ -426,7 +429,7 @@ func drawAxes(b *builder, f frame, ch grid.Channel) {
 	toV := func(hz grid.Hz) float64 { return hz.MHz() }
 	fromV := func(v float64) grid.Hz { return grid.Hz(v * 1e6) }
 	title := "frequency from point A (MHz)"
-	if ch.Absolute {
+	if ch.Absolute && !b.fromA {
 		toV = func(hz grid.Hz) float64 { return ch.Abs(hz).MHz() }
 		fromV = func(v float64) grid.Hz { return grid.Hz(v*1e6) - ch.PointAHz }
 		title = "frequency (MHz)"
@@ -457,8 +460,9 @@ func drawAxes(b *builder, f frame, ch grid.Channel) {
 
 // note is one line of text beside the rail, pointing at a frequency.
 type note struct {
-	y    float64 // the frequency's position
-	text string
+	y     float64 // the frequency's position
+	text  string
+	class string // what it names: gl-note-edge, gl-note-pointa, gl-note-guard or gl-note-unused
 }
 
 // drawRail draws one bar per SCS-specific carrier with its minimum
@@ -468,37 +472,45 @@ func drawRail(b *builder, f frame, r grid.Result) {
 	lk := b.lk
 	ch := r.Channel
 	railX := f.x + f.w + railGap
-	notesX := railX + len(r.Carriers)*railStep + notesGap
+	notesX := railX + f.rails*railStep + notesGap
 
 	var notes []note
+	absolute := ch.Absolute && !b.fromA
 	where := func(hz grid.Hz) string {
-		if ch.Absolute {
+		if absolute {
 			return fmtMHz(ch.Abs(hz))
 		}
 		return fmtMHz(hz) + " from A"
 	}
 	if ch.High > ch.Low {
-		notes = append(notes, note{f.Y(ch.High), "channel edge " + where(ch.High)},
-			note{f.Y(ch.Low), "channel edge " + where(ch.Low)})
+		notes = append(notes, note{f.Y(ch.High), "channel edge " + where(ch.High), "gl-note-edge"},
+			note{f.Y(ch.Low), "channel edge " + where(ch.Low), "gl-note-edge"})
 	}
 	if 0 >= f.low && 0 < f.high {
 		text := "point A"
-		if ch.Absolute {
+		if absolute {
 			text += " " + fmtMHz(ch.PointAHz)
 		}
-		notes = append(notes, note{f.Y(0), text})
+		notes = append(notes, note{f.Y(0), text, "gl-note-pointa"})
 	}
 	if b.shows(LayerGuards) {
 		guards, unused := spectrum(r)
 		for _, g := range guards {
-			notes = append(notes, note{(f.Y(g.lo) + f.Y(g.hi)) / 2, "guard " + fmtSpan(g.hi-g.lo)})
+			notes = append(notes, note{(f.Y(g.lo) + f.Y(g.hi)) / 2, "guard " + fmtSpan(g.hi-g.lo), "gl-note-guard"})
 		}
 		for _, u := range unused {
-			notes = append(notes, note{(f.Y(u.lo) + f.Y(u.hi)) / 2, "unused " + fmtSpan(u.hi-u.lo)})
+			notes = append(notes, note{(f.Y(u.lo) + f.Y(u.hi)) / 2, "unused " + fmtSpan(u.hi-u.lo), "gl-note-unused"})
 		}
 	}
 	if !b.shows(LayerLabels) {
 		notes = nil
+	}
+	for i := range notes {
+		// A channel edge counted from point A can run past the figure's
+		// edge; "edge" alone still says it beside the rail.
+		if textWidth(notes[i].text, 10, false) > notesWidth-2 {
+			notes[i].text = strings.Replace(notes[i].text, "channel edge ", "edge ", 1)
+		}
 	}
 	placed := spread(notes, float64(f.y-12), f.bottom()+float64(axisBand)-8)
 
@@ -511,7 +523,7 @@ func drawRail(b *builder, f frame, r grid.Result) {
 	}
 	b.add(line("gl-leaders", leaders, lk.soft, 1, 0.6))
 	for i, n := range notes {
-		b.text(label{class: "gl-note", x: float64(notesX), y: float64(int(placed[i] + 3.5)), runs: []run{{text: n.text}}, size: 10})
+		b.text(label{class: "gl-note " + n.class, x: float64(notesX), y: float64(int(placed[i] + 3.5)), runs: []run{{text: n.text}}, size: 10})
 	}
 
 	var bars, keep pathData
@@ -522,7 +534,7 @@ func drawRail(b *builder, f frame, r grid.Result) {
 			keep.rect(x, f.Y(ch.Low+c.MinGuard), x+railBar, f.Y(ch.Low))
 			keep.rect(x, f.Y(ch.High), x+railBar, f.Y(ch.High-c.MinGuard))
 		}
-		b.text(label{x: x + railBar/2, y: float64(f.y - 6), runs: []run{{text: fmt.Sprint(c.SCSKHz)}}, size: 9, anchor: anchorMiddle})
+		b.text(label{class: "gl-rail-scs", x: x + railBar/2, y: float64(f.y - 6), runs: []run{{text: fmt.Sprint(c.SCSKHz)}}, size: 9, anchor: anchorMiddle})
 	}
 	b.add(shape{class: "gl-carriers", d: bars, fill: solid(white), stroke: solid(lk.text), strokeW: 1})
 	if b.shows(LayerGuards) {
@@ -665,6 +677,7 @@ func drawLegend(b *builder, r grid.Result, rows []partRowText, keys []keyEntry, 
 	}
 	y := float64(top)
 	for i, row := range rows {
+		b.open(group{class: "gl-legend-part", data: []attr{{"data-index", fmt.Sprint(i)}}})
 		b.add(shape{d: pathOf(func(p *pathData) { p.rect(x, y, x+30, y+18) }), fill: b.partFill(i),
 			stroke: solid(b.lk.part(i)), strokeW: b.lk.bodyW})
 		head := row.head
@@ -673,6 +686,7 @@ func drawLegend(b *builder, r grid.Result, rows []partRowText, keys []keyEntry, 
 		for k, text := range row.lines {
 			b.text(label{x: x + 40, y: y + 24 + float64(k*drawnLine), runs: []run{{text: text}}, size: drawnSize, fill: b.lk.soft})
 		}
+		b.end()
 		y += float64(row.height())
 	}
 	kx, ky := width-legendLeft-keyW, top
@@ -691,7 +705,7 @@ type keyEntry struct {
 }
 
 // keyRows lists the key's rows for what the figure shows.
-func keyRows(r grid.Result, b *builder, blocks *ssbDrawing) []keyEntry {
+func keyRows(r grid.Result, b *builder, blocks *ssbDrawing, f frame) []keyEntry {
 	lk := b.lk
 	vline := func(dx float64, c rgb, a, w float64, pad float64) func(b *builder, x0, y0, x1, y1 float64) {
 		return func(b *builder, x0, y0, x1, y1 float64) {
@@ -745,7 +759,11 @@ func keyRows(r grid.Result, b *builder, blocks *ssbDrawing) []keyEntry {
 			keyEntry{"guardband: channel edge to outermost carrier or partition", box(guard, false)},
 			keyEntry{"unused spectrum inside the channel", box(func() paint { return b.pattern("gl-unused", lk.unusedFill) }, true)})
 	}
-	keys = append(keys, keyEntry{"outside the channel", box(func() paint { return b.pattern("gl-outside", lk.outsideFill) }, false)})
+	outside := "outside the channel"
+	if f.pastPlan() {
+		outside += ", or past the plan's span"
+	}
+	keys = append(keys, keyEntry{outside, box(func() paint { return b.pattern("gl-outside", lk.outsideFill) }, false)})
 	rail := "carrier rail (SCS in kHz above)"
 	if b.shows(LayerGuards) {
 		rail += "; dark: min. guardband"

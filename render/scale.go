@@ -16,7 +16,15 @@ type frame struct {
 	x, y, w, h int // px
 	span       grid.Tc
 	low, high  grid.Hz // relative to point A
+	planSpan   grid.Tc // the plan's span, at most span; the rest is past it
+	rails      int     // carrier rails beside the plot
 }
+
+// pastPlan reports whether the plot runs on past the plan's span.
+func (f frame) pastPlan() bool { return f.planSpan < f.span }
+
+// planRight is the position of the end of the plan's span.
+func (f frame) planRight() float64 { return min(f.right(), f.X(f.planSpan)) }
 
 // X is the position of instant t.
 func (f frame) X(t grid.Tc) float64 {

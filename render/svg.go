@@ -13,16 +13,16 @@ import (
 func writeSVG(buf *bytes.Buffer, d *doc) {
 	s := svg.New(buf)
 	s.Start(d.w, d.h, fmt.Sprintf(`viewBox="0 0 %d %d"`, d.w, d.h), `role="img"`,
-		`aria-labelledby="gl-title"`, `aria-describedby="gl-desc"`)
-	textElement(buf, s, "title", "gl-title", d.title)
-	textElement(buf, s, "desc", "gl-desc", d.desc)
+		`aria-labelledby="`+d.id("gl-title")+`"`, `aria-describedby="`+d.id("gl-desc")+`"`)
+	textElement(buf, s, "title", d.id("gl-title"), d.title)
+	textElement(buf, s, "desc", d.id("gl-desc"), d.desc)
 	if d.plan != nil {
-		writePlan(buf, d.plan)
+		writePlan(buf, d.id("gl-meta"), d.plan)
 	}
 	if len(d.patterns) > 0 {
 		s.Def()
 		for _, p := range d.patterns {
-			s.Pattern(p.id, 0, 0, p.tile, p.tile, "user")
+			s.Pattern(d.id(p.id), 0, 0, p.tile, p.tile, "user")
 			for i := range p.shapes {
 				writeShape(s, d, &p.shapes[i])
 			}
@@ -38,7 +38,7 @@ func writeSVG(buf *bytes.Buffer, d *doc) {
 		case *group:
 			var attrs []string
 			if it.id != "" {
-				attrs = append(attrs, `id="`+it.id+`"`)
+				attrs = append(attrs, `id="`+d.id(it.id)+`"`)
 			}
 			if it.class != "" {
 				attrs = append(attrs, `class="`+it.class+`"`)
@@ -83,7 +83,7 @@ func paintAttrs(d *doc, kind string, p paint) []string {
 		}
 		return out
 	case paintPattern:
-		return []string{kind + `="url(#` + d.patterns[p.pattern].id + `)"`}
+		return []string{kind + `="url(#` + d.id(d.patterns[p.pattern].id) + `)"`}
 	}
 	if kind == "fill" {
 		return []string{`fill="none"`}
