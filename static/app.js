@@ -1,10 +1,12 @@
 // gridloom page script.
 //
-// 1. Live what-if: any change to the plan form fetches /fragment with the
-//    same query and swaps in the figure, the tables and the findings. The
-//    form itself is patched in place (messages, placeholders, choices), so
-//    what the user is typing is never touched; it is replaced whole only
-//    after an edit of the partition list, or when the set of fields changes.
+// 1. Live what-if: any change to the live form (form[data-live]: the
+//    planner's, or the comparison's) fetches its fragment (data-fragment)
+//    with the same query and swaps in the figures, the tables and the
+//    findings. The form itself is patched in place (messages, placeholders,
+//    choices), so what the user is typing is never touched; it is replaced
+//    whole only after an edit of the partition list, or when the set of
+//    fields changes.
 // 2. History: the address always holds the plan. A burst of typing opens one
 //    history entry (pushState) and keeps it current (replaceState); a
 //    committed change opens its own. The back button walks back through
@@ -17,8 +19,15 @@
 //    #gl-lattice, with the timing of TS 38.211 5.3.1 — never from one DOM
 //    element per cell.
 //
-// Without this script the form still works: it is a plain GET form, and the
-// edit buttons submit an op that the server applies.
+// 4. The walkthrough: the arrow keys, Page Up and Page Down, Home and End
+//    move between steps without a reload; each step has its own address
+//    and history entry, and the figure's highlight follows.
+// 5. Opening a plan by dropping a plan file or a saved figure on the
+//    planner: the file is posted to /open as the Open control would.
+//
+// Without this script every page still works: the forms are plain GET
+// forms, the edit buttons submit an op that the server applies, and the
+// walkthrough's steps are links with the highlight marked by the server.
 (() => {
   'use strict';
 
@@ -41,16 +50,21 @@
   let typing = false; // the current burst of typing has its history entry
   let swapping = false; // the form is being replaced: its events are not edits
 
-  // queryOf serialises the plan form as the server reads it: empty values
-  // are left out, except partition names, which keep a partition in place.
+  // liveForm is the form that the page keeps live, if it has one.
+  const liveForm = () => document.querySelector('form[data-live]');
+
+  // queryOf serialises the live form as the server reads it: empty values
+  // are left out, except partition names (with their side's prefix on the
+  // comparison), which keep a partition in place. op is the edit button
+  // pressed: { name, value }.
   function queryOf(form, op) {
     const q = new URLSearchParams();
     for (const [k, v] of new FormData(form)) {
-      if (typeof v !== 'string' || k === 'op') continue;
-      if (v === '' && !/^p\d+\.name$/.test(k)) continue;
+      if (typeof v !== 'string' || /^([ab]\.)?op$/.test(k)) continue;
+      if (v === '' && !/^([ab]\.)?p\d+\.name$/.test(k)) continue;
       q.append(k, v);
     }
-    if (op) q.set('op', op);
+    if (op) q.set(op.name, op.value);
     return q.toString();
   }
 
@@ -61,9 +75,9 @@
 
   // update fetches the workspace for the form (or for query, when the
   // history gives one) and applies it.
-  async function update({ commit, op = '', query = null, fromHistory = false }) {
+  async function update({ commit, op = null, query = null, fromHistory = false }) {
     clearTimeout(timer);
-    const form = byId('gl-form');
+    const form = liveForm();
     if (!form) return;
     const q = query !== null ? query : queryOf(form, op);
     if (inflight) inflight.abort();
@@ -73,7 +87,7 @@
     setBusy(true);
     let text;
     try {
-      const res = await fetch('/fragment?' + q, { signal: ctl.signal, headers: { Accept: 'text/html' } });
+      const res = await fetch(form.dataset.fragment + '?' + q, { signal: ctl.signal, headers: { Accept: 'text/html' } });
       if (res.status !== 200) {
         throw new Error('the server answered ' + res.status + ' ' + res.statusText);
       }
@@ -95,16 +109,15 @@
       return;
     }
     trouble('');
-    apply(work, { full: op !== '' || fromHistory, commit, keepOpen: !fromHistory });
-    record(work.dataset.query || '', { commit, fromHistory });
+    apply(work, { full: op !== null || fromHistory, commit, keepOpen: !fromHistory });
+    record(form.dataset.page + '?' + (work.dataset.query || ''), { commit, fromHistory });
     if (work.dataset.title) document.title = work.dataset.title;
     if (work.dataset.focus) focusControl(work.dataset.focus);
   }
 
   // record keeps the address in step with the plan.
-  function record(query, { commit, fromHistory }) {
+  function record(url, { commit, fromHistory }) {
     if (fromHistory) return;
-    const url = '/?' + query;
     const here = location.pathname + location.search;
     if (commit) {
       if (typing) history.replaceState(null, '', url);
@@ -146,8 +159,8 @@
       upload.setAttribute('action', freshUpload.getAttribute('action'));
       patchNotes(freshUpload);
     }
-    const form = byId('gl-form');
-    const freshForm = work.querySelector('#gl-form');
+    const form = liveForm();
+    const freshForm = form && work.querySelector('#' + form.id);
     if (!form || !freshForm) return;
     if (full || form.dataset.shape !== freshForm.dataset.shape) {
       replaceForm(form, freshForm, keepOpen);
@@ -203,6 +216,8 @@
         } else if (commit && cur !== active) {
           cur.value = el.value;
         }
+      } else if (el.type === 'checkbox') {
+        if (commit && cur !== active) cur.checked = el.checked;
       } else if (commit && cur !== active && cur.value !== el.value) {
         cur.value = el.value;
       }
@@ -236,8 +251,8 @@
   function focusControl(id) {
     let el = byId(id);
     if (el && el.disabled) {
-      const m = /^b-\w+-(\d+)$/.exec(id);
-      el = m ? byId('f-p' + m[1] + '-name') : null;
+      const m = /^((?:[ab]-)?)b-\w+-(\d+)$/.exec(id);
+      el = m ? byId(m[1] + 'f-p' + m[2] + '-name') : null;
     }
     if (el) el.focus();
   }
@@ -245,22 +260,23 @@
   // Typing a locationAndBandwidth places the partition by it: the start
   // and size it replaces show as placeholders until the server fills them.
   function clearPlacement(riv) {
-    const m = /^p(\d+)\.riv$/.exec(riv.name);
+    const m = /^(?:([ab])\.)?p(\d+)\.riv$/.exec(riv.name);
     if (!m || riv.value.trim() === '') return;
+    const prefix = m[1] ? m[1] + '-' : '';
     for (const k of ['start', 'size']) {
-      const el = byId('f-p' + m[1] + '-' + k);
+      const el = byId(prefix + 'f-p' + m[2] + '-' + k);
       if (el) el.value = '';
     }
   }
 
   function inPlanForm(t) {
-    return !swapping && t && t.form && t.form.id === 'gl-form';
+    return !swapping && t && t.form && t.form.hasAttribute('data-live');
   }
 
   document.addEventListener('input', (e) => {
     const t = e.target;
-    if (!inPlanForm(t) || t.tagName === 'SELECT') return;
-    if (/^p\d+\.riv$/.test(t.name)) clearPlacement(t);
+    if (!inPlanForm(t) || t.tagName === 'SELECT' || t.type === 'checkbox') return;
+    if (/^([ab]\.)?p\d+\.riv$/.test(t.name)) clearPlacement(t);
     schedule();
   });
 
@@ -270,13 +286,14 @@
 
   document.addEventListener('submit', (e) => {
     const form = e.target;
-    if (!form || form.id !== 'gl-form') return;
+    if (!form || !form.hasAttribute('data-live')) return;
     e.preventDefault();
     const b = e.submitter;
-    update({ commit: true, op: b && b.name === 'op' ? b.value : '' });
+    update({ commit: true, op: b && /^([ab]\.)?op$/.test(b.name) ? { name: b.name, value: b.value } : null });
   });
 
   window.addEventListener('popstate', () => {
+    if (byId('gl-walk')) return; // the walkthrough keeps its own history
     typing = false;
     if (location.search.length <= 1) {
       location.reload();
@@ -585,4 +602,171 @@
     e.preventDefault();
     showCursor();
   });
+
+  // A link to a closed <details> (the figure's options) opens it.
+  document.addEventListener('click', (e) => {
+    const a = e.target.closest && e.target.closest('a[href^="#"]');
+    const d = a && byId(a.getAttribute('href').slice(1));
+    if (d && d.tagName === 'DETAILS') d.open = true;
+  });
+
+  // ---------------------------------------------------------------------
+  // The walkthrough
+
+  // The server renders every step, the current one shown, the others
+  // hidden; each step's section carries the figure's highlight classes
+  // (data-hl, built by the server from its own targets) and the table of
+  // contents holds each step's link.
+  const walk = {
+    root: () => byId('gl-walk'),
+    steps: () => Array.from(document.querySelectorAll('#gl-walk-text .gl-step')),
+    links: () => Array.from(document.querySelectorAll('.gl-walk-toc a[data-step]')),
+    current: () => Number(byId('gl-walk').dataset.current),
+  };
+
+  // showStep shows step i: its text, the figure's highlight, the counter,
+  // the neighbours' links and the address.
+  function showStep(i, { push = true } = {}) {
+    const root = walk.root();
+    const steps = walk.steps();
+    const links = walk.links();
+    if (!root || i < 0 || i >= steps.length || !links[i]) return;
+    steps.forEach((s, k) => { s.hidden = k !== i; });
+    const fig = byId('gl-walk-figure');
+    if (fig) fig.className = ('gl-walk-figure ' + (steps[i].dataset.hl || '')).trim();
+    links.forEach((a, k) => {
+      if (k === i) a.setAttribute('aria-current', 'step');
+      else a.removeAttribute('aria-current');
+    });
+    const count = byId('gl-walk-count');
+    if (count) count.textContent = 'Step ' + (i + 1) + ' of ' + steps.length;
+    setLink(byId('gl-walk-prev'), i > 0 ? links[i - 1].getAttribute('href') : null);
+    setLink(byId('gl-walk-next'), i + 1 < links.length ? links[i + 1].getAttribute('href') : null);
+    const layout = document.querySelector('[data-layout]');
+    if (layout) {
+      const u = new URL(layout.href, location.href);
+      u.searchParams.set('step', new URL(links[i].href, location.href).searchParams.get('step'));
+      layout.href = u.pathname + u.search;
+    }
+    root.dataset.current = String(i);
+    document.title = (i + 1) + '/' + steps.length + ' ' + steps[i].dataset.title + (root.dataset.titleTail || '');
+    if (push) {
+      const url = links[i].getAttribute('href');
+      if (url !== location.pathname + location.search) history.pushState({ step: i }, '', url);
+    }
+  }
+
+  function setLink(a, href) {
+    if (!a) return;
+    if (href) {
+      a.setAttribute('href', href);
+      a.removeAttribute('aria-disabled');
+    } else {
+      a.removeAttribute('href');
+      a.setAttribute('aria-disabled', 'true');
+    }
+  }
+
+  // stepOfAddress finds the step whose link the address holds.
+  function stepOfAddress() {
+    const here = new URL(location.href).searchParams.get('step');
+    const links = walk.links();
+    const i = links.findIndex((a) => new URL(a.href, location.href).searchParams.get('step') === here);
+    return i < 0 ? 0 : i;
+  }
+
+  document.addEventListener('keydown', (e) => {
+    if (!walk.root() || !byId('gl-walk-text') || e.altKey || e.ctrlKey || e.metaKey) return;
+    const t = e.target;
+    if (t && (t.isContentEditable || /^(INPUT|SELECT|TEXTAREA|BUTTON)$/.test(t.tagName))) return;
+    const i = walk.current();
+    const last = walk.steps().length - 1;
+    let to;
+    switch (e.key) {
+      case 'ArrowRight': case 'PageDown': to = Math.min(i + 1, last); break;
+      case 'ArrowLeft': case 'PageUp': to = Math.max(i - 1, 0); break;
+      case 'Home': to = 0; break;
+      case 'End': to = last; break;
+      default: return;
+    }
+    e.preventDefault();
+    if (to !== i) showStep(to);
+  });
+
+  document.addEventListener('click', (e) => {
+    if (!byId('gl-walk-text') || e.button !== 0 || e.altKey || e.ctrlKey || e.metaKey || e.shiftKey) return;
+    const a = e.target.closest && e.target.closest('#gl-walk-prev[href], #gl-walk-next[href], .gl-walk-toc a[data-step]');
+    if (!a) return;
+    e.preventDefault();
+    const i = a.dataset.step !== undefined ? Number(a.dataset.step) : walk.current() + (a.id === 'gl-walk-next' ? 1 : -1);
+    showStep(i);
+  });
+
+  window.addEventListener('popstate', () => {
+    if (byId('gl-walk-text')) showStep(stepOfAddress(), { push: false });
+  });
+
+  // The print layout's button.
+  document.querySelectorAll('[data-print]').forEach((b) => { b.hidden = false; });
+  document.addEventListener('click', (e) => {
+    if (e.target.closest && e.target.closest('[data-print]')) window.print();
+  });
+
+  // ---------------------------------------------------------------------
+  // Opening a plan by dropping it on the planner
+
+  function hasFiles(e) {
+    return e.dataTransfer && Array.from(e.dataTransfer.types || []).includes('Files');
+  }
+
+  document.addEventListener('dragover', (e) => {
+    if (!byId('gl-upload') || !hasFiles(e)) return;
+    e.preventDefault();
+    e.dataTransfer.dropEffect = 'copy';
+    document.body.classList.add('gl-dropping');
+  });
+
+  document.addEventListener('dragleave', (e) => {
+    if (e.relatedTarget === null) document.body.classList.remove('gl-dropping');
+  });
+
+  document.addEventListener('drop', (e) => {
+    const upload = byId('gl-upload');
+    if (!upload || !hasFiles(e)) return;
+    e.preventDefault();
+    document.body.classList.remove('gl-dropping');
+    const file = e.dataTransfer.files[0];
+    if (file) openFile(upload, file);
+  });
+
+  // openFile posts a file to the upload form's action, as the Open button
+  // would, and opens the plan; on a refusal it shows the server's reason
+  // beside the file control.
+  async function openFile(upload, file) {
+    const body = new FormData();
+    body.append('plan', file, file.name);
+    setBusy(true);
+    let res;
+    try {
+      res = await fetch(upload.getAttribute('action'), { method: 'POST', body });
+    } catch (err) {
+      setBusy(false);
+      trouble('The file could not be sent (' + err.message + '); try the Open control.');
+      return;
+    }
+    if (res.ok && res.redirected) {
+      location.assign(res.url);
+      return;
+    }
+    setBusy(false);
+    const page = new DOMParser().parseFromString(await res.text(), 'text/html');
+    const fresh = page.getElementById('gl-upload');
+    if (fresh) {
+      patchNotes(fresh);
+      const f = byId('f-file');
+      if (f) f.focus();
+    } else {
+      trouble('The server could not open ' + file.name + ' (' + res.status + ').');
+    }
+  }
 })();

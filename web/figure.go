@@ -20,9 +20,9 @@ type FigureFunc func(w io.Writer, r grid.Result, opt render.Options) error
 
 // drawFigure draws res into memory, so that a failure never sends half a
 // figure.
-func drawFigure(draw FigureFunc, res grid.Result) ([]byte, error) {
+func drawFigure(draw FigureFunc, res grid.Result, opt render.Options) ([]byte, error) {
 	var buf bytes.Buffer
-	if err := draw(&buf, res, render.Options{}); err != nil {
+	if err := draw(&buf, res, opt); err != nil {
 		return nil, err
 	}
 	return buf.Bytes(), nil

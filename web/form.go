@@ -22,6 +22,9 @@ const (
 	keyOffset    = "off." // + SCS in kHz
 	keyCarrierBW = "cbw." // + SCS in kHz
 	keyOp        = "op"
+	// keyQuery is not a query key: it keys the message about a query that
+	// does not parse as a whole.
+	keyQuery = "query"
 )
 
 // Partition keys, after the "pI." prefix, in the order they are written.
@@ -531,6 +534,11 @@ func FormOf(p grid.Plan) Form {
 	}
 	if e := p.Environment; e != nil {
 		f.Env = EnvForm{DelayNs: ftoa0(e.DelaySpreadNs), Profile: e.DelayProfile, Speed: ftoa0(e.SpeedKmh), CarrierMHz: ftoa0(e.CarrierMHz)}
+		if !f.Env.given() {
+			// A block of zeros is still in the plan: its speed, written as
+			// 0, keeps it there, as offsetToPointA does for the SS/PBCH block.
+			f.Env.Speed = "0"
+		}
 	}
 	for _, pp := range p.Partitions {
 		f.Parts = append(f.Parts, PartForm{

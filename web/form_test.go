@@ -13,7 +13,7 @@ import (
 )
 
 // demoPlans decodes the embedded demo plans, by file name.
-func demoPlans(t *testing.T) map[string]grid.Plan {
+func demoPlans(t testing.TB) map[string]grid.Plan {
 	t.Helper()
 	names, err := fs.Glob(plans.FS, "*.yaml")
 	if err != nil || len(names) == 0 {
@@ -85,7 +85,8 @@ func TestRoundTripPlans(t *testing.T) {
 			SSB:         &grid.SSBPlan{SCSKHz: 240, Case: "E", Bitmap: "0000", ScsCommonKHz: 120, PeriodMs: 5},
 			Environment: &grid.EnvironmentPlan{DelaySpreadNs: 37.5, SpeedKmh: 3, CarrierMHz: 28000},
 			Partitions:  []grid.PartitionPlan{{Name: "x", SCSKHz: 120, SizePRB: 66}}},
-		"no partitions": {Name: "empty"},
+		"no partitions":           {Name: "empty"},
+		"an environment of zeros": {Environment: &grid.EnvironmentPlan{}, Partitions: []grid.PartitionPlan{{Name: "a"}}},
 	}
 	for name, p := range cases {
 		t.Run(name, func(t *testing.T) {
@@ -331,6 +332,9 @@ func TestFileName(t *testing.T) {
 		"☃☃☃":                            "gridloom-plan",
 		"Été 2026":                       "t-2026",
 		strings.Repeat("a", 100):         strings.Repeat("a", 60),
+		"CON":                            "con-plan",
+		"com1":                           "com1-plan",
+		"console":                        "console",
 	} {
 		if got := fileName(in); got != want {
 			t.Errorf("fileName(%q) = %q, want %q", in, got, want)

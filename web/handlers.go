@@ -20,6 +20,7 @@ import (
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
+	"gridloom/render"
 )
 
 // handlePage serves the planner for the plan in the query. An empty query
@@ -32,9 +33,9 @@ func handlePage(logger *slog.Logger, cfg Config) http.HandlerFunc {
 			http.Redirect(w, r, "/?"+FormOf(cfg.Plan).Query(), http.StatusSeeOther)
 			return
 		}
-		st, focus, opErr := stateOf(r.URL.Query())
+		st, focus, opErr := stateOf(readQuery(r))
 		if opErr == nil && focus != "" {
-			http.Redirect(w, r, "/?"+st.form.Query()+"#"+focus, http.StatusSeeOther)
+			http.Redirect(w, r, "/?"+st.query()+"#"+focus, http.StatusSeeOther)
 			return
 		}
 		v, styles := viewOf(r, logger, cfg, st)
@@ -50,20 +51,39 @@ func handlePage(logger *slog.Logger, cfg Config) http.HandlerFunc {
 // since the request for a fragment did not fail.
 func handleFragment(logger *slog.Logger, cfg Config) http.HandlerFunc {
 	return func(w http.ResponseWriter, r *http.Request) {
-		st, focus, _ := stateOf(r.URL.Query())
+		st, focus, _ := stateOf(readQuery(r))
 		v, styles := viewOf(r, logger, cfg, st)
 		v.Focus = focus
 		writeHTML(w, r, logger, http.StatusOK, work(v), styles)
 	}
 }
 
-// stateOf reads and computes the plan of a query and applies its op, if
-// any. focus is the control to focus after a successful op; a failed op
-// leaves the plan as it was and says why beside the partitions.
-func stateOf(q url.Values) (st state, focus string, opErr error) {
+// readQuery reads the query of a request that carries a plan: the values
+// and the form they hold, with ParseQuery's messages. The query parser skips
+// a pair it cannot decode (a bad %-escape, a semicolon) and reads nothing
+// from a query of more than 10000 pairs, so a message says so rather than
+// let a value vanish without a word.
+func readQuery(r *http.Request) (url.Values, Form, Messages) {
+	q, err := url.ParseQuery(r.URL.RawQuery)
 	f, msgs := ParseQuery(q)
-	st = newState(f, msgs)
-	op := q.Get(keyOp)
+	if err != nil {
+		msgs.add(keyQuery, "Part of the link could not be read (%s), so a value it holds may be missing from the form; check the form against the plan you meant.", err)
+	}
+	return q, f, msgs
+}
+
+// stateOf computes the form of a query (read by readQuery, with its
+// messages) and applies the query's op, if any, with the query's figure
+// options. focus is the control to focus after a successful op; a failed op
+// leaves the plan as it was and says why beside the partitions.
+func stateOf(q url.Values, f Form, msgs Messages) (st state, focus string, opErr error) {
+	return stateWithOp(f, msgs, q.Get(keyOp), parseFigureForm(q))
+}
+
+// stateWithOp is stateOf for a form and an op already read, so that each
+// side of the comparison can use it with its own keys.
+func stateWithOp(f Form, msgs Messages, op string, ff FigureForm) (st state, focus string, opErr error) {
+	st = newState(f, msgs).withFigure(ff)
 	if op == "" {
 		return st, "", nil
 	}
@@ -73,9 +93,9 @@ func stateOf(q url.Values) (st state, focus string, opErr error) {
 		for k, v := range msgs {
 			withOp.add(k, "%s", v)
 		}
-		return newState(st.form, withOp), "", err
+		return newState(st.form, withOp).withFigure(ff), "", err
 	}
-	return newState(g, msgs), focus, nil
+	return newState(g, msgs).withFigure(ff), focus, nil
 }
 
 func capitalize(s string) string {
@@ -90,7 +110,7 @@ func capitalize(s string) string {
 // viewOf draws the figure and builds the page view of a state, with the
 // CSP sources the inline figure needs.
 func viewOf(r *http.Request, logger *slog.Logger, cfg Config, st state) (pageView, []string) {
-	svg, err := drawFigure(cfg.Figure, st.res)
+	svg, err := drawFigure(cfg.Figure, st.res, st.fig.opt)
 	inline := ""
 	var styles []string
 	if err != nil {
@@ -130,32 +150,57 @@ func handleDemo(cfg Config) http.HandlerFunc {
 // downloadState reads the plan of a download's query. A value that does not
 // parse gets 422 and the messages, since no file could be faithful to it.
 func downloadState(w http.ResponseWriter, r *http.Request) (state, bool) {
-	f, msgs := ParseQuery(r.URL.Query())
-	st := newState(f, msgs)
+	q, f, msgs := readQuery(r)
+	st := newState(f, msgs).withFigure(parseFigureForm(q))
 	if len(st.inputErr) > 0 {
-		var b strings.Builder
-		b.WriteString("The plan in the link has values that do not parse:\n")
-		for _, k := range sortedKeys(st.inputErr) {
-			fmt.Fprintf(&b, "%s: %s\n", k, st.inputErr[k])
-		}
-		w.Header().Set("Content-Type", "text/plain; charset=utf-8")
-		w.WriteHeader(http.StatusUnprocessableEntity)
-		_, _ = io.WriteString(w, b.String())
+		refuse(w, "The plan in the link has values that do not parse:", st.inputErr)
 		return st, false
 	}
 	return st, true
 }
 
-// handleFigure serves the figure of the query's plan. A plan with error
+// refuse answers 422 with the messages, one line each after its key.
+func refuse(w http.ResponseWriter, head string, msgs Messages) {
+	var b strings.Builder
+	b.WriteString(head + "\n")
+	for _, k := range sortedKeys(msgs) {
+		fmt.Fprintf(&b, "%s: %s\n", k, msgs[k])
+	}
+	w.Header().Set("Content-Type", "text/plain; charset=utf-8")
+	w.WriteHeader(http.StatusUnprocessableEntity)
+	_, _ = io.WriteString(w, b.String())
+}
+
+// figureDownloadState reads the plan and the figure options of a figure's query;
+// an option that does not parse gets 422 as a plan value does.
+func figureDownloadState(w http.ResponseWriter, r *http.Request) (state, bool) {
+	st, ok := downloadState(w, r)
+	if ok && len(st.fig.msgs) > 0 {
+		refuse(w, "The figure options in the link have values that gridloom cannot draw:", st.fig.msgs)
+		return st, false
+	}
+	return st, ok
+}
+
+// handleFigure serves the figure of the query's plan, drawn with the
+// query's figure options and carrying the plan file in its metadata, so
+// that the saved figure opens again as the plan. A plan with error
 // findings is still drawn (with what could be placed), as the command line
 // does: a figure of a broken plan is what a team discusses.
 func handleFigure(logger *slog.Logger, cfg Config) http.HandlerFunc {
 	return func(w http.ResponseWriter, r *http.Request) {
-		st, ok := downloadState(w, r)
+		st, ok := figureDownloadState(w, r)
 		if !ok {
 			return
 		}
-		svg, err := drawFigure(cfg.Figure, st.res)
+		opt := st.fig.opt
+		plan, err := planfile.EncodeJSON(st.plan)
+		if err != nil {
+			serverError(w, r, logger, "figure", err)
+			return
+		}
+		opt.Plan = plan
+		svg, err := drawFigure(cfg.Figure, st.res, opt)
 		if err != nil {
 			serverError(w, r, logger, "figure", err)
 			return
@@ -165,6 +210,26 @@ func handleFigure(logger *slog.Logger, cfg Config) http.HandlerFunc {
 			attach(w, st.plan.Name, ".svg")
 		}
 		send(w, http.StatusOK, "image/svg+xml", svg)
+	}
+}
+
+// handleFigurePNG serves the figure as a PNG image, with the same options
+// and the same layout as the SVG; an image carries no plan.
+func handleFigurePNG(logger *slog.Logger, cfg Config) http.HandlerFunc {
+	return func(w http.ResponseWriter, r *http.Request) {
+		st, ok := figureDownloadState(w, r)
+		if !ok {
+			return
+		}
+		png, err := drawFigure(cfg.PNG, st.res, st.fig.opt)
+		if err != nil {
+			serverError(w, r, logger, "figure", err)
+			return
+		}
+		if r.URL.Query().Get("download") == "1" {
+			attach(w, st.plan.Name, ".png")
+		}
+		send(w, http.StatusOK, "image/png", png)
 	}
 }
 
@@ -212,19 +277,21 @@ func handleSymbols(logger *slog.Logger, cfg Config) http.HandlerFunc {
 	}
 }
 
-// handleOpen reads an uploaded plan file (field "plan", JSON or YAML) and
-// redirects to its page. On failure it shows the page it came from (its
-// query rides on the form's action) with the reason beside the file control.
+// handleOpen reads an uploaded plan file (field "plan": JSON, YAML, or a
+// figure saved by gridloom, whose metadata holds the plan) and redirects to
+// its page, keeping the figure options of the page it came from. On failure
+// it shows that page (its query rides on the form's action) with the reason
+// beside the file control.
 func handleOpen(logger *slog.Logger, cfg Config) http.HandlerFunc {
 	return func(w http.ResponseWriter, r *http.Request) {
-		fail := func(status int, msgs ...string) {
-			f, qm := ParseQuery(r.URL.Query())
+		fail := func(status int, reasons ...string) {
+			_, f, msgs := readQuery(r)
 			if r.URL.RawQuery == "" {
 				f = FormOf(cfg.Plan)
 			}
-			st := newState(f, qm)
+			st := newState(f, msgs)
 			v, styles := viewOf(r, logger, cfg, st)
-			for _, m := range msgs {
+			for _, m := range reasons {
 				v.Upload.Notes = append(v.Upload.Notes, note{Severity: string(grid.Error), Text: m})
 			}
 			writeHTML(w, r, logger, status, page(v), styles)
@@ -254,7 +321,16 @@ func handleOpen(logger *slog.Logger, cfg Config) http.HandlerFunc {
 			return
 		}
 		var plan grid.Plan
-		switch strings.ToLower(filepath.Ext(hdr.Filename)) {
+		ext := strings.ToLower(filepath.Ext(hdr.Filename))
+		if ext == ".svg" || (ext != ".json" && ext != ".yaml" && ext != ".yml" && looksLikeXML(data)) {
+			inner, err := render.PlanFromSVG(data)
+			if err != nil {
+				fail(http.StatusBadRequest, fmt.Sprintf("%s cannot be opened as a plan: %s.", hdr.Filename, strings.TrimSuffix(err.Error(), ".")))
+				return
+			}
+			data = inner
+		}
+		switch ext {
 		case ".json":
 			plan, err = planfile.DecodeJSON(data)
 		case ".yaml", ".yml":
@@ -270,8 +346,17 @@ func handleOpen(logger *slog.Logger, cfg Config) http.HandlerFunc {
 			fail(http.StatusBadRequest, msgs...)
 			return
 		}
-		http.Redirect(w, r, "/?"+FormOf(plan).Query(), http.StatusSeeOther)
+		fig := parseFigureForm(r.URL.Query()).query()
+		http.Redirect(w, r, "/?"+joinQuery(FormOf(plan).Query(), fig), http.StatusSeeOther)
 	}
+}
+
+// looksLikeXML reports whether data opens as an XML document does: with
+// "<" after any byte-order mark and white space. No plan file does.
+func looksLikeXML(data []byte) bool {
+	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
+	data = bytes.TrimLeft(data, " \t\r\n")
+	return len(data) > 0 && data[0] == '<'
 }
 
 func isTooLarge(err error) bool {
@@ -370,7 +455,7 @@ func handleAPIFigure(logger *slog.Logger, cfg Config) http.HandlerFunc {
 			writeJSON(w, http.StatusUnprocessableEntity, res.JSON(false))
 			return
 		}
-		svg, err := drawFigure(cfg.Figure, res)
+		svg, err := drawFigure(cfg.Figure, res, render.Options{})
 		if err != nil {
 			serverError(w, r, logger, "figure", err)
 			return
@@ -413,7 +498,8 @@ func attach(w http.ResponseWriter, planName, suffix string) {
 
 // fileName makes a plan name safe as a file name on any system: lower-case
 // ASCII letters and digits, runs of anything else as one hyphen, at most 60
-// characters; "gridloom-plan" when nothing is left.
+// characters; "gridloom-plan" when nothing is left, and "-plan" after a
+// name that Windows keeps for a device (con, nul, com1 …).
 func fileName(name string) string {
 	var b strings.Builder
 	dash := false
@@ -434,7 +520,20 @@ func fileName(name string) string {
 	if b.Len() == 0 {
 		return "gridloom-plan"
 	}
+	if windowsDevice(b.String()) {
+		b.WriteString("-plan")
+	}
 	return b.String()
+}
+
+// windowsDevice reports whether Windows reserves s, with any extension, as
+// the name of a device.
+func windowsDevice(s string) bool {
+	switch s {
+	case "con", "prn", "aux", "nul":
+		return true
+	}
+	return len(s) == 4 && (strings.HasPrefix(s, "com") || strings.HasPrefix(s, "lpt")) && s[3] >= '0' && s[3] <= '9'
 }
 
 // handleNotFound answers unknown paths: JSON under /api/, a short page

@@ -16,6 +16,7 @@ func addRoutes(r *chi.Mux, logger *slog.Logger, cfg Config) {
 	r.Use(recoverPanics(logger))
 	r.Use(securityHeaders)
 	r.Use(middleware.Compress(5, compressible...))
+	r.Use(limitQuery)
 	r.Use(limitBody)
 	r.Use(middleware.GetHead)
 
@@ -25,7 +26,13 @@ func addRoutes(r *chi.Mux, logger *slog.Logger, cfg Config) {
 	r.Get("/", handlePage(logger, cfg))                                                 // the planner; an empty query opens the startup plan
 	r.Get("/fragment", handleFragment(logger, cfg))                                     // the planner's workspace alone, for live updates
 	r.Get("/demo/{name}", handleDemo(cfg))                                              // redirect to a demo plan
-	r.Get("/figure.svg", handleFigure(logger, cfg))                                     // the figure; download=1 sends it as a file
+	r.Get("/figure.svg", handleFigure(logger, cfg))                                     // the figure, with the plan in its metadata; download=1 sends it as a file
+	r.Get("/figure.png", handleFigurePNG(logger, cfg))                                  // the figure as a PNG image; download=1 sends it as a file
+	r.Get("/walk", handleWalk(logger, cfg))                                             // the plan step by step for a team: step=, view=projector or print
+	r.Get("/compare", handleCompare(logger, cfg))                                       // two plans side by side on shared scales, a. and b. keys
+	r.Get("/compare/fragment", handleCompareFragment(logger, cfg))                      // the comparison's workspace alone, for live updates
+	r.Get("/compare/figure.svg", handleCompareFigure(logger, cfg, "svg"))               // one side's figure on the shared scales: side=a or b
+	r.Get("/compare/figure.png", handleCompareFigure(logger, cfg, "png"))               // the same as a PNG image
 	r.Get("/plan.json", handlePlanFile(logger, "json"))                                 // the plan as a JSON plan file
 	r.Get("/plan.yaml", handlePlanFile(logger, "yaml"))                                 // the plan as a YAML plan file
 	r.Get("/symbols.csv", handleSymbols(logger, cfg))                                   // one row per OFDM symbol of every partition

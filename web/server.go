@@ -1,16 +1,22 @@
 // Package web is gridloom's local web app: the planner page, its live
-// fragment, the downloads, the plan upload and the JSON API, all computed
-// by grid and drawn by render.
+// fragment, the walkthrough that presents a plan step by step, the
+// comparison of two plans on shared scales, the downloads (the figure as
+// SVG with the plan inside, or PNG; plan files; the symbol table), the plan
+// upload and the JSON API, all computed by grid and drawn by render.
 //
-// The page keeps no state on the server: its query string holds the whole
-// plan (see Form for the keys), so a link reproduces a sketch and the back
-// button walks through edits.
+// The pages keep no state on the server: the query string holds the whole
+// plan (see Form for the keys; FigureForm for the figure's options), or
+// both plans of a comparison under "a." and "b.", so a link reproduces a
+// sketch, a step of a walkthrough or a comparison, and the back button
+// walks through edits and steps.
 //
 // Security: every request is untrusted input. Bodies are limited to 1 MiB
-// (a multipart upload to a 1 MiB file plus its envelope), plan files are
-// decoded by planfile, which bounds them, and every page carries a Content
-// Security Policy that allows only the app's own script and stylesheet. The
-// app has no login: it is meant for the loopback interface.
+// (a multipart upload to a 1 MiB file plus its envelope) and queries to
+// 32 KiB; plan files are decoded by planfile, which bounds them; every
+// response carries a Content Security Policy that allows only the app's own
+// script and stylesheet. Names reach the page, the figure and the downloads
+// only as escaped text. The app has no login: it is meant for the loopback
+// interface.
 package web
 
 import (
@@ -18,6 +24,7 @@ import (
 	"cmp"
 	"crypto/sha256"
 	"encoding/hex"
+	"fmt"
 	"io"
 	"io/fs"
 	"log/slog"
@@ -46,6 +53,8 @@ type Config struct {
 	Demos []Demo
 	// Figure draws the figure; nil means render.Figure.
 	Figure FigureFunc
+	// PNG draws the figure as a PNG image; nil means render.FigurePNG.
+	PNG FigureFunc
 	// SymbolCSV writes the symbol table; nil means render.SymbolCSV.
 	SymbolCSV func(w io.Writer, r grid.Result) error
 }
@@ -62,6 +71,9 @@ type Demo struct {
 func NewServer(logger *slog.Logger, cfg Config) http.Handler {
 	if cfg.Figure == nil {
 		cfg.Figure = render.Figure
+	}
+	if cfg.PNG == nil {
+		cfg.PNG = render.FigurePNG
 	}
 	if cfg.SymbolCSV == nil {
 		cfg.SymbolCSV = render.SymbolCSV
@@ -137,6 +149,33 @@ func limitBody(next http.Handler) http.Handler {
 	})
 }
 
+// MaxQuery is the longest query, in bytes, that the app reads; a longer
+// one gets 414. A link holds the whole plan: the longest a plan within the
+// engine's limits can write (16 partitions, every name 64 four-byte
+// characters, every field given) is under 16 KiB, so 32 KiB leaves room for
+// plans over the limits, which the page must still show to say what is
+// wrong. The server in front must allow headers of more than MaxQuery bytes
+// for the 414 and its message to be reached; the handler bounds its work
+// without relying on it.
+const MaxQuery = 32 << 10
+
+// limitQuery refuses a query longer than MaxQuery with 414, before any
+// handler parses it, saying how long it was and what the limit is.
+func limitQuery(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if n := len(r.URL.RawQuery); n > MaxQuery {
+			msg := fmt.Sprintf("The link's query is %d bytes long; gridloom reads at most %d (32 KiB). A plan this large travels better as a plan file: open it under \"Open a plan file\".", n, MaxQuery)
+			if isAPI(r) {
+				writeJSON(w, http.StatusRequestURITooLong, apiError{Error: msg})
+				return
+			}
+			http.Error(w, msg, http.StatusRequestURITooLong)
+			return
+		}
+		next.ServeHTTP(w, r)
+	})
+}
+
 func tooLarge(w http.ResponseWriter, r *http.Request, limit int64) {
 	msg := "The request body is larger than " + sizeText(limit) + "; a plan file may be at most 1 MiB."
 	if isAPI(r) {
@@ -155,6 +194,10 @@ func sizeText(n int64) string {
 
 func isAPI(r *http.Request) bool { return strings.HasPrefix(r.URL.Path, "/api/") }
 
+// statusClientClosed is logged for a request whose client went away before
+// it was answered (nginx's 499); it is never sent.
+const statusClientClosed = 499
+
 // accessLog writes one structured line per request. The query is logged by
 // size only: it holds a whole plan.
 func accessLog(logger *slog.Logger) func(http.Handler) http.Handler {
@@ -163,12 +206,16 @@ func accessLog(logger *slog.Logger) func(http.Handler) http.Handler {
 			ww := middleware.NewWrapResponseWriter(w, r.ProtoMajor)
 			start := time.Now()
 			next.ServeHTTP(ww, r)
+			status := ww.Status()
+			if status == 0 && r.Context().Err() != nil {
+				status = statusClientClosed
+			}
 			logger.LogAttrs(r.Context(), slog.LevelInfo, "request",
 				slog.String("id", middleware.GetReqID(r.Context())),
 				slog.String("method", r.Method),
 				slog.String("path", r.URL.Path),
 				slog.Int("query_bytes", len(r.URL.RawQuery)),
-				slog.Int("status", cmp.Or(ww.Status(), http.StatusOK)),
+				slog.Int("status", cmp.Or(status, http.StatusOK)),
 				slog.Int("bytes", ww.BytesWritten()),
 				slog.Duration("duration", time.Since(start)),
 			)
@@ -249,6 +296,9 @@ func hashAssets(fsys fs.FS) map[string]string {
 func writeHTML(w http.ResponseWriter, r *http.Request, logger *slog.Logger, status int, c templ.Component, styleSources []string) {
 	var buf bytes.Buffer
 	if err := c.Render(r.Context(), &buf); err != nil {
+		if r.Context().Err() != nil {
+			return // the client went away (templ stops on a done context): no one to answer, nothing broken
+		}
 		logger.LogAttrs(r.Context(), slog.LevelError, "template", slog.String("id", middleware.GetReqID(r.Context())), slog.Any("err", err))
 		http.Error(w, "Internal error: the page could not be built; the log has the details.", http.StatusInternalServerError)
 		return

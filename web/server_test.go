@@ -47,7 +47,7 @@ func (l *logBuffer) String() string {
 }
 
 // testConfig serves the demo plans with the real figure, opening with campus.
-func testConfig(t *testing.T) Config {
+func testConfig(t testing.TB) Config {
 	t.Helper()
 	plans := demoPlans(t)
 	cfg := Config{Plan: plans["campus.yaml"]}
@@ -212,7 +212,8 @@ func campusQuery(t *testing.T) string {
 func TestSecurityHeadersOnEveryResponse(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	q := campusQuery(t)
-	for _, path := range []string{"/", "/?" + q, "/fragment?" + q, "/figure.svg?" + q, "/plan.json?" + q, "/static/app.js", "/nowhere", "/api/v1/nowhere"} {
+	tooLong := "/?" + q + "&pad=" + strings.Repeat("x", MaxQuery)
+	for _, path := range []string{"/", "/?" + q, "/fragment?" + q, "/figure.svg?" + q, "/plan.json?" + q, "/static/app.js", "/nowhere", "/api/v1/nowhere", tooLong} {
 		r := get(t, srv, path)
 		h := r.Header
 		csp := h.Get("Content-Security-Policy")

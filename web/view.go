@@ -65,6 +65,11 @@ type group struct {
 }
 
 type formView struct {
+	// IDPrefix is put before every id of the form ("" on the planner,
+	// "a-" or "b-" for a side of the comparison) and OpName is the query
+	// key its edit buttons send ("op", or "a.op" …).
+	IDPrefix string
+	OpName   string
 	Shape    string // changes whenever the set of controls does
 	General  []note // messages that concern no control on the form
 	Plan     []control
@@ -78,7 +83,11 @@ type formView struct {
 	PartsBox group // partitions as a whole
 	Parts    []partView
 	CanAdd   bool
+	Figure   *figureView // the figure's options; nil where the page has its own box
 }
+
+// id is the form's id for name.
+func (f formView) id(name string) string { return f.IDPrefix + name }
 
 // section is an optional block of the plan (TDD, SS/PBCH, environment):
 // rows of controls, open when it holds a value or a message.
@@ -90,6 +99,8 @@ type section struct {
 	Rows    []sectionRow
 	Open    bool
 	ClearOp string
+	OpName  string // the query key of the clear button
+	ClearID string // the id of the clear button
 }
 
 type sectionRow struct {
@@ -108,10 +119,16 @@ type partView struct {
 	Index       int
 	Group       group
 	Legend      string
+	LegendID    string
 	Controls    []control
 	First, Last bool
 	Label       string // the partition's name, or its number, for button labels
+	IDPrefix    string // as formView's
+	OpName      string
 }
+
+// buttonID is the id of the partition's edit button verb.
+func (p partView) buttonID(verb string) string { return p.IDPrefix + buttonID(verb, p.Index) }
 
 type resultsView struct {
 	Errors, Warnings, Infos int
@@ -121,6 +138,7 @@ type resultsView struct {
 	FigureAlt               string
 	Lattice                 latticeData
 	Downloads               []download
+	Views                   []download // the walkthrough and the comparison of this plan
 	Findings                []findingView
 	Parts                   []partRow
 	Carriers                []carrierRow
@@ -274,7 +292,17 @@ type state struct {
 	plan     grid.Plan
 	inputErr Messages // values that did not parse, and query problems
 	res      grid.Result
+	fig      figureState // the figure's options, read by withFigure
 }
+
+// withFigure returns s with the figure options ff.
+func (s state) withFigure(ff FigureForm) state {
+	s.fig = newFigureState(ff, s.plan.Name)
+	return s
+}
+
+// query is the canonical query of s: the plan's keys, then the figure's.
+func (s state) query() string { return joinQuery(s.form.Query(), s.fig.form.query()) }
 
 // newState reads and computes a form. The RIV fill is applied to the form
 // that is shown, after computing, so that the messages match it.
@@ -288,9 +316,10 @@ func newState(f Form, queryMsgs Messages) state {
 }
 
 // status is the HTTP status of a page of this state: 422 when a value did
-// not parse or the plan has error findings.
+// not parse (of the plan or of the figure's options) or the plan has error
+// findings.
 func (s state) status() int {
-	if len(s.inputErr) > 0 || s.res.HasErrors() {
+	if len(s.inputErr) > 0 || len(s.fig.msgs) > 0 || s.res.HasErrors() {
 		return 422
 	}
 	return 200
@@ -299,7 +328,7 @@ func (s state) status() int {
 // buildView makes the page view of a state. figure is the inline SVG or an
 // error from drawing it.
 func buildView(s state, figure string, figErr error, demos []demoLink) pageView {
-	q := s.form.Query()
+	q := s.query()
 	notes := s.notes()
 	v := pageView{
 		Title:  pageTitle(s.form.Name),
@@ -312,8 +341,19 @@ func buildView(s state, figure string, figErr error, demos []demoLink) pageView 
 		},
 	}
 	v.Form = buildForm(s, notes)
+	fig := buildFigureView(s.fig, s.plan.Name)
+	v.Form.Figure = &fig
+	v.Form.Shape += ";" + fig.shape()
 	v.Results = buildResults(s, q, figure, figErr)
 	return v
+}
+
+// shape names the figure box's set of controls, for formShape.
+func (fv figureView) shape() string {
+	if fv.LayersText != nil {
+		return "fig:text"
+	}
+	return "fig:boxes"
 }
 
 func pageTitle(name string) string {
@@ -371,7 +411,7 @@ func buildForm(s state, notes map[string][]note) formView {
 		c.Options = opts
 		return c
 	}
-	fv := formView{CanAdd: len(f.Parts) < grid.MaxPartitions}
+	fv := formView{CanAdd: len(f.Parts) < grid.MaxPartitions, OpName: keyOp}
 
 	spans := []option{{Value: "", Label: "auto (TDD period or 1)"}}
 	for i := 1; i <= grid.MaxSpanMs; i++ {
@@ -508,6 +548,7 @@ func buildForm(s state, notes map[string][]note) formView {
 		fv.Env.Summary = fmt.Sprintf("the rules favour %d kHz %s CP", fit.Suggested.SCSKHz, fit.Suggested.CP)
 	}
 	for _, sec := range []*section{&fv.TDD, &fv.SSB, &fv.Env} {
+		sec.OpName, sec.ClearID = keyOp, "b-"+sec.ClearOp
 		sec.Open = sec.Summary != "" || hasSerious(sec.Group.Notes)
 		for _, row := range sec.Rows {
 			for _, c := range row.Controls {
@@ -572,8 +613,8 @@ func buildPart(s state, i int, p PartForm, rng grid.Range, take func(string) []n
 	}
 	pv := partView{
 		Index: i, Group: group{ID: partGroupID(i), Notes: take(partGroupID(i))},
-		Legend: fmt.Sprintf("%d · %s", i+1, label), Label: label,
-		First: i == 0, Last: i == len(s.form.Parts)-1,
+		Legend: fmt.Sprintf("%d · %s", i+1, label), Label: label, LegendID: fmt.Sprintf("l-p%d", i),
+		First: i == 0, Last: i == len(s.form.Parts)-1, OpName: keyOp,
 	}
 	var placed *grid.Lattice
 	for k := range s.res.Partitions {
@@ -746,15 +787,25 @@ func buildResults(s state, query string, figure string, figErr error) resultsVie
 		rv.Findings = append(rv.Findings, findingView{Severity: string(f.Severity), Code: f.Code, Text: f.Message,
 			Partition: f.Partition, Control: controlID(f.Field), ControlLabel: fieldLabel(f.Field)})
 	}
+	figFindings := s.fig.findings()
+	rv.Errors += len(figFindings)
+	rv.Findings = append(rv.Findings, figFindings...)
 	// Errors first, then warnings, then notes; in finding order within each.
 	rank := map[string]int{string(grid.Error): 0, string(grid.Warning): 1, string(grid.Info): 2}
 	slices.SortStableFunc(rv.Findings, func(a, b findingView) int { return rank[a.Severity] - rank[b.Severity] })
 
+	look := s.fig.describe()
 	rv.Downloads = []download{
-		{Label: "Figure (SVG)", Href: "/figure.svg?" + withKey(query, "download", "1"), TestID: "download-svg", Hint: "the lattice as drawn"},
+		{Label: "Figure (SVG)", Href: "/figure.svg?" + withKey(query, "download", "1"), TestID: "download-svg", Hint: "the lattice as drawn, " + look + ", with the plan inside: drop it on the page to open it again"},
+		{Label: "Figure (PNG)", Href: "/figure.png?" + withKey(query, "download", "1"), TestID: "download-png", Hint: "the lattice as an image, " + look},
 		{Label: "Plan (JSON)", Href: "/plan.json?" + query, TestID: "download-json", Hint: "a plan file to open again"},
 		{Label: "Plan (YAML)", Href: "/plan.yaml?" + query, TestID: "download-yaml", Hint: "a plan file to open again"},
 		{Label: "Symbols (CSV)", Href: "/symbols.csv?" + query, TestID: "download-csv", Hint: "one row per OFDM symbol"},
+		{Label: "Figure options…", Href: "#" + idFigure, TestID: "figure-options-link", Hint: "width, theme, layers and caption of the figure and its downloads"},
+	}
+	rv.Views = []download{
+		{Label: "Walk through it", Href: "/walk?" + query, TestID: "open-walk", Hint: "the plan step by step, for presenting to a team"},
+		{Label: "Compare with…", Href: "/compare?" + compareQuery(s.form, copyForm(s.form), s.fig.form), TestID: "open-compare", Hint: "this plan as A against an editable copy as B"},
 	}
 
 	for _, p := range doc.Partitions {

@@ -15,7 +15,7 @@ type WalkStep struct {
 	Key       string // stable name of the step: "channel", "grids", "part-0", "align", "tdd", "ssb", "findings"
 	Title     string
 	Narration []string
-	Highlight []string // figure targets: "channel", "guards", "carriers", "part:I", "align", "tdd", "ssb"
+	Highlight []string // figure targets: "channel", "guards", "carriers", "part:I", "align", "longcp", "tdd", "ssb"
 }
 
 // Walkthrough turns a computed plan into the steps an engineer would walk
@@ -127,7 +127,7 @@ func partitionStep(res grid.Result, i int, l grid.Lattice) WalkStep {
 }
 
 func alignStep(res grid.Result) WalkStep {
-	s := WalkStep{Key: "align", Title: "Every numerology meets every half millisecond", Highlight: []string{"align"}}
+	s := WalkStep{Key: "align", Title: "Every numerology meets every half millisecond", Highlight: []string{"align", "longcp"}}
 	var counts []string
 	seen := map[int]bool{}
 	for _, l := range res.Partitions {

@@ -19,16 +19,47 @@ import (
 	"gridloom/web"
 )
 
-// Timeouts and limits of the web server. A plan travels in the query
-// string, so the header limit bounds the largest plan a link can carry.
-const (
-	readHeaderTimeout = 5 * time.Second
-	readTimeout       = 30 * time.Second
-	writeTimeout      = 60 * time.Second
-	idleTimeout       = 2 * time.Minute
-	maxHeaderBytes    = 64 << 10
-	shutdownTimeout   = 10 * time.Second
-)
+// serverLimits are the timeouts and limits of the web server: none is
+// left at its zero value (no limit), so that a client that is slow, silent
+// or oversized cannot hold a connection, a goroutine or memory for long.
+type serverLimits struct {
+	readHeader time.Duration // to read the request line and headers
+	read       time.Duration // to read the whole request, body included
+	write      time.Duration // from the end of the headers to the end of the response
+	idle       time.Duration // a kept-alive connection waiting for its next request
+	// maxHeaderBytes bounds the request line and headers (the server
+	// answers 431 beyond it). A plan travels in the query string; the app
+	// reads at most web.MaxQuery bytes of it and explains its 414 beyond
+	// that, so the limit leaves room for a query of that length and the
+	// usual headers.
+	maxHeaderBytes int
+}
+
+// defaultLimits are the limits gridloom serves with.
+var defaultLimits = serverLimits{
+	readHeader:     5 * time.Second,
+	read:           30 * time.Second,
+	write:          60 * time.Second,
+	idle:           2 * time.Minute,
+	maxHeaderBytes: 2 * web.MaxQuery, // 64 KiB
+}
+
+// shutdownTimeout is how long a shutdown waits for requests in flight.
+const shutdownTimeout = 10 * time.Second
+
+// newHTTPServer returns the server that serves h within lim. The errors the
+// server meets itself (accept failures, malformed connections) go to logger.
+func newHTTPServer(h http.Handler, logger *slog.Logger, lim serverLimits) *http.Server {
+	return &http.Server{
+		Handler:           h,
+		ReadHeaderTimeout: lim.readHeader,
+		ReadTimeout:       lim.read,
+		WriteTimeout:      lim.write,
+		IdleTimeout:       lim.idle,
+		MaxHeaderBytes:    lim.maxHeaderBytes,
+		ErrorLog:          slog.NewLogLogger(logger.Handler(), slog.LevelWarn),
+	}
+}
 
 // runServe starts the web app and serves until ctx ends, then shuts down
 // gracefully and returns nil.
@@ -62,15 +93,7 @@ func runServe(ctx context.Context, args []string, stdout, stderr io.Writer) erro
 	if err != nil {
 		return &exitError{code: 1, msg: listenMessage(*addr, err)}
 	}
-	srv := &http.Server{
-		Handler:           web.NewServer(logger, web.Config{Plan: start, Demos: demos}),
-		ReadHeaderTimeout: readHeaderTimeout,
-		ReadTimeout:       readTimeout,
-		WriteTimeout:      writeTimeout,
-		IdleTimeout:       idleTimeout,
-		MaxHeaderBytes:    maxHeaderBytes,
-		ErrorLog:          slog.NewLogLogger(logger.Handler(), slog.LevelWarn),
-	}
+	srv := newHTTPServer(web.NewServer(logger, web.Config{Plan: start, Demos: demos}), logger, defaultLimits)
 	if !isLoopback(ln.Addr()) {
 		logger.Warn("gridloom has no login: anyone who can reach this address can use the app; listen on 127.0.0.1 to keep it to this machine",
 			"addr", ln.Addr().String())

@@ -1,0 +1,658 @@
+package web
+
+import (
+	"bytes"
+	"context"
+	"encoding/csv"
+	"encoding/json"
+	"encoding/xml"
+	"errors"
+	"fmt"
+	"html"
+	"io"
+	"log/slog"
+	"mime"
+	"net/http"
+	"net/http/httptest"
+	"net/url"
+	"regexp"
+	"strings"
+	"testing"
+
+	"gridloom/grid"
+	"gridloom/grid/planfile"
+)
+
+// Tests of the app under bad input and abuse: bounded queries, refusals
+// that keep what the user typed, and names that reach every output only as
+// text.
+
+func TestQueryLimit(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	q := campusQuery(t)
+	// Keys the form does not know are ignored, so padding keeps the plan.
+	pad := func(n int) string { return q + "&pad=" + strings.Repeat("x", n-len(q)-len("&pad=")) }
+
+	over := pad(MaxQuery + 1)
+	for _, path := range []string{"/", "/fragment", "/figure.svg", "/plan.json", "/symbols.csv", "/static/app.js"} {
+		r := get(t, srv, path+"?"+over)
+		wantStatus(t, r, http.StatusRequestURITooLong)
+		wantContains(t, path+" 414", r.body, fmt.Sprint(MaxQuery+1), "32 KiB", "plan file")
+	}
+	r := post(t, srv, "/api/v1/render?"+over, "application/json", []byte(`{}`))
+	wantStatus(t, r, http.StatusRequestURITooLong)
+	var e apiError
+	if err := json.Unmarshal([]byte(r.body), &e); err != nil || !strings.Contains(e.Error, "32 KiB") {
+		t.Errorf("API 414 body %q: want a JSON error naming the limit", r.body)
+	}
+
+	// At the limit the plan is read as usual.
+	r = get(t, srv, "/?"+pad(MaxQuery))
+	wantStatus(t, r, http.StatusOK)
+	wantContains(t, "page at the limit", r.body, `value="Hillcrest campus 40 MHz"`)
+}
+
+// TestLargestPlanFitsTheLink: a plan with the most partitions the engine
+// places and every value at its longest writes a query well under
+// MaxQuery, as MaxQuery's doc comment says.
+func TestLargestPlanFitsTheLink(t *testing.T) {
+	n := func(x int) *int { return &x }
+	fl := func(x float64) *float64 { return &x }
+	long := func(i int) string { // 64 four-byte characters, unique per i
+		return fmt.Sprintf("%02d", i) + strings.Repeat("𝄞", grid.MaxNameLen-2)
+	}
+	p := grid.Plan{
+		Name: long(99), SpanMs: grid.MaxSpanMs, NumerologyGapKHz: fl(123.456),
+		Carrier: grid.CarrierPlan{Range: "FR1", BandwidthMHz: 100, CenterMHz: fl(3750.123456), ARFCN: n(650000),
+			OffsetToCarrier: map[int]int{15: 2199, 30: 2199, 60: 2199}, CarrierBandwidth: map[int]int{15: 275, 30: 275, 60: 275}},
+		TDD: &grid.TDDPlan{ReferenceSCSKHz: 30,
+			Pattern1: grid.TDDPattern{PeriodMs: 0.625, DownlinkSlots: 10, DownlinkSymbols: 13, UplinkSlots: 10, UplinkSymbols: 13},
+			Pattern2: &grid.TDDPattern{PeriodMs: 0.625, DownlinkSlots: 10, DownlinkSymbols: 13, UplinkSlots: 10, UplinkSymbols: 13}},
+		SSB:         &grid.SSBPlan{SCSKHz: 30, Case: "C", Bitmap: strings.Repeat("10", 32), OffsetToPointA: 2199, KSSB: 23, ScsCommonKHz: 120, PeriodMs: 160},
+		Environment: &grid.EnvironmentPlan{DelaySpreadNs: 1234.5678, DelayProfile: "very-long", SpeedKmh: 999.999, CarrierMHz: 3750.123456},
+	}
+	for i := range grid.MaxPartitions {
+		p.Partitions = append(p.Partitions, grid.PartitionPlan{Name: long(i), SCSKHz: 60, CP: "extended", StartCRB: n(2473),
+			SizePRB: 275, LocationAndBandwidth: n(37949), Direction: "DL", Layers: 8, Modulation: "1024QAM"})
+	}
+	q := FormOf(p).Query()
+	t.Logf("the longest plan within the limits writes a %d-byte query; the limit is %d", len(q), MaxQuery)
+	if len(q) > MaxQuery/2 {
+		t.Errorf("a plan within the limits writes a %d-byte query, more than half of MaxQuery (%d)", len(q), MaxQuery)
+	}
+}
+
+// TestUnreadableQuery: a pair the query parser skips gets a message, and
+// the rest of the plan stays.
+func TestUnreadableQuery(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	q := campusQuery(t)
+	for _, c := range []struct{ what, query, want string }{
+		{"a bad escape", strings.Replace(q, "name=Hillcrest+campus+40+MHz", "name=100%zz", 1), `invalid URL escape &#34;%zz&#34;`},
+		{"a semicolon", q + "&a;b=c", "semicolon"},
+	} {
+		r := get(t, srv, "/?"+c.query)
+		wantStatus(t, r, http.StatusUnprocessableEntity)
+		wantContains(t, c.what+": the form's general notes", noteText(t, r.body, "gl-form"), "Part of the link could not be read", c.want)
+		if got := inputValue(t, r.body, "f-p2-name"); got != "control" {
+			t.Errorf("%s: the third partition's name is %q; the rest of the plan should stay", c.what, got)
+		}
+		d := get(t, srv, "/plan.json?"+c.query)
+		wantStatus(t, d, http.StatusUnprocessableEntity)
+		wantContains(t, c.what+": plan.json", d.body, "query: Part of the link could not be read")
+	}
+}
+
+// TestPageRefusalsKeepInput: values the plan cannot take are refused with
+// 422 and a message naming the field and what it allows, and the page
+// shows them again as typed, escaped.
+func TestPageRefusalsKeepInput(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	q := campusQuery(t)
+	// edit sets one field of the campus form as a user would type it.
+	edit := func(key, val string) string {
+		f := formOf(t, q)
+		sf := fieldPtr(&f, key)
+		if sf == nil {
+			t.Fatalf("no field %s", key)
+		}
+		*sf = val
+		return f.Query()
+	}
+	longName := strings.Repeat("<b>", 21) + `"&` // 65 characters
+	many := q
+	for i := 3; i <= 64; i++ {
+		many += fmt.Sprintf("&p%d.name=x%d&p%d.scs=15&p%d.size=1", i, i, i, i)
+	}
+	cases := []struct {
+		what, query, id string
+		value           string   // the control's value as the page writes it
+		note            []string // in the message beside the control
+	}{
+		{"an over-long name", edit("name", longName), "f-name", html.EscapeString(longName), []string{"65 characters", "at most 64"}},
+		{"NaN", edit("fc", "NaN"), "f-fc", "NaN", []string{"&#34;NaN&#34; is not a number", "MHz"}},
+		{"an infinite size", edit("p1.size", "1e999"), "f-p1-size", "1e999", []string{"not a whole number", "1 to 275"}},
+		{"a size beyond int64", edit("p1.size", "99999999999999999999999"), "f-p1-size", "99999999999999999999999", []string{"far outside", "1 to 275"}},
+		{"a start far below zero", edit("p0.start", "-99999999999"), "f-p0-start", "-99999999999", []string{"far outside", "0 to 2473"}},
+		{"markup in a number", edit("p0.layers", `"><script>alert(1)</script>`), "f-p0-layers", "", []string{html.EscapeString(`"\"><script>alert(1)</script>" is not a whole number`)}},
+	}
+	for _, c := range cases {
+		r := get(t, srv, "/?"+c.query)
+		wantStatus(t, r, http.StatusUnprocessableEntity)
+		if c.value != "" {
+			if got := inputValue(t, r.body, c.id); got != c.value {
+				t.Errorf("%s: %s shows %q, want %q", c.what, c.id, got, c.value)
+			}
+		}
+		wantContains(t, c.what+": the note beside "+c.id, noteText(t, r.body, c.id), c.note...)
+		checkMarkup(t, c.what, r.body, 2)
+	}
+
+	// A span of 99 ms: the select keeps it, marked, beside the limit.
+	r := get(t, srv, "/?"+edit("span", "99"))
+	wantStatus(t, r, http.StatusUnprocessableEntity)
+	wantContains(t, "span 99", r.body, `<option value="99" selected>99 (not allowed)</option>`)
+	wantContains(t, "span 99: the note beside the span", noteText(t, r.body, "f-span"), "spanMs is 99", "1 to 10")
+
+	// A bandwidth beyond int64 in the bandwidth select.
+	r = get(t, srv, "/?"+edit("bw", "99999999999999999999999"))
+	wantStatus(t, r, http.StatusUnprocessableEntity)
+	wantContains(t, "huge bandwidth", r.body, `<option value="99999999999999999999999" selected>`)
+	wantContains(t, "huge bandwidth: the note", noteText(t, r.body, "f-bw"), "far outside")
+
+	// 65 partitions: p64 is beyond the indexes a link may use; the other 64
+	// are shown.
+	r = get(t, srv, "/?"+many)
+	wantStatus(t, r, http.StatusUnprocessableEntity)
+	wantContains(t, "65 partitions: the note on the partitions", noteText(t, r.body, "g-parts"), "p64", "p0 to p63")
+	if got := inputValue(t, r.body, "f-p63-name"); got != "x63" {
+		t.Errorf("65 partitions: p63 shows %q, want x63", got)
+	}
+	if strings.Contains(r.body, `id="f-p64-name"`) {
+		t.Error("65 partitions: p64 has a control")
+	}
+}
+
+// fieldPtr returns the Form field of a query key, plan-level or partition.
+func fieldPtr(f *Form, key string) *string {
+	if i, sub, ok := partKey(key); ok && i < len(f.Parts) {
+		return f.Parts[i].field(sub)
+	}
+	for _, sf := range simpleFields {
+		if sf.key == key {
+			return sf.val(f)
+		}
+	}
+	return nil
+}
+
+// startTag is one start tag of a page, with its attributes decoded.
+type startTag struct {
+	name  string
+	attrs map[string]string
+}
+
+// startTags lists the start tags of an HTML document as a browser's
+// tokenizer finds them: a tag opens at "<" and a letter, and its attribute
+// values are quoted or end at white space. Text and attribute values that
+// the page escaped hold no "<" and no quote of their own, so markup smuggled
+// in through them shows up here as tags and attributes of its own.
+func startTags(body string) []startTag {
+	var out []startTag
+	isSpace := func(c byte) bool { return c == ' ' || c == '\t' || c == '\n' || c == '\r' || c == '\f' }
+	for i := 0; i < len(body); i++ {
+		if body[i] != '<' || i+1 >= len(body) || !isLetter(body[i+1]) {
+			continue
+		}
+		j := i + 1
+		for j < len(body) && !isSpace(body[j]) && body[j] != '>' && body[j] != '/' {
+			j++
+		}
+		tag := startTag{name: strings.ToLower(body[i+1 : j]), attrs: map[string]string{}}
+		for j < len(body) && body[j] != '>' {
+			if isSpace(body[j]) || body[j] == '/' {
+				j++
+				continue
+			}
+			k := j
+			for k < len(body) && !isSpace(body[k]) && body[k] != '=' && body[k] != '>' && body[k] != '/' {
+				k++
+			}
+			name := strings.ToLower(body[j:k])
+			val := ""
+			if k < len(body) && body[k] == '=' {
+				k++
+				if k < len(body) && (body[k] == '"' || body[k] == '\'') {
+					q := body[k]
+					e := strings.IndexByte(body[k+1:], q)
+					if e < 0 {
+						e = len(body) - k - 1
+					}
+					val = body[k+1 : k+1+e]
+					k += e + 2
+				} else {
+					e := k
+					for e < len(body) && !isSpace(body[e]) && body[e] != '>' {
+						e++
+					}
+					val, k = body[k:e], e
+				}
+			}
+			tag.attrs[name] = html.UnescapeString(val)
+			j = k
+		}
+		out = append(out, tag)
+		i = j
+	}
+	return out
+}
+
+func isLetter(c byte) bool { return (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') }
+
+// checkMarkup fails when a page or fragment has markup that the app does
+// not write itself: a script beyond its own, an img beyond its logo, a
+// second svg, an iframe, object or embed, an event handler attribute, a
+// link or source that leaves the app, or a CDATA end outside a CDATA
+// section.
+func checkMarkup(t *testing.T, what, body string, scripts int) {
+	t.Helper()
+	for _, p := range markupProblems(body, scripts) {
+		t.Errorf("%s: %s", what, p)
+	}
+}
+
+// markupProblems lists what checkMarkup finds wrong with body.
+func markupProblems(body string, scripts int) []string {
+	var out []string
+	bad := func(format string, args ...any) { out = append(out, fmt.Sprintf(format, args...)) }
+	count := map[string]int{}
+	for _, tag := range startTags(body) {
+		count[tag.name]++
+		switch tag.name {
+		case "script":
+			if tag.attrs["src"] != "/static/app.js" && (tag.attrs["id"] != "gl-lattice" || tag.attrs["type"] != "application/json") {
+				bad("a script element that is not the app's: %v", tag.attrs)
+			}
+		case "img":
+			if tag.attrs["src"] != "/static/icon.svg" {
+				bad("an img that is not the logo: %v", tag.attrs)
+			}
+		case "iframe", "object", "embed", "base", "frame", "frameset", "applet":
+			bad("a %s element", tag.name)
+		}
+		for name, v := range tag.attrs {
+			switch {
+			case strings.HasPrefix(name, "on"):
+				bad("<%s %s=%q>", tag.name, name, v)
+			case name == "href" || name == "src" || name == "action" || name == "formaction":
+				if !strings.HasPrefix(v, "/") && !strings.HasPrefix(v, "#") || strings.HasPrefix(v, "//") {
+					bad("<%s %s=%q> leaves the app", tag.name, name, v)
+				}
+			}
+		}
+	}
+	if count["script"] != scripts {
+		bad("%d script elements, want %d", count["script"], scripts)
+	}
+	if count["svg"] != 1 {
+		bad("%d svg elements, want the figure only", count["svg"])
+	}
+	if strings.Count(body, "]]>") != strings.Count(body, "<![CDATA[") {
+		bad("a CDATA end outside a CDATA section")
+	}
+	// The lattice data is JSON that cannot end its script element.
+	const open = `<script id="gl-lattice" type="application/json">`
+	if i := strings.Index(body, open); i >= 0 {
+		data := body[i+len(open):]
+		data = data[:strings.Index(data, "</script>")]
+		if strings.ContainsAny(data, "<>") {
+			bad("the lattice data holds < or >: %.200s", data)
+		}
+	}
+	return out
+}
+
+// The hostile names of the escaping tests: markup, attribute breakers,
+// CDATA ends, entities, control characters. Each is at most 64 characters.
+const (
+	evilPlan = `<script>alert(1)</script>`
+	evilImg  = `<img src=x onerror=alert(1)>`
+	evilAttr = `"><svg onload=alert(1)>`
+	evilMix  = "]]><!-- & 'q' \a\x01 &amp; </title>"
+)
+
+// evilTexts are the parts of the hostile names that every figure shows as
+// text: the renderer may replace control characters.
+var evilTexts = []string{evilPlan, evilImg, evilAttr, "]]><!-- & 'q'"}
+
+// hostilePlan is the campus plan with hostile names.
+func hostilePlan(t *testing.T) grid.Plan {
+	t.Helper()
+	p := testConfig(t).Plan
+	p.Name = evilPlan
+	p.Partitions = append([]grid.PartitionPlan(nil), p.Partitions...)
+	for i, name := range []string{evilImg, evilAttr, evilMix} {
+		p.Partitions[i].Name = name
+	}
+	if res := grid.Compute(p); res.HasErrors() {
+		t.Fatalf("the hostile plan has errors: %v", res.Findings)
+	}
+	return p
+}
+
+func TestNamesAreTextInThePage(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	p := hostilePlan(t)
+	q := FormOf(p).Query()
+	for _, c := range []struct {
+		path    string
+		scripts int
+	}{{"/", 2}, {"/fragment", 1}} {
+		r := get(t, srv, c.path+"?"+q)
+		wantStatus(t, r, http.StatusOK)
+		checkMarkup(t, c.path, r.body, c.scripts)
+		if got := inputValue(t, r.body, "f-name"); html.UnescapeString(got) != evilPlan {
+			t.Errorf("%s: the plan name shows as %q", c.path, got)
+		}
+		for i, part := range p.Partitions {
+			if got := inputValue(t, r.body, partControlID(i, "name")); got != html.EscapeString(part.Name) {
+				t.Errorf("%s: partition %d's name is written %q, want %q", c.path, i, got, html.EscapeString(part.Name))
+			}
+		}
+		if c.path == "/" {
+			wantContains(t, "page title", r.body, "<title>"+html.EscapeString(evilPlan)+" · gridloom</title>")
+		}
+		// The lattice data gives the names back exactly.
+		const open = `<script id="gl-lattice" type="application/json">`
+		data := r.body[strings.Index(r.body, open)+len(open):]
+		var lat latticeData
+		if err := json.Unmarshal([]byte(data[:strings.Index(data, "</script>")]), &lat); err != nil {
+			t.Fatalf("%s: lattice data: %v", c.path, err)
+		}
+		for _, lp := range lat.Parts {
+			if lp.Name != p.Partitions[lp.Plan].Name {
+				t.Errorf("%s: lattice name %q, want %q", c.path, lp.Name, p.Partitions[lp.Plan].Name)
+			}
+		}
+		// The inline figure is well-formed and has the names only as text.
+		svg := r.body[strings.Index(r.body, "<svg") : strings.LastIndex(r.body, "</svg>")+len("</svg>")]
+		checkSVG(t, c.path+" inline figure", []byte(svg), evilTexts...)
+	}
+}
+
+func TestNamesAreTextInTheDownloads(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	p := hostilePlan(t)
+	q := FormOf(p).Query()
+
+	for _, path := range []string{"/figure.svg?" + q, "/figure.svg?" + q + "&download=1"} {
+		r := get(t, srv, path)
+		wantStatus(t, r, http.StatusOK)
+		checkSVG(t, "GET /figure.svg", []byte(r.body), evilTexts...)
+	}
+	body, _ := planfile.EncodeJSON(p)
+	r := post(t, srv, "/api/v1/figure", "application/json", body)
+	wantStatus(t, r, http.StatusOK)
+	checkSVG(t, "POST /api/v1/figure", []byte(r.body), evilTexts...)
+
+	for _, c := range []struct {
+		path   string
+		decode func([]byte) (grid.Plan, error)
+	}{{"/plan.json", planfile.DecodeJSON}, {"/plan.yaml", planfile.DecodeYAML}} {
+		r := get(t, srv, c.path+"?"+q)
+		wantStatus(t, r, http.StatusOK)
+		got, err := c.decode([]byte(r.body))
+		if err != nil {
+			t.Fatalf("%s: %v", c.path, err)
+		}
+		if got.Name != p.Name {
+			t.Errorf("%s: plan name %q, want %q", c.path, got.Name, p.Name)
+		}
+		for i := range p.Partitions {
+			if got.Partitions[i].Name != p.Partitions[i].Name {
+				t.Errorf("%s: partition %d name %q, want %q", c.path, i, got.Partitions[i].Name, p.Partitions[i].Name)
+			}
+		}
+	}
+	r = post(t, srv, "/api/v1/render", "application/json", body)
+	wantStatus(t, r, http.StatusOK)
+	var doc grid.JSONResult
+	if err := json.Unmarshal([]byte(r.body), &doc); err != nil || doc.Plan.Name != evilPlan {
+		t.Errorf("API document: %v, plan name %q", err, doc.Plan.Name)
+	}
+	for _, part := range doc.Partitions {
+		if !strings.Contains(evilImg+evilAttr+evilMix, part.Name) {
+			t.Errorf("API document: partition name %q is none of the plan's", part.Name)
+		}
+	}
+
+	r = get(t, srv, "/symbols.csv?"+q)
+	wantStatus(t, r, http.StatusOK)
+	rows, err := csv.NewReader(strings.NewReader(r.body)).ReadAll()
+	if err != nil {
+		t.Fatalf("symbols.csv: %v", err)
+	}
+	seen := map[string]bool{}
+	for _, row := range rows[1:] {
+		seen[row[0]] = true
+	}
+	for _, part := range p.Partitions {
+		if !seen[part.Name] {
+			t.Errorf("symbols.csv: no rows for %q; partitions seen %v", part.Name, seen)
+		}
+	}
+}
+
+// TestCSVFormulasNeutralised: a name a spreadsheet would read as a formula
+// starts its cell with an apostrophe.
+func TestCSVFormulasNeutralised(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	names := []string{`=HYPERLINK("http://x","y")`, "+1+1", "-2+3", "@SUM(A1)", "\t=1", "\r=1", "plain"}
+	var b strings.Builder
+	b.WriteString("bw=40")
+	for i, n := range names {
+		fmt.Fprintf(&b, "&p%d.name=%s&p%d.scs=15&p%d.start=%d&p%d.size=10", i, url.QueryEscape(n), i, i, i*20, i)
+	}
+	r := get(t, srv, "/symbols.csv?"+b.String())
+	wantStatus(t, r, http.StatusOK)
+	rows, err := csv.NewReader(strings.NewReader(r.body)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	cells := map[string]bool{}
+	for _, row := range rows[1:] {
+		cells[row[0]] = true
+	}
+	for _, n := range names {
+		want := "'" + n
+		if n == "plain" {
+			want = n
+		}
+		if !cells[want] {
+			t.Errorf("name %q: no cell %q; cells %v", n, want, cells)
+		}
+	}
+	for c := range cells {
+		if strings.ContainsAny(c[:1], "=+-@\t\r") {
+			t.Errorf("cell %q starts a formula", c)
+		}
+	}
+}
+
+func TestDownloadFileNamesHostile(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	q := campusQuery(t)
+	safe := regexp.MustCompile(`^[a-z0-9]+(-[a-z0-9]+)*\.(svg|json|yaml|csv)$`)
+	for _, name := range []string{
+		"../../etc/passwd", `..\..\windows\system32`, `a"b'c;d=e`, "line\r\nSet-Cookie: x=1",
+		"Été ☃ 2026", "日本語の計画", "\u202egpj.exe", "", "CON", "nul", "Com1", "LPT9", ".", "-", "a/b\\c",
+	} {
+		v := mustQuery(t, q)
+		v.Set("name", name)
+		nq := v.Encode()
+		for _, c := range []struct{ path, ext string }{
+			{"/figure.svg?download=1&", ".svg"}, {"/plan.json?", ".json"}, {"/plan.yaml?", ".yaml"}, {"/symbols.csv?", ".csv"},
+		} {
+			r := get(t, srv, c.path+nq)
+			if r.StatusCode != http.StatusOK && r.StatusCode != http.StatusUnprocessableEntity {
+				t.Errorf("name %q, %s: status %d", name, c.path, r.StatusCode)
+				continue
+			}
+			if r.StatusCode != http.StatusOK {
+				continue // an over-long name is no download; the page says why
+			}
+			raw := r.Header.Get("Content-Disposition")
+			disp, params, err := mime.ParseMediaType(raw)
+			file := params["filename"]
+			if err != nil || disp != "attachment" || !safe.MatchString(file) || !strings.HasSuffix(file, c.ext) || strings.ContainsAny(raw, "\r\n") {
+				t.Errorf("name %q, %s: Content-Disposition %q (%v): want an attachment with a plain %s file name", name, c.path, raw, err, c.ext)
+			}
+			if base, _, _ := strings.Cut(file, "."); reservedFileName(base) {
+				t.Errorf("name %q: file name %q is a device name on Windows", name, file)
+			}
+		}
+	}
+}
+
+// reservedFileName reports whether Windows reserves base as a device name.
+func reservedFileName(base string) bool {
+	return regexp.MustCompile(`^(?i)(con|prn|aux|nul|com[0-9]|lpt[0-9])$`).MatchString(base)
+}
+
+// svgColour is every value a colour attribute of the figure may have: a
+// colour written by the renderer, none, or a reference to its own pattern.
+var (
+	svgColour = regexp.MustCompile(`^(none|currentColor|#[0-9a-fA-F]{3,8}|url\(#[a-z0-9-]+\))$`)
+	svgClass  = regexp.MustCompile(`^[a-z0-9 -]*$`)
+	svgID     = regexp.MustCompile(`^[a-z0-9-]+$`)
+)
+
+// checkSVG fails unless doc is a well-formed SVG document whose elements
+// and attributes are the renderer's own (no script or foreign content, no
+// event handler, no link; colours, classes and ids only of the renderer's
+// patterns) and whose text holds each of texts.
+func checkSVG(t *testing.T, what string, doc []byte, texts ...string) {
+	t.Helper()
+	for _, p := range svgProblems(doc, texts...) {
+		t.Errorf("%s: %s", what, p)
+	}
+}
+
+// svgProblems lists what checkSVG finds wrong with doc, texts included.
+func svgProblems(doc []byte, texts ...string) []string {
+	var out []string
+	bad := func(format string, args ...any) { out = append(out, fmt.Sprintf(format, args...)) }
+	if err := wellFormedSVG(doc); err != nil {
+		return []string{err.Error()}
+	}
+	var text strings.Builder
+	d := xml.NewDecoder(bytes.NewReader(doc))
+	for {
+		tok, err := d.Token()
+		if errors.Is(err, io.EOF) {
+			break
+		}
+		if err != nil {
+			return append(out, err.Error())
+		}
+		switch tok := tok.(type) {
+		case xml.StartElement:
+			switch tok.Name.Local {
+			case "script", "foreignObject", "iframe", "img", "image", "a", "use", "animate", "set", "handler", "object", "embed":
+				bad("a <%s> element", tok.Name.Local)
+			}
+			for _, a := range tok.Attr {
+				name, v := a.Name.Local, a.Value
+				switch {
+				case strings.HasPrefix(strings.ToLower(name), "on"), name == "href":
+					bad("<%s %s=%q>", tok.Name.Local, name, v)
+				case name == "fill" || name == "stroke" || name == "color" || name == "stop-color" || name == "flood-color":
+					if !svgColour.MatchString(v) {
+						bad("<%s %s=%q> is not a colour of the renderer", tok.Name.Local, name, v)
+					}
+				case name == "class" && !svgClass.MatchString(v), name == "id" && !svgID.MatchString(v):
+					bad("<%s %s=%q>", tok.Name.Local, name, v)
+				case name == "style" && strings.ContainsAny(v, "<>\"'"):
+					bad("<%s style=%q>", tok.Name.Local, v)
+				}
+			}
+		case xml.CharData:
+			text.Write(tok)
+		}
+	}
+	for _, want := range texts {
+		if !strings.Contains(text.String(), want) {
+			bad("the text does not hold %q", want)
+		}
+	}
+	return out
+}
+
+// TestFigureLookIsNotUserSet: the web sets no theme, layer, colour or
+// style of the figure, so query keys that sound like them change nothing.
+func TestFigureLookIsNotUserSet(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	q := campusQuery(t)
+	want := get(t, srv, "/figure.svg?"+q)
+	wantStatus(t, want, http.StatusOK)
+	extra := url.Values{
+		"theme": {"print"}, "layers": {"none"}, "style": {"fill:red"}, "color": {"#f00"}, "fill": {"url(javascript:alert(1))"},
+		"css": {"</style><script>alert(1)</script>"}, "width": {"99999"}, "caption": {"<b>x</b>"},
+	}
+	got := get(t, srv, "/figure.svg?"+q+"&"+extra.Encode())
+	if got.body != want.body {
+		t.Error("look keys in the query changed the figure")
+	}
+}
+
+// TestCheckersSeeInjection: the markup and SVG checks above are not blind.
+func TestCheckersSeeInjection(t *testing.T) {
+	page := `<html><script src="/static/app.js"></script><input value="&lt;img src=x onerror=alert(1)&gt;" title='a "b"'><svg></svg>`
+	if p := markupProblems(page, 1); len(p) > 0 {
+		t.Errorf("a clean page: %v", p)
+	}
+	for _, inj := range []string{
+		`<img src=x onerror=alert(1)>`, `"><svg onload=alert(1)>`, `<script>alert(1)</script>`, `<a href="javascript:alert(1)">`,
+		`<a href=//evil.example>`, `<iframe src="/x">`, `<div ONCLICK='x'>`, `]]>`,
+	} {
+		if p := markupProblems(strings.Replace(page, "<svg>", inj+"<svg>", 1), 1); len(p) == 0 {
+			t.Errorf("markupProblems sees nothing wrong with %q", inj)
+		}
+	}
+	svg := `<svg xmlns="http://www.w3.org/2000/svg"><title>&lt;b&gt;</title><path fill="#fff" class="gl-x"/></svg>`
+	if p := svgProblems([]byte(svg), "<b>"); len(p) > 0 {
+		t.Errorf("a clean figure: %v", p)
+	}
+	for _, inj := range []string{
+		`<script>alert(1)</script>`, `<g onload="alert(1)"/>`, `<path fill="red;x:expression(1)"/>`, `<path fill="url(javascript:x)"/>`,
+		`<a href="x"/>`, `<foreignObject/>`, `<path class="a&quot;b"/>`, `<text>` + "" + `</text>`, `<g>`,
+	} {
+		if p := svgProblems([]byte(strings.Replace(svg, "</svg>", inj+"</svg>", 1)), "<b>"); len(p) == 0 {
+			t.Errorf("svgProblems sees nothing wrong with %q", inj)
+		}
+	}
+	if p := svgProblems([]byte(svg), "missing"); len(p) == 0 {
+		t.Error("svgProblems does not miss a text")
+	}
+}
+
+// TestClientGoneIsNoServerError: a client that leaves before its page is
+// built is no server error: nothing is sent, nothing logged as an error,
+// and the access log says 499.
+func TestClientGoneIsNoServerError(t *testing.T) {
+	logs := &logBuffer{}
+	h := NewServer(slog.New(slog.NewTextHandler(logs, nil)), testConfig(t))
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	q := campusQuery(t)
+	for _, path := range []string{"/?" + q, "/fragment?" + q} {
+		w := httptest.NewRecorder()
+		h.ServeHTTP(w, httptest.NewRequest(http.MethodGet, path, nil).WithContext(ctx))
+		if w.Body.Len() > 0 {
+			t.Errorf("GET %.20s… for a client gone: %d, %d bytes; want nothing sent", path, w.Code, w.Body.Len())
+		}
+	}
+	if s := logs.String(); strings.Contains(s, "level=ERROR") || strings.Count(s, "status=499") != 2 {
+		t.Errorf("log:\n%s\nwant no error and two requests with status 499", s)
+	}
+}
