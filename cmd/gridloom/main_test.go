@@ -9,8 +9,12 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
+
+	"gridloom/grid/planfile"
+	"gridloom/render"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files in testdata/golden")
@@ -145,7 +149,10 @@ func TestCheckExitCodes(t *testing.T) {
 		{"undecodable", `{"carrier":`, []string{"check", "-"}, 2, "not valid JSON"},
 		{"no plan argument", "", []string{"check"}, 2, "exactly one plan"},
 		{"unknown command", "", []string{"draw"}, 2, "unknown command"},
-		{"unknown format", "", []string{"render", "-format", "pdf", "x.yaml"}, 2, "svg, json or csv"},
+		{"unknown format", "", []string{"render", "-format", "pdf", "x.yaml"}, 2, "svg, png, json or csv"},
+		{"unknown theme", "", []string{"render", "-theme", "dark", "x.yaml"}, 2, "light or print"},
+		{"unknown layer", "", []string{"render", "-layers", "grid", "x.yaml"}, 2, "lattice"},
+		{"width out of range", "", []string{"render", "-width", "100", "../../testdata/plans/campus.yaml"}, 2, "640"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			out, errOut, code := runCLI(t, c.stdin, c.args...)
@@ -212,5 +219,42 @@ func TestExitErrorMessage(t *testing.T) {
 	var buf bytes.Buffer
 	if code := exitCode(errors.New("boom"), &buf); code != 1 || !strings.Contains(buf.String(), "gridloom: boom") {
 		t.Errorf("plain error: exit %d, %q", code, buf.String())
+	}
+}
+
+// The figure carries its plan: the plan read back from the SVG's metadata
+// decodes to the plan the figure was drawn from. PNG output is a PNG.
+func TestRenderFigureFormats(t *testing.T) {
+	dir := t.TempDir()
+	src := "../../testdata/plans/stadium.yaml"
+	svgPath, pngPath := filepath.Join(dir, "f.svg"), filepath.Join(dir, "f.png")
+	for _, c := range [][]string{
+		{"render", "-format", "svg", "-theme", "print", "-layers", "lattice,tdd,ssb", "-o", svgPath, src},
+		{"render", "-format", "png", "-width", "800", "-o", pngPath, src},
+	} {
+		if _, errOut, code := runCLI(t, "", c...); code != 0 {
+			t.Fatalf("%v: exit %d: %s", c, code, errOut)
+		}
+	}
+	svg, _ := os.ReadFile(svgPath)
+	embedded, err := render.PlanFromSVG(svg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fromSVG, err := planfile.Decode(embedded)
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, _ := os.ReadFile(src)
+	want, _ := planfile.Decode(data)
+	if !reflect.DeepEqual(fromSVG, want) {
+		t.Errorf("the plan in the figure differs from the plan file:\n%s", embedded)
+	}
+	if !bytes.Contains(svg, []byte("Northgate arena")) {
+		t.Error("the figure has no caption with the plan's name")
+	}
+	png, _ := os.ReadFile(pngPath)
+	if !bytes.HasPrefix(png, []byte("\x89PNG\r\n\x1a\n")) {
+		t.Errorf("-format png wrote %d bytes that are not a PNG", len(png))
 	}
 }

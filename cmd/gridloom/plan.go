@@ -7,6 +7,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"unicode/utf8"
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
@@ -123,15 +124,28 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 }
 
 func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
-	fs := newFlags("render", "[-format svg|json|csv] [-o FILE] PLAN", stderr)
-	format := fs.String("format", "svg", "output `format`: svg (the figure), json (lattice, summary and findings) or csv (one row per symbol)")
+	fs := newFlags("render", "[-format svg|png|json|csv] [-o FILE] [figure flags] PLAN", stderr)
+	format := fs.String("format", "svg", "output `format`: svg or png (the figure), json (lattice, summary and findings) or csv (one row per symbol)")
 	out := fs.String("o", "-", "write to `FILE` instead of standard output")
-	width := fs.Int("width", 0, "figure width in px (svg only; 0 for the default)")
+	width := fs.Int("width", 0, fmt.Sprintf("figure width in px, %d to %d (0 for %d)", render.MinWidth, render.MaxWidth, render.DefaultWidth))
+	theme := fs.String("theme", "light", "figure `theme`: light, or print (greyscale-safe)")
+	layers := fs.String("layers", "all", "figure `layers` to show, a comma list of "+strings.Join(render.LayerNames(), ", ")+", or all or none")
+	caption := fs.String("caption", "", "a caption `line` under the figure; empty for the plan's name, - for none")
 	if err := parseFlags(fs, args); err != nil {
 		return err
 	}
-	if *format != "svg" && *format != "json" && *format != "csv" {
-		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use svg, json or csv", *format)}
+	switch *format {
+	case "svg", "png", "json", "csv":
+	default:
+		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use svg, png, json or csv", *format)}
+	}
+	opt := render.Options{Width: *width}
+	var err error
+	if opt.Theme, err = render.ParseTheme(*theme); err != nil {
+		return &exitError{code: exitBadInput, msg: "-theme: " + err.Error()}
+	}
+	if opt.Layers, err = render.ParseLayers(*layers); err != nil {
+		return &exitError{code: exitBadInput, msg: "-" + err.Error()}
 	}
 	path, err := onePlanArg(fs)
 	if err != nil {
@@ -142,6 +156,17 @@ func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 		return err
 	}
 	res := grid.Compute(p)
+	switch c := strings.TrimSpace(*caption); c {
+	case "-":
+	case "":
+		opt.Caption = truncateRunes(strings.TrimSpace(p.Name), render.MaxCaption)
+	default:
+		opt.Caption = c
+	}
+	// The figure carries the plan, so a saved figure opens again as the plan.
+	if opt.Plan, err = planfile.EncodeJSON(p); err != nil {
+		return err
+	}
 
 	w := stdout
 	var file *os.File
@@ -153,7 +178,9 @@ func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	}
 	switch *format {
 	case "svg":
-		err = render.Figure(w, res, render.Options{Width: *width})
+		err = render.Figure(w, res, opt)
+	case "png":
+		err = render.FigurePNG(w, res, opt)
 	case "csv":
 		err = render.SymbolCSV(w, res)
 	case "json":
@@ -165,7 +192,7 @@ func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 		}
 	}
 	if err != nil {
-		return err
+		return &exitError{code: exitBadInput, msg: err.Error()}
 	}
 	for _, f := range res.Findings {
 		if f.Severity != grid.Info {
@@ -176,4 +203,12 @@ func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 		return &exitError{code: exitPlanErrors, msg: "the plan has errors; the output shows what could be placed"}
 	}
 	return nil
+}
+
+// truncateRunes cuts s to at most n characters.
+func truncateRunes(s string, n int) string {
+	if utf8.RuneCountInString(s) <= n {
+		return s
+	}
+	return string([]rune(s)[:n])
 }
