@@ -116,8 +116,10 @@ func (l Lattice) Width() Hz { return l.High - l.Low }
 // Symbols lists every OFDM symbol of the partition over the span.
 func (l Lattice) Symbols() []Symbol {
 	out := make([]Symbol, l.SymbolCount())
+	w := walkSymbols(l.Numerology)
 	for k := range out {
-		out[k] = l.Numerology.SymbolAt(k)
+		out[k] = w.sym
+		w.next()
 	}
 	return out
 }
@@ -702,7 +704,13 @@ func applyTDD(fs *findings, t TDD, refKHz int, res *Result) {
 		if l.Direction == UL {
 			want = Uplink
 		}
-		l.Share = t.Share(*l, want)
+		// The directions of a symbol depend on its time alone, so the span's
+		// first period gives the share whenever the span holds a period.
+		if per := t.symbolsPerPeriod(l.Numerology); per <= len(dirs) {
+			l.Share = shareOf(dirs[:per], want)
+		} else {
+			l.Share = t.Share(*l, want)
+		}
 		l.PeakMbps *= l.Share
 	}
 }

@@ -170,3 +170,54 @@ func (n Numerology) Slot(s int) (start, end Tc) {
 	last := n.SymbolAt(s*perSlot + perSlot - 1)
 	return first.Start, last.End()
 }
+
+// symbolWalk steps through the symbols of a numerology in time order,
+// without the divisions of SymbolAt: each symbol starts where the one
+// before it ends (TS 38.211 5.3.1) and every half subframe holds whole
+// symbols, so the sum is exact. After k calls of next, sym is SymbolAt(k).
+type symbolWalk struct {
+	sym          Symbol
+	k            int
+	l            int // index of sym in its subframe
+	perSubframe  int
+	perSlot      int
+	half         int // l of the second half subframe's first symbol; 0 with extended CP
+	nu, cp, long Tc  // useful part, CP, and the longer CP of l = 0 and l = half
+}
+
+func walkSymbols(n Numerology) symbolWalk {
+	w := symbolWalk{sym: n.SymbolAt(0), perSubframe: n.SymbolsPerSubframe(), perSlot: n.SymbolsPerSlot(),
+		nu: n.UsefulTc(), cp: n.CPTc(1), long: n.CPTc(0)}
+	if n.CP == NormalCP {
+		w.half = 7 << n.Mu
+	}
+	return w
+}
+
+// next moves to the following symbol.
+func (w *symbolWalk) next() {
+	start := w.sym.End()
+	w.k++
+	w.l++
+	if w.l == w.perSubframe {
+		w.l = 0
+	}
+	w.sym.Symbol++
+	if w.sym.Symbol == w.perSlot {
+		w.sym.Symbol = 0
+		w.sym.Slot++
+	}
+	cp := w.cpAt(w.l)
+	w.sym.Start, w.sym.CP, w.sym.Length = start, cp, w.nu+cp
+}
+
+// cpAt is the cyclic prefix of symbol l of a subframe.
+func (w *symbolWalk) cpAt(l int) Tc {
+	if l == 0 || l == w.half {
+		return w.long
+	}
+	return w.cp
+}
+
+// lengthAt is the length of symbol l of a subframe, CP included.
+func (w *symbolWalk) lengthAt(l int) Tc { return w.nu + w.cpAt(l) }

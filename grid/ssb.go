@@ -249,15 +249,28 @@ func checkSSBOverlaps(fs *findings, s SSB, ls []Lattice, tdd *TDD) {
 	if tdd == nil {
 		return
 	}
-	for _, b := range s.Blocks {
-		for k := 0; ; k++ {
-			rs := tdd.Reference.SymbolAt(k)
-			if rs.Start >= b.End {
-				break
+	// The blocks are in time order, so one walk through the reference
+	// symbols serves them all: a symbol that ends before a block starts
+	// ends before every later block starts too.
+	ref, r := walkSymbols(tdd.Reference), 0
+	for i, b := range s.Blocks {
+		if i > 0 && b.Start < s.Blocks[i-1].Start {
+			ref, r = walkSymbols(tdd.Reference), 0 // out of order: start again
+		}
+		for ref.sym.End() <= b.Start {
+			ref.next()
+			if r++; r == len(tdd.RefDirs) {
+				r = 0
 			}
-			if rs.End() > b.Start && tdd.refDir(k) == Uplink {
+		}
+		for rs, k := ref, r; rs.sym.Start < b.End; {
+			if tdd.RefDirs[k] == Uplink {
 				fs.add(Warning, CodeSSB, "", "ssb.bitmap", "SS/PBCH block %d (slot %d, symbol %d at %d kHz) falls on uplink symbols of the TDD pattern; leave it out of ssb.bitmap or move the pattern.", b.Index, b.Slot, b.Symbol, s.Numerology.SCSKHz())
 				break
+			}
+			rs.next()
+			if k++; k == len(tdd.RefDirs) {
+				k = 0
 			}
 		}
 	}

@@ -168,9 +168,6 @@ func joinFloats(v []float64) string {
 	return joinOr(s)
 }
 
-// refDir is the direction at reference symbol index k of the span.
-func (t TDD) refDir(k int) SymbolDir { return t.RefDirs[k%len(t.RefDirs)] }
-
 // Directions maps the pattern onto a partition's symbols by time: a symbol
 // takes the direction of the reference symbols it overlaps. It returns one
 // direction per symbol of the span and the indices of symbols that straddle
@@ -180,18 +177,33 @@ func (t TDD) refDir(k int) SymbolDir { return t.RefDirs[k%len(t.RefDirs)] }
 func (t TDD) Directions(l Lattice) (dirs []SymbolDir, straddles []int) {
 	n := l.SymbolCount()
 	dirs = make([]SymbolDir, n)
-	ref := t.Reference
-	// Walk the reference symbols alongside the partition's symbols.
-	k := 0
+	period := len(t.RefDirs)
+	// Walk the reference symbols alongside the partition's symbols: ref is
+	// the first reference symbol that ends after the partition's symbol
+	// starts, and at index r of the period.
+	sym, ref := walkSymbols(l.Numerology), walkSymbols(t.Reference)
+	r := 0
 	for i := range n {
-		s := l.Numerology.SymbolAt(i)
-		for ref.SymbolAt(k).End() <= s.Start {
-			k++
+		start, end := sym.sym.Start, sym.sym.End()
+		for ref.sym.End() <= start {
+			ref.next()
+			if r++; r == period {
+				r = 0
+			}
 		}
-		d := t.refDir(k)
+		d := t.RefDirs[r]
 		hasD, hasU := d == Downlink, d == Uplink
-		for j := k + 1; ref.SymbolAt(j).Start < s.End(); j++ {
-			dj := t.refDir(j)
+		// The reference symbols after ref that start before the symbol ends.
+		next, lj, rj := ref.sym.End(), ref.l, r
+		for next < end {
+			if lj++; lj == ref.perSubframe {
+				lj = 0
+			}
+			if rj++; rj == period {
+				rj = 0
+			}
+			next += ref.lengthAt(lj)
+			dj := t.RefDirs[rj]
 			hasD = hasD || dj == Downlink
 			hasU = hasU || dj == Uplink
 			if dj != d {
@@ -202,6 +214,7 @@ func (t TDD) Directions(l Lattice) (dirs []SymbolDir, straddles []int) {
 		if hasD && hasU {
 			straddles = append(straddles, i)
 		}
+		sym.next()
 	}
 	return dirs, straddles
 }
@@ -209,17 +222,26 @@ func (t TDD) Directions(l Lattice) (dirs []SymbolDir, straddles []int) {
 // Share returns the fraction of a partition's symbols in one TDD period
 // that go in direction d.
 func (t TDD) Share(l Lattice, d SymbolDir) float64 {
-	per := int(t.Period * Tc(l.Numerology.SymbolsPerSubframe()) / TcPerSubframe)
 	one := l
 	one.SpanMs = int((t.Period + TcPerSubframe - 1) / TcPerSubframe)
 	dirs, _ := t.Directions(one)
+	return shareOf(dirs[:t.symbolsPerPeriod(l.Numerology)], d)
+}
+
+// symbolsPerPeriod is the number of symbols of n in one period.
+func (t TDD) symbolsPerPeriod(n Numerology) int {
+	return int(t.Period * Tc(n.SymbolsPerSubframe()) / TcPerSubframe)
+}
+
+// shareOf is the fraction of dirs that are d.
+func shareOf(dirs []SymbolDir, d SymbolDir) float64 {
 	count := 0
-	for _, x := range dirs[:per] {
+	for _, x := range dirs {
 		if x == d {
 			count++
 		}
 	}
-	return float64(count) / float64(per)
+	return float64(count) / float64(len(dirs))
 }
 
 // SlotString writes each reference slot of one period as D, U or S.
