@@ -236,9 +236,25 @@ func (p *pathData) String() string {
 	return string(b)
 }
 
-// appendNum writes a coordinate already rounded by round10.
+// appendNum writes a coordinate already rounded by round10 as strconv's
+// shortest decimal would, which for a whole number of tenths is its whole
+// part and at most one digit after the point, without strconv's general
+// (and, for the figure's thousands of numbers, costly) float formatting.
 func appendNum(b []byte, v float64) []byte {
-	return strconv.AppendFloat(b, v, 'f', -1, 64)
+	t := math.Round(v * 10)
+	if t/10 != v || math.Abs(t) >= 1<<52 {
+		return strconv.AppendFloat(b, v, 'f', -1, 64)
+	}
+	n := int64(t)
+	if n < 0 {
+		b = append(b, '-')
+		n = -n
+	}
+	b = strconv.AppendInt(b, n/10, 10)
+	if d := n % 10; d != 0 {
+		b = append(b, '.', byte('0'+d))
+	}
+	return b
 }
 
 // width formats a stroke width to a hundredth of a pixel.

@@ -11,11 +11,12 @@ import (
 // addRoutes is the app's whole surface. Every page route takes the plan in
 // its query string (see Form); the API takes a plan file as the body.
 func addRoutes(r *chi.Mux, logger *slog.Logger, cfg Config) {
+	figures := newResponseCache(maxCachedFigures, maxCachedBytes)
 	r.Use(middleware.RequestID)
 	r.Use(accessLog(logger))
 	r.Use(recoverPanics(logger))
 	r.Use(securityHeaders)
-	r.Use(middleware.Compress(5, compressible...))
+	r.Use(middleware.Compress(compressLevel, compressible...))
 	r.Use(limitQuery)
 	r.Use(limitBody)
 	r.Use(middleware.GetHead)
@@ -26,7 +27,7 @@ func addRoutes(r *chi.Mux, logger *slog.Logger, cfg Config) {
 	r.Get("/", handlePage(logger, cfg))                                                 // the planner; an empty query opens the startup plan
 	r.Get("/fragment", handleFragment(logger, cfg))                                     // the planner's workspace alone, for live updates
 	r.Get("/demo/{name}", handleDemo(cfg))                                              // redirect to a demo plan
-	r.Get("/figure.svg", handleFigure(logger, cfg))                                     // the figure, with the plan in its metadata; download=1 sends it as a file
+	r.Method(http.MethodGet, "/figure.svg", cached(figures, handleFigure(logger, cfg))) // the figure, with the plan in its metadata; download=1 sends it as a file
 	r.Get("/figure.png", handleFigurePNG(logger, cfg))                                  // the figure as a PNG image; download=1 sends it as a file
 	r.Get("/walk", handleWalk(logger, cfg))                                             // the plan step by step for a team: step=, view=projector or print
 	r.Get("/compare", handleCompare(logger, cfg))                                       // two plans side by side on shared scales, a. and b. keys

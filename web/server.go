@@ -22,6 +22,7 @@ package web
 import (
 	"bytes"
 	"cmp"
+	"compress/gzip"
 	"crypto/sha256"
 	"encoding/hex"
 	"fmt"
@@ -110,6 +111,20 @@ func figurePolicy(styleSources []string) string {
 	}
 	return p
 }
+
+// compressLevel is the gzip level of every compressed response: the
+// fastest, since the app is served on the loopback interface, where a byte
+// costs less than the time to save it (level 5 took two to three times as
+// long for 12 to 22 % fewer bytes). It also keeps cheap the reset of the
+// pooled compressor that the middleware does for every request.
+const compressLevel = gzip.BestSpeed
+
+// The figure cache holds up to this many figures and bytes (a figure is
+// 10 to 60 KiB at the default width, a few hundred at the widest).
+const (
+	maxCachedFigures = 64
+	maxCachedBytes   = 16 << 20
+)
 
 // compressible lists the content types worth compressing.
 var compressible = []string{

@@ -1,0 +1,164 @@
+package web
+
+import (
+	"bytes"
+	"compress/gzip"
+	"container/list"
+	"net/http"
+	"strings"
+	"sync"
+)
+
+// responseCache keeps the latest answers of a handler whose answer is a
+// function of the query alone, ready to send again: the figure of a query
+// holds the whole plan and its options, so a figure asked for again (a
+// link opened twice, the download after the page, a reloaded image) costs
+// a lookup instead of a computation, a drawing and a compression. Only 200
+// answers are kept, by raw query, with their headers and, compressed once,
+// their gzip form. It holds at most maxEntries answers and maxBytes of
+// them; the least recently sent go first.
+type responseCache struct {
+	maxEntries, maxBytes int
+
+	mu      sync.Mutex
+	size    int                      // bytes held, plain and gzip
+	order   *list.List               // of *cachedResponse, most recent first
+	entries map[string]*list.Element // by query
+}
+
+type cachedResponse struct {
+	query  string
+	header http.Header
+	body   []byte
+	gz     []byte
+}
+
+func (c *cachedResponse) size() int { return len(c.query) + len(c.body) + len(c.gz) }
+
+func newResponseCache(maxEntries, maxBytes int) *responseCache {
+	return &responseCache{maxEntries: maxEntries, maxBytes: maxBytes, order: list.New(), entries: map[string]*list.Element{}}
+}
+
+func (c *responseCache) get(query string) (*cachedResponse, bool) {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	e, ok := c.entries[query]
+	if !ok {
+		return nil, false
+	}
+	c.order.MoveToFront(e)
+	return e.Value.(*cachedResponse), true
+}
+
+func (c *responseCache) put(r *cachedResponse) {
+	if r.size() > c.maxBytes {
+		return
+	}
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if e, ok := c.entries[r.query]; ok { // two requests raced; keep one
+		c.order.MoveToFront(e)
+		return
+	}
+	c.entries[r.query] = c.order.PushFront(r)
+	c.size += r.size()
+	for c.order.Len() > c.maxEntries || c.size > c.maxBytes {
+		old := c.order.Remove(c.order.Back()).(*cachedResponse)
+		delete(c.entries, old.query)
+		c.size -= old.size()
+	}
+}
+
+// cached answers from c when it can and otherwise lets next answer,
+// keeping a 200 answer for the next request of the same query.
+func cached(c *responseCache, next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if e, ok := c.get(r.URL.RawQuery); ok {
+			e.send(w, r)
+			return
+		}
+		rec := &recorder{header: http.Header{}}
+		next.ServeHTTP(rec, r)
+		if rec.status != http.StatusOK {
+			rec.replay(w)
+			return
+		}
+		e := &cachedResponse{query: r.URL.RawQuery, header: rec.header, body: rec.body.Bytes()}
+		var gz bytes.Buffer
+		zw := gzipWriters.Get().(*gzip.Writer)
+		zw.Reset(&gz)
+		_, _ = zw.Write(e.body)
+		if zw.Close() == nil {
+			e.gz = gz.Bytes()
+		}
+		gzipWriters.Put(zw)
+		c.put(e)
+		e.send(w, r)
+	})
+}
+
+// gzipWriters are kept for reuse: a new one allocates the compressor's
+// tables, which costs more than compressing a figure.
+var gzipWriters = sync.Pool{New: func() any {
+	zw, _ := gzip.NewWriterLevel(nil, compressLevel)
+	return zw
+}}
+
+// send writes the kept answer, gzip-compressed when the client takes it.
+func (e *cachedResponse) send(w http.ResponseWriter, r *http.Request) {
+	h := w.Header()
+	for k, v := range e.header {
+		h[k] = v
+	}
+	body := e.body
+	if e.gz != nil && acceptsGzip(r) {
+		h.Set("Content-Encoding", "gzip")
+		h.Add("Vary", "Accept-Encoding")
+		body = e.gz
+	}
+	w.WriteHeader(http.StatusOK)
+	_, _ = w.Write(body)
+}
+
+// acceptsGzip reports whether the request's Accept-Encoding lists gzip
+// without q=0.
+func acceptsGzip(r *http.Request) bool {
+	for part := range strings.SplitSeq(r.Header.Get("Accept-Encoding"), ",") {
+		name, params, _ := strings.Cut(strings.TrimSpace(part), ";")
+		if strings.EqualFold(strings.TrimSpace(name), "gzip") {
+			q := strings.ReplaceAll(params, " ", "")
+			return q != "q=0" && q != "q=0.0" && q != "q=0.00" && q != "q=0.000"
+		}
+	}
+	return false
+}
+
+// recorder holds an answer in memory.
+type recorder struct {
+	header http.Header
+	status int
+	body   bytes.Buffer
+}
+
+func (rr *recorder) Header() http.Header { return rr.header }
+
+func (rr *recorder) WriteHeader(status int) {
+	if rr.status == 0 {
+		rr.status = status
+	}
+}
+
+func (rr *recorder) Write(p []byte) (int, error) {
+	rr.WriteHeader(http.StatusOK)
+	return rr.body.Write(p)
+}
+
+// replay sends a recorded answer that is not kept.
+func (rr *recorder) replay(w http.ResponseWriter) {
+	h := w.Header()
+	for k, v := range rr.header {
+		h[k] = v
+	}
+	w.WriteHeader(max(rr.status, http.StatusOK))
+	_, _ = w.Write(rr.body.Bytes())
+}
