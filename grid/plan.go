@@ -1,5 +1,7 @@
 package grid
 
+import "maps"
+
 // Plan is a carrier and its partitions as the user wrote them. Enumerated
 // values are kept as the strings typed, so that Compute can name the value it
 // refuses; a zero value means "the default" where the field says so.
@@ -77,8 +79,8 @@ const (
 // Clone returns a deep copy of p, so a caller may change it freely.
 func (p Plan) Clone() Plan {
 	q := p
-	q.Carrier.OffsetToCarrier = cloneMap(p.Carrier.OffsetToCarrier)
-	q.Carrier.CarrierBandwidth = cloneMap(p.Carrier.CarrierBandwidth)
+	q.Carrier.OffsetToCarrier = maps.Clone(p.Carrier.OffsetToCarrier)
+	q.Carrier.CarrierBandwidth = maps.Clone(p.Carrier.CarrierBandwidth)
 	q.Carrier.CenterMHz = clonePtr(p.Carrier.CenterMHz)
 	q.Carrier.ARFCN = clonePtr(p.Carrier.ARFCN)
 	q.NumerologyGapKHz = clonePtr(p.NumerologyGapKHz)
@@ -96,17 +98,6 @@ func (p Plan) Clone() Plan {
 		q.Partitions[i] = pp
 	}
 	return q
-}
-
-func cloneMap(m map[int]int) map[int]int {
-	if m == nil {
-		return nil
-	}
-	out := make(map[int]int, len(m))
-	for k, v := range m {
-		out[k] = v
-	}
-	return out
 }
 
 func clonePtr[T any](p *T) *T {
