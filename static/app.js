@@ -2,15 +2,16 @@
 //
 // 1. Live what-if: any change to the live form (form[data-live]: the
 //    planner's, or the comparison's) fetches its fragment (data-fragment)
-//    with the same query and swaps in the figures, the tables and the
-//    findings. The form itself is patched in place (messages, placeholders,
-//    choices), so what the user is typing is never touched; it is replaced
-//    whole only after an edit of the partition list, or when the set of
-//    fields changes.
-// 2. History: the address always holds the plan. A burst of typing opens one
-//    history entry (pushState) and keeps it current (replaceState); a
-//    committed change opens its own. The back button walks back through
-//    edits (popstate).
+//    with the same query and brings the figures, the tables and the
+//    findings in line with it, touching only the nodes that changed. The
+//    form itself is patched in place (messages, placeholders, choices) just
+//    after the repaint, so what the user is typing is never touched; it is
+//    replaced whole only after an edit of the partition list, or when the
+//    set of fields changes.
+// 2. History: the address always holds the plan, updated as soon as the
+//    new plan is drawn. A burst of typing opens one history entry
+//    (pushState) and keeps it current (replaceState); a committed change
+//    opens its own. The back button walks back through edits (popstate).
 // 3. The figure's readout: the pointer, or the arrow keys when the figure
 //    has focus, name the partition, slot, symbol, symbol start and cyclic
 //    prefix, CRB and frequency under it. They are computed here from the
@@ -32,6 +33,9 @@
   'use strict';
 
   const DEBOUNCE_MS = 250;
+  const BUSY_AFTER_MS = 150;
+  // EDITOR_MARK is where a fragment's form begins (after its results).
+  const EDITOR_MARK = '<!--gl-editor-->';
 
   // TS 38.211 4.1 and 5.3.1, in Tc = 1/(480 kHz · 4096).
   const KAPPA = 64;
@@ -84,6 +88,7 @@
     const ctl = new AbortController();
     inflight = ctl;
     const mine = ++seq;
+    stamp('sent');
     setBusy(true);
     let text;
     try {
@@ -91,7 +96,9 @@
       if (res.status !== 200) {
         throw new Error('the server answered ' + res.status + ' ' + res.statusText);
       }
+      stamp('answered');
       text = await res.text();
+      stamp('read');
     } catch (err) {
       if (err.name === 'AbortError') return;
       if (mine === seq) {
@@ -104,24 +111,64 @@
     inflight = null;
     setBusy(false);
     // A template parses the fragment inert (no script runs, nothing loads)
-    // and faster than DOMParser, which builds a whole document.
-    const tpl = document.createElement('template');
-    tpl.innerHTML = text;
-    const work = tpl.content.getElementById('gl-work');
+    // and faster than DOMParser, which builds a whole document. The
+    // fragment holds the results first and the form after EDITOR_MARK: the
+    // results are parsed and shown at once, the form, unless it must be
+    // rebuilt now, after the next frame, so that the new figure is painted
+    // without waiting for it.
+    const cut = text.indexOf(EDITOR_MARK);
+    const full = op !== null || fromHistory;
+    const work = parse(full || cut < 0 ? text : text.slice(0, cut)).getElementById('gl-work');
     if (!work) {
       trouble('The server sent something that is not the planner; press Update to try again.');
       return;
     }
     trouble('');
-    apply(work, { full: op !== null || fromHistory, commit, keepOpen: !fromHistory });
-    record(form.dataset.page + '?' + (work.dataset.query || ''), { commit, fromHistory });
-    if (work.dataset.title) document.title = work.dataset.title;
-    if (work.dataset.focus) focusControl(work.dataset.focus);
+    showResults(work);
+    stamp('shown');
+    const url = form.dataset.page + '?' + (work.dataset.query || '');
+    if (full || cut < 0) {
+      applyForm(work, { full, commit, keepOpen: !fromHistory });
+      if (work.dataset.focus) focusControl(work.dataset.focus);
+      if (!fromHistory) record(url, { commit });
+      if (work.dataset.title) document.title = work.dataset.title;
+      return;
+    }
+    // An edit of a value: the form's notes, the address and the title
+    // follow the repaint (the browser takes its time over the last two).
+    const here = location.href;
+    afterPaint(() => {
+      if (mine === seq) applyForm(parse(text.slice(cut)), { full: false, commit, keepOpen: true });
+      if (location.href !== here) return; // the user has moved in the history meanwhile
+      record(url, { commit });
+      if (work.dataset.title) document.title = work.dataset.title;
+    });
   }
 
-  // record keeps the address in step with the plan.
-  function record(url, { commit, fromHistory }) {
-    if (fromHistory) return;
+  // afterPaint runs fn once the next frame is drawn, behind the tasks
+  // already waiting then (the user's next keys among them).
+  function afterPaint(fn) {
+    requestAnimationFrame(() => setTimeout(() => setTimeout(fn, 0), 0));
+  }
+
+  // stamp leaves a performance mark (gl:sent, gl:answered, gl:read,
+  // gl:shown) for the profiler and the browser benchmark.
+  // Only the latest of each is kept.
+  function stamp(name) {
+    if (!performance.mark) return;
+    performance.clearMarks('gl:' + name);
+    performance.mark('gl:' + name);
+  }
+
+  function parse(html) {
+    const tpl = document.createElement('template');
+    tpl.innerHTML = html;
+    return tpl.content;
+  }
+
+  // record keeps the address in step with the plan: a burst of typing
+  // opens one entry and keeps it current, a committed change opens its own.
+  function record(url, { commit }) {
     const here = location.pathname + location.search;
     if (commit) {
       if (typing) history.replaceState(null, '', url);
@@ -135,9 +182,17 @@
     }
   }
 
+  // setBusy greys the results while an answer is awaited, but only once it
+  // is slow to come: a quick answer repaints without a flicker.
+  let busyTimer = 0;
   function setBusy(on) {
-    const r = byId('gl-results');
-    if (r) r.classList.toggle('gl-stale', on);
+    clearTimeout(busyTimer);
+    const stale = (v) => {
+      const r = byId('gl-results');
+      if (r) r.classList.toggle('gl-stale', v);
+    };
+    if (on) busyTimer = setTimeout(() => stale(true), BUSY_AFTER_MS);
+    else stale(false);
   }
 
   function trouble(msg) {
@@ -147,29 +202,78 @@
     t.hidden = msg === '';
   }
 
-  // apply swaps in a workspace that the server rendered.
-  function apply(work, { full, commit, keepOpen }) {
+  // showResults brings the figures, tables and findings in line with the
+  // server's new rendering of them.
+  function showResults(work) {
     const results = byId('gl-results');
     const fresh = work.querySelector('#gl-results');
     if (results && fresh) {
-      const hadFocus = results.contains(document.activeElement) ? document.activeElement.id : '';
-      results.replaceWith(document.adoptNode(fresh));
+      morph(results, fresh);
       resetReadout();
-      if (hadFocus && byId(hadFocus)) byId(hadFocus).focus({ preventScroll: true });
     }
+  }
+
+  // applyForm brings the forms in line with the server's rendering (in
+  // part, the nodes that follow EDITOR_MARK): patched in place, or
+  // replaced whole after an edit of the partition list (full) or when the
+  // set of fields changed.
+  function applyForm(part, { full, commit, keepOpen }) {
     const upload = byId('gl-upload');
-    const freshUpload = work.querySelector('#gl-upload');
+    const freshUpload = part.querySelector('#gl-upload');
     if (upload && freshUpload) {
       upload.setAttribute('action', freshUpload.getAttribute('action'));
       patchNotes(freshUpload);
     }
     const form = liveForm();
-    const freshForm = form && work.querySelector('#' + form.id);
+    const freshForm = form && part.querySelector('#' + form.id);
     if (!form || !freshForm) return;
     if (full || form.dataset.shape !== freshForm.dataset.shape) {
       replaceForm(form, freshForm, keepOpen);
     } else {
       patchForm(freshForm, commit);
+    }
+  }
+
+  // morph brings the element cur in line with fresh, the server's new
+  // rendering of it, and touches only what differs: the browser then
+  // restyles, lays out and repaints the parts that changed, not the whole
+  // figure and every table. Children are matched in order, by node type,
+  // name and id; what does not match is moved in from fresh.
+  function morph(cur, fresh) {
+    syncAttrs(cur, fresh);
+    let c = cur.firstChild;
+    for (let f = fresh.firstChild; f; ) {
+      const next = f.nextSibling;
+      if (c && sameNode(c, f)) {
+        if (c.nodeType !== Node.ELEMENT_NODE) {
+          if (c.nodeValue !== f.nodeValue) c.nodeValue = f.nodeValue;
+        } else if (!c.isEqualNode(f)) {
+          morph(c, f);
+        }
+        c = c.nextSibling;
+      } else {
+        cur.insertBefore(document.adoptNode(f), c);
+      }
+      f = next;
+    }
+    while (c) {
+      const next = c.nextSibling;
+      c.remove();
+      c = next;
+    }
+  }
+
+  function sameNode(a, b) {
+    if (a.nodeType !== b.nodeType || a.nodeName !== b.nodeName) return false;
+    return a.nodeType !== Node.ELEMENT_NODE || (a.namespaceURI === b.namespaceURI && a.id === b.id);
+  }
+
+  function syncAttrs(cur, fresh) {
+    for (const a of Array.from(cur.attributes)) {
+      if (!fresh.hasAttributeNS(a.namespaceURI, a.localName)) cur.removeAttributeNS(a.namespaceURI, a.localName);
+    }
+    for (const a of fresh.attributes) {
+      if (cur.getAttributeNS(a.namespaceURI, a.localName) !== a.value) cur.setAttributeNS(a.namespaceURI, a.name, a.value);
     }
   }
 

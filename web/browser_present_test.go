@@ -248,9 +248,7 @@ func TestBrowserCompare(t *testing.T) {
 	if a, b := eval[string](tb, scalesOf("a")), eval[string](tb, scalesOf("b")); a != b || !strings.Contains(a, fmt.Sprint(2*grid.TcPerSubframe)) {
 		t.Errorf("after the edit the scales differ or miss B's span: A %s, B %s", a, b)
 	}
-	if u := eval[string](tb, `location.search`); !strings.Contains(u, "b.p0.scs=15") || !strings.Contains(u, "b.span=2") || !strings.Contains(u, "a.p0.scs=30") {
-		t.Errorf("the address %s does not hold both plans", u)
-	}
+	tb.waitFor("the address holds both plans", `['b.p0.scs=15', 'b.span=2', 'a.p0.scs=30'].every((k) => location.search.includes(k))`)
 	if eval[string](tb, `window.glMarker`) != "still here" {
 		t.Error("editing B reloaded the page")
 	}

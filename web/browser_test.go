@@ -164,9 +164,8 @@ func TestBrowserLiveEdit(t *testing.T) {
 	if eval[bool](tb, `document.querySelector('#gl-figure svg').outerHTML === window.glFigureBefore`) {
 		t.Error("the figure did not change with the SCS")
 	}
-	if u := eval[string](tb, `location.search`); !strings.Contains(u, "p1.scs=15") {
-		t.Errorf("address %s does not hold the edit", u)
-	}
+	// The address follows the repaint.
+	tb.waitFor("the address holds the edit", `location.search.includes('p1.scs=15')`)
 	if n := eval[int](tb, `history.length`); n != startLen+1 {
 		t.Errorf("history length %d after one committed edit, want %d", n, startLen+1)
 	}
@@ -192,6 +191,7 @@ func TestBrowserLiveEdit(t *testing.T) {
 	if v := eval[string](tb, `document.getElementById('f-p1-size').getAttribute('aria-invalid')`); v != "true" {
 		t.Errorf("aria-invalid %q on the bad field", v)
 	}
+	tb.waitFor("the address holds the input as typed", `location.search.includes('p1.size=40x')`)
 
 	// Back walks through the edits.
 	tb.do("going back", chromedp.Evaluate[chromedp.Void](`history.back()`))

@@ -43,8 +43,14 @@ func handlePage(logger *slog.Logger, cfg Config) http.HandlerFunc {
 	}
 }
 
-// handleFragment serves the workspace of the planner alone — form, figure,
-// tables and findings — for the page script to swap in after an edit. It
+// editorMark separates a fragment's results from the forms after them; the
+// page script (EDITOR_MARK in static/app.js) shows the results as soon as
+// it has read them and brings the forms up to date a frame later.
+const editorMark = "<!--gl-editor-->"
+
+// handleFragment serves the workspace of the planner alone — figure,
+// tables, findings, then editorMark and the form — for the page script to
+// bring the page up to date with after an edit. It
 // takes the same query as the page, op included. It answers 200 whenever it
 // could build the workspace: the plan's own status (422 for a value that
 // does not parse or an error finding) is in the workspace's data-status,
@@ -54,7 +60,7 @@ func handleFragment(logger *slog.Logger, cfg Config) http.HandlerFunc {
 		st, focus, _ := stateOf(readQuery(r))
 		v, styles := viewOf(r, logger, cfg, st)
 		v.Focus = focus
-		writeHTML(w, r, logger, http.StatusOK, work(v), styles)
+		writeHTML(w, r, logger, http.StatusOK, workFragment(v), styles)
 	}
 }
 

@@ -306,6 +306,17 @@ func TestFragment(t *testing.T) {
 
 	wantContains(t, "fragment", r.body, `data-status="200"`)
 
+	// The page script shows what comes before editorMark at once and the
+	// rest a frame later: the results must come first, the forms after.
+	for _, path := range []string{"/fragment?" + q, "/compare/fragment?" + q} {
+		body := get(t, srv, path).body
+		results, mark := strings.Index(body, `id="gl-results"`), strings.Index(body, editorMark)
+		form := strings.Index(body, `data-live`)
+		if strings.Count(body, editorMark) != 1 || results < 0 || !(results < mark && mark < form) {
+			t.Errorf("%s: results at %d, %d marks, first at %d, form at %d; want the results, one mark, then the form", path, results, strings.Count(body, editorMark), mark, form)
+		}
+	}
+
 	// The fragment request succeeds; the plan's own status rides along.
 	r = get(t, srv, "/fragment?"+q+"&op=dup.1")
 	wantStatus(t, r, http.StatusOK)
