@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"encoding/xml"
 	"errors"
+	"fmt"
 	"html"
 	"io"
 	"log/slog"
@@ -256,6 +257,22 @@ func TestPageOpensWithStartupPlan(t *testing.T) {
 	}
 	if !strings.Contains(logs.String(), "msg=request") || !strings.Contains(logs.String(), "status=303") {
 		t.Errorf("access log has no request line with its status:\n%s", logs)
+	}
+}
+
+// TestPageMiniSlots: the timing table gives each partition's mini-slots.
+// TS 38.211 5.3.1, worked by hand: a normal-CP symbol away from the long
+// CP lasts (2048 + 144)·64·2^-μ Tc, with Tc = 1/1966.08 µs; at 30 kHz
+// (μ = 1) that is 70 144 Tc = 35.677 µs, so 2, 4 and 7 symbols last
+// 71.354, 142.708 and 249.740 µs; at 15 kHz twice as long.
+func TestPageMiniSlots(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	for scs, want := range map[int]string{15: "142.708 / 285.417 / 499.479", 30: "71.354 / 142.708 / 249.740"} {
+		plan := grid.Plan{Name: "mini", Carrier: grid.CarrierPlan{BandwidthMHz: 20},
+			Partitions: []grid.PartitionPlan{{Name: "a", SCSKHz: scs, SizePRB: 20}}}
+		r := get(t, srv, "/?"+FormOf(plan).Query())
+		wantStatus(t, r, http.StatusOK)
+		wantContains(t, fmt.Sprintf("the timing table at %d kHz", scs), r.body, `<td class="gl-num" data-col="mini">`+want+`</td>`)
 	}
 }
 

@@ -186,6 +186,7 @@ type fact struct{ Label, Value string }
 
 type partRow struct {
 	Name, Mu, SCS, CP, Slots, Symbols, SlotUs, UsefulUs, CPUs string
+	MiniSlotsUs                                               string // 2, 4 and 7 symbols
 	PRBs, CRBs, OccupiedMHz, LowKHz, HighKHz, LowMHz, HighMHz string
 	RIV, Link, PeakMbps, Share                                string
 }
@@ -813,7 +814,8 @@ func buildResults(s state, query string, figure string, figErr error) resultsVie
 			Name: p.Name, Mu: strconv.Itoa(p.Mu), SCS: strconv.Itoa(p.SCSKHz), CP: p.CP,
 			Slots: strconv.Itoa(p.Slots), Symbols: strconv.Itoa(p.SymbolCount),
 			SlotUs: us(p.SlotUs), UsefulUs: us(p.UsefulUs), CPUs: us(p.CPUs),
-			PRBs: strconv.Itoa(p.SizePRB), CRBs: fmt.Sprintf("%d–%d", p.StartCRB, p.StartCRB+p.SizePRB-1),
+			MiniSlotsUs: us(p.MiniSlotUs["2"]) + " / " + us(p.MiniSlotUs["4"]) + " / " + us(p.MiniSlotUs["7"]),
+			PRBs:        strconv.Itoa(p.SizePRB), CRBs: fmt.Sprintf("%d–%d", p.StartCRB, p.StartCRB+p.SizePRB-1),
 			OccupiedMHz: strconv.FormatFloat(p.OccupiedMHz, 'f', 2, 64),
 			LowKHz:      exact(p.LowKHz), HighKHz: exact(p.HighKHz),
 			RIV:      "—",
