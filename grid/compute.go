@@ -156,7 +156,7 @@ func Compute(plan Plan) Result {
 	}
 	rng, ok := parseFold(p.Carrier.Range, RangeNames(), ParseRange)
 	if !ok {
-		fs.add(Error, CodeRange, "", "carrier.range", "carrier.range %q is not a frequency range; use %s.", p.Carrier.Range, joinOr(RangeNames()))
+		fs.add(Error, CodeRange, "", "carrier.range", "carrier.range %q is not a frequency range; use %s.", p.Carrier.Range, JoinOr(RangeNames()))
 	}
 	p.Carrier.Range = rng.String()
 	var tdd *TDD
@@ -178,7 +178,7 @@ func Compute(plan Plan) Result {
 	bw := p.Carrier.BandwidthMHz
 	bwKnown := slices.Contains(rng.AllBandwidths(), bw)
 	if !bwKnown {
-		fs.add(Error, CodeBandwidth, "", "carrier.bandwidthMHz", "carrier.bandwidthMHz %s is not a channel bandwidth of %s; use %s MHz.", given(bw), rng, joinInts(rng.AllBandwidths()))
+		fs.add(Error, CodeBandwidth, "", "carrier.bandwidthMHz", "carrier.bandwidthMHz %s is not a channel bandwidth of %s; use %s MHz.", given(bw), rng, JoinInts(rng.AllBandwidths()))
 	}
 	if g := p.NumerologyGapKHz; g != nil && (math.IsNaN(*g) || *g < 0 || *g > 1e6) {
 		fs.add(Error, CodeLimit, "", "numerologyGapKHz", "numerologyGapKHz must be from 0 (no check) to 1000000 kHz.")
@@ -296,7 +296,7 @@ func checkPartition(fs *findings, rng Range, bw int, bwKnown bool, i int, pp *Pa
 		if pp.SCSKHz == 240 {
 			extra = " (240 kHz carries SS/PBCH blocks only, no data)"
 		}
-		fs.add(Error, CodeSCSRange, who, f+".scsKHz", "%s.scsKHz %s is not a data subcarrier spacing of %s%s; use %s kHz.", f, given(pp.SCSKHz), rng, extra, joinInts(rng.DataSCS()))
+		fs.add(Error, CodeSCSRange, who, f+".scsKHz", "%s.scsKHz %s is not a data subcarrier spacing of %s%s; use %s kHz.", f, given(pp.SCSKHz), rng, extra, JoinInts(rng.DataSCS()))
 		pt.place = false
 	}
 	cp, cpOK := parseFold(pp.CP, []string{"normal", "extended"}, ParseCP)
@@ -312,7 +312,7 @@ func checkPartition(fs *findings, rng Range, bw int, bwKnown bool, i int, pp *Pa
 	pt.num = Numerology{Mu: mu, CP: cp}
 	if pt.place && bwKnown {
 		if _, ok := rng.NRB(pp.SCSKHz, bw); !ok {
-			fs.add(Error, CodeBandwidth, who, "carrier.bandwidthMHz", "carrier.bandwidthMHz %d is not defined for %d kHz in %s (TS 38.101 Table 5.3.2-1); at %d kHz use %s MHz.", bw, pp.SCSKHz, rng, pp.SCSKHz, joinInts(rng.Bandwidths(pp.SCSKHz)))
+			fs.add(Error, CodeBandwidth, who, "carrier.bandwidthMHz", "carrier.bandwidthMHz %d is not defined for %d kHz in %s (TS 38.101 Table 5.3.2-1); at %d kHz use %s MHz.", bw, pp.SCSKHz, rng, pp.SCSKHz, JoinInts(rng.Bandwidths(pp.SCSKHz)))
 			pt.place = false
 		}
 	}
@@ -334,7 +334,7 @@ func checkPartition(fs *findings, rng Range, bw int, bwKnown bool, i int, pp *Pa
 		pp.Modulation = m
 		pt.bits, _ = ModulationBits(m)
 	} else {
-		fs.add(Error, CodeModulation, who, f+".modulation", "%s.modulation %q is not a modulation; use %s.", f, pp.Modulation, joinOr(ModulationNames()))
+		fs.add(Error, CodeModulation, who, f+".modulation", "%s.modulation %q is not a modulation; use %s.", f, pp.Modulation, JoinOr(ModulationNames()))
 	}
 
 	if pp.SizePRB == 0 && pp.LocationAndBandwidth == nil {
@@ -398,7 +398,7 @@ func placeCarriers(fs *findings, rng Range, bw int, inUse []int, cp CarrierPlan)
 		field := fmt.Sprintf("carrier.offsetToCarrier.%d", scs)
 		switch o := cp.OffsetToCarrier[scs]; {
 		case !slices.Contains(rng.DataSCS(), scs):
-			fs.add(Error, CodeOffset, "", field, "%s names %d kHz, which is not a data subcarrier spacing of %s; use %s kHz.", field, scs, rng, joinInts(rng.DataSCS()))
+			fs.add(Error, CodeOffset, "", field, "%s names %d kHz, which is not a data subcarrier spacing of %s; use %s kHz.", field, scs, rng, JoinInts(rng.DataSCS()))
 		case o < 0 || o > MaxOffset:
 			fs.add(Error, CodeOffset, "", field, "%s is %d; it must be 0 to %d CRBs (TS 38.331 SCS-SpecificCarrier).", field, o, MaxOffset)
 		case !slices.Contains(inUse, scs):
@@ -411,7 +411,7 @@ func placeCarriers(fs *findings, rng Range, bw int, inUse []int, cp CarrierPlan)
 		nrb, known := rng.NRB(scs, bw)
 		switch {
 		case !slices.Contains(rng.DataSCS(), scs):
-			fs.add(Error, CodeBandwidth, "", field, "%s names %d kHz, which is not a data subcarrier spacing of %s; use %s kHz.", field, scs, rng, joinInts(rng.DataSCS()))
+			fs.add(Error, CodeBandwidth, "", field, "%s names %d kHz, which is not a data subcarrier spacing of %s; use %s kHz.", field, scs, rng, JoinInts(rng.DataSCS()))
 		case known && (n < 1 || n > nrb):
 			fs.add(Error, CodeBandwidth, "", field, "%s is %d; at %d kHz a %d MHz channel holds 1 to %d PRBs (N_RB, TS 38.101 Table 5.3.2-1).", field, n, scs, bw, nrb)
 		case !slices.Contains(inUse, scs):
@@ -456,7 +456,7 @@ func placeCarriers(fs *findings, rng Range, bw int, inUse []int, cp CarrierPlan)
 	case len(missing) == 0 && len(inUse) > 0:
 		offsets = cp.OffsetToCarrier
 	case len(missing) < len(inUse):
-		fs.add(Error, CodeOffset, "", "carrier.offsetToCarrier", "carrier.offsetToCarrier has no valid offset for %s kHz; give one for every subcarrier spacing in use (%s kHz) or for none.", joinInts(missing), joinInts(inUse))
+		fs.add(Error, CodeOffset, "", "carrier.offsetToCarrier", "carrier.offsetToCarrier has no valid offset for %s kHz; give one for every subcarrier spacing in use (%s kHz) or for none.", JoinInts(missing), JoinInts(inUse))
 		fallthrough
 	default:
 		var note string

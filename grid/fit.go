@@ -142,7 +142,7 @@ func checkFit(fs *findings, rng Range, e *EnvironmentPlan, ch Channel, ls []Latt
 			for _, p := range DelayProfiles {
 				names = append(names, fmt.Sprintf("%s (%g ns)", p.Name, p.Ns))
 			}
-			fs.add(Error, CodeFit, "", "environment.delayProfile", "environment.delayProfile %q is not a profile; use %s (TR 38.901 Table 7.7.3-1).", e.DelayProfile, joinOr(names))
+			fs.add(Error, CodeFit, "", "environment.delayProfile", "environment.delayProfile %q is not a profile; use %s (TR 38.901 Table 7.7.3-1).", e.DelayProfile, JoinOr(names))
 			return nil, false
 		}
 		if e.DelaySpreadNs != 0 && e.DelaySpreadNs != DelayProfiles[i].Ns {
@@ -189,7 +189,7 @@ func checkFit(fs *findings, rng Range, e *EnvironmentPlan, ch Channel, ls []Latt
 					why = append(why, fmt.Sprintf("%s %g (%s)", c.Name, c.Value, c.Rule))
 				}
 			}
-			fs.add(Warning, CodeFit, l.Name, fmt.Sprintf("partitions[%d].scsKHz", l.Index), "Partition %q at %d kHz %s CP suits the channel poorly by first-order rules: %s.", l.Name, nf.SCSKHz, nf.CP, joinOr(why))
+			fs.add(Warning, CodeFit, l.Name, fmt.Sprintf("partitions[%d].scsKHz", l.Index), "Partition %q at %d kHz %s CP suits the channel poorly by first-order rules: %s.", l.Name, nf.SCSKHz, nf.CP, JoinOr(why))
 		}
 	}
 	var best NumerologyFit

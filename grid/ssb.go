@@ -122,7 +122,7 @@ func checkSSB(fs *findings, rng Range, s *SSBPlan, ch Channel, freq Hz, freqKnow
 	allowed := rng.SSBSCS()
 	mu, _ := MuForSCS(s.SCSKHz)
 	if !slices.Contains(allowed, s.SCSKHz) {
-		fs.add(Error, CodeSSB, "", "ssb.scsKHz", "ssb.scsKHz %s is not an SS/PBCH block spacing of %s; use %s kHz.", given(s.SCSKHz), rng, joinInts(allowed))
+		fs.add(Error, CodeSSB, "", "ssb.scsKHz", "ssb.scsKHz %s is not an SS/PBCH block spacing of %s; use %s kHz.", given(s.SCSKHz), rng, JoinInts(allowed))
 		return SSB{}, false
 	}
 	var cases []string
@@ -137,7 +137,7 @@ func checkSSB(fs *findings, rng Range, s *SSBPlan, ch Channel, freq Hz, freqKnow
 	}
 	i := slices.IndexFunc(ssbCases, func(c ssbCase) bool { return c.name == name })
 	if !slices.Contains(cases, name) {
-		fs.add(Error, CodeSSB, "", "ssb.case", "ssb.case %q does not exist at %d kHz; use %s (TS 38.213 4.1).", s.Case, s.SCSKHz, joinOr(cases))
+		fs.add(Error, CodeSSB, "", "ssb.case", "ssb.case %q does not exist at %d kHz; use %s (TS 38.213 4.1).", s.Case, s.SCSKHz, JoinOr(cases))
 		return SSB{}, false
 	}
 	c := ssbCases[i]
@@ -177,7 +177,7 @@ func checkSSB(fs *findings, rng Range, s *SSBPlan, ch Channel, freq Hz, freqKnow
 		period = 20
 	}
 	if !slices.Contains(SSBPeriodsMs, period) {
-		fail("ssb.periodMs", "ssb.periodMs %d is not an SS/PBCH period; use %s ms (TS 38.331 ssb-periodicityServingCell).", period, joinInts(SSBPeriodsMs))
+		fail("ssb.periodMs", "ssb.periodMs %d is not an SS/PBCH period; use %s ms (TS 38.331 ssb-periodicityServingCell).", period, JoinInts(SSBPeriodsMs))
 	}
 	rbUnit, kUnit, kMax := Hz(15e3), Hz(15e3), 23
 	if rng.FR2() {
@@ -190,7 +190,7 @@ func checkSSB(fs *findings, rng Range, s *SSBPlan, ch Channel, freq Hz, freqKnow
 			}
 		}
 		if !slices.Contains(rng.DataSCS(), common) {
-			fail("ssb.scsCommonKHz", "ssb.scsCommonKHz %d is not a data spacing of %s; use %s kHz.", common, rng, joinInts(rng.DataSCS()))
+			fail("ssb.scsCommonKHz", "ssb.scsCommonKHz %d is not a data spacing of %s; use %s kHz.", common, rng, JoinInts(rng.DataSCS()))
 		}
 		kUnit = Hz(common) * 1000
 	} else if s.ScsCommonKHz != 0 {

@@ -158,16 +158,17 @@ func (r Range) MinGuard(scsKHz, bandwidthMHz int) (Hz, bool) {
 	return (Hz(bandwidthMHz)*1e6-Hz(n)*12*scs)/2 - scs/2, true
 }
 
-// joinInts formats a list of numbers for a message: "15, 30 or 60".
-func joinInts(v []int) string {
+// JoinInts formats a list of numbers for a message: "15, 30 or 60".
+func JoinInts(v []int) string {
 	s := make([]string, len(v))
 	for i, x := range v {
 		s[i] = fmt.Sprint(x)
 	}
-	return joinOr(s)
+	return JoinOr(s)
 }
 
-func joinOr(s []string) string {
+// JoinOr joins the choices of a message: "a, b or c"; "none" for none.
+func JoinOr(s []string) string {
 	switch len(s) {
 	case 0:
 		return "none"

@@ -77,7 +77,7 @@ func checkTDD(fs *findings, rng Range, t *TDDPlan) (TDD, bool) {
 	ok := true
 	mu, muOK := MuForSCS(t.ReferenceSCSKHz)
 	if !muOK || !slices.Contains(rng.DataSCS(), t.ReferenceSCSKHz) {
-		fs.add(Error, CodeTDD, "", "tdd.referenceScsKHz", "tdd.referenceScsKHz %s is not a subcarrier spacing of %s; use %s kHz.", given(t.ReferenceSCSKHz), rng, joinInts(rng.DataSCS()))
+		fs.add(Error, CodeTDD, "", "tdd.referenceScsKHz", "tdd.referenceScsKHz %s is not a subcarrier spacing of %s; use %s kHz.", given(t.ReferenceSCSKHz), rng, JoinInts(rng.DataSCS()))
 		return TDD{}, false
 	}
 	ref := Numerology{Mu: mu}
@@ -165,7 +165,7 @@ func joinFloats(v []float64) string {
 	for i, x := range v {
 		s[i] = fmtMs(x)
 	}
-	return joinOr(s)
+	return JoinOr(s)
 }
 
 // Directions maps the pattern onto a partition's symbols by time: a symbol

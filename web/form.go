@@ -3,6 +3,7 @@ package web
 import (
 	"errors"
 	"fmt"
+	"maps"
 	"math"
 	"net/url"
 	"slices"
@@ -327,7 +328,7 @@ func (f Form) Plan() (grid.Plan, Messages) {
 		Carrier: grid.CarrierPlan{
 			Range: f.Range,
 			BandwidthMHz: r.count(f.Bandwidth, "carrier.bandwidthMHz", "Channel bandwidth",
-				"a channel bandwidth in whole MHz, such as "+joinInts(rangeOf(f.Range).AllBandwidths())),
+				"a channel bandwidth in whole MHz, such as "+grid.JoinInts(rangeOf(f.Range).AllBandwidths())),
 			CenterMHz: r.optFloat(f.Center, "carrier.centerMHz", "Centre frequency", "a frequency in MHz such as 3750 or 3750.12, or nothing"),
 			ARFCN:     r.optCount(f.ARFCN, "carrier.arfcn", "NR-ARFCN", fmt.Sprintf("a whole number from 0 to %d, or nothing", grid.MaxARFCN)),
 		},
@@ -347,7 +348,7 @@ func (f Form) Plan() (grid.Plan, Messages) {
 	}
 	if f.TDD.given() {
 		t := &grid.TDDPlan{
-			ReferenceSCSKHz: r.count(f.TDD.Ref, "tdd.referenceScsKHz", "TDD reference SCS", "a subcarrier spacing in kHz: "+joinInts(rangeOf(f.Range).DataSCS())),
+			ReferenceSCSKHz: r.count(f.TDD.Ref, "tdd.referenceScsKHz", "TDD reference SCS", "a subcarrier spacing in kHz: "+grid.JoinInts(rangeOf(f.Range).DataSCS())),
 			Pattern1:        r.pattern(f.TDD.P1, "tdd.pattern1", "Pattern 1"),
 		}
 		if f.TDD.P2.given() {
@@ -364,7 +365,7 @@ func (f Form) Plan() (grid.Plan, Messages) {
 			OffsetToPointA: r.count(s.Off, "ssb.offsetToPointA", "offsetToPointA", "a whole number of RBs (15 kHz in FR1, 60 kHz in FR2)"),
 			KSSB:           r.count(s.K, "ssb.kSsb", "k_SSB", "a whole number of subcarriers from 0 to 23"),
 			ScsCommonKHz:   r.count(s.Common, "ssb.scsCommonKHz", "subCarrierSpacingCommon", "60 or 120 kHz (FR2), or nothing"),
-			PeriodMs:       r.count(s.Period, "ssb.periodMs", "SS/PBCH period", "one of "+joinInts(grid.SSBPeriodsMs)+" ms"),
+			PeriodMs:       r.count(s.Period, "ssb.periodMs", "SS/PBCH period", "one of "+grid.JoinInts(grid.SSBPeriodsMs)+" ms"),
 		}
 	}
 	if e := f.Env; e.given() {
@@ -375,7 +376,7 @@ func (f Form) Plan() (grid.Plan, Messages) {
 			CarrierMHz:    r.float0(e.CarrierMHz, "environment.carrierMHz", "Carrier for Doppler", "a frequency in MHz, or nothing when the carrier has a centre"),
 		}
 	}
-	scsAllowed := "a subcarrier spacing in kHz: " + joinInts(rangeOf(f.Range).DataSCS())
+	scsAllowed := "a subcarrier spacing in kHz: " + grid.JoinInts(rangeOf(f.Range).DataSCS())
 	for i, pf := range f.Parts {
 		at := fmt.Sprintf("partitions[%d].", i)
 		p.Partitions = append(p.Partitions, grid.PartitionPlan{
@@ -412,20 +413,6 @@ func rangeOf(s string) grid.Range {
 		}
 	}
 	return grid.FR1
-}
-
-func joinInts(v []int) string {
-	s := make([]string, len(v))
-	for i, x := range v {
-		s[i] = strconv.Itoa(x)
-	}
-	switch len(s) {
-	case 0:
-		return "none"
-	case 1:
-		return s[0]
-	}
-	return strings.Join(s[:len(s)-1], ", ") + " or " + s[len(s)-1]
 }
 
 // maxNumber bounds whole numbers as the plan file does: far beyond any legal
@@ -586,19 +573,8 @@ func ftoaPtr(p *float64) string {
 // clone returns a deep copy of f.
 func (f Form) clone() Form {
 	g := f
-	g.Offset = cloneStrMap(f.Offset)
-	g.CarrierBW = cloneStrMap(f.CarrierBW)
+	g.Offset = maps.Clone(f.Offset)
+	g.CarrierBW = maps.Clone(f.CarrierBW)
 	g.Parts = slices.Clone(f.Parts)
 	return g
-}
-
-func cloneStrMap(m map[int]string) map[int]string {
-	if m == nil {
-		return nil
-	}
-	out := make(map[int]string, len(m))
-	for k, v := range m {
-		out[k] = v
-	}
-	return out
 }

@@ -697,7 +697,7 @@ func bandwidthOptions(rng grid.Range, scsInUse []int, cur string) []option {
 		if len(scsInUse) == 0 {
 			return "not a channel bandwidth of " + rng.String()
 		}
-		return "not defined for " + joinInts(scsInUse) + " kHz in " + rng.String()
+		return "not defined for " + grid.JoinInts(scsInUse) + " kHz in " + rng.String()
 	}
 	if len(vals) == 0 && len(scsInUse) > 0 {
 		// The spacings in use share no bandwidth: offer the range's, and
