@@ -217,19 +217,7 @@ window.glEdit = (id, value) => settle().then(() => new Promise((resolve, reject)
 // benchBrowser starts headless Chromium with the flags of the browser tests.
 func benchBrowser(b *testing.B, path string, width, height int) context.Context {
 	b.Helper()
-	opts := append(chromedp.DefaultExecAllocatorOptions[:],
-		chromedp.ExecPath(path),
-		chromedp.NoSandbox,
-		chromedp.DisableGPU,
-		chromedp.Flag("disable-background-networking", true),
-		chromedp.Flag("disable-component-update", true),
-		chromedp.Flag("disable-sync", true),
-		chromedp.Flag("disable-quic", true),
-		chromedp.NoFirstRun,
-		chromedp.UserDataDir(b.TempDir()),
-		chromedp.WindowSize(width, height),
-	)
-	actx, cancelAlloc := chromedp.NewExecAllocator(context.Background(), opts...)
+	actx, cancelAlloc := chromedp.NewExecAllocator(context.Background(), chromiumOptions(path, b.TempDir(), width, height)...)
 	b.Cleanup(cancelAlloc)
 	ctx, cancel := chromedp.NewContext(actx)
 	b.Cleanup(cancel)

@@ -54,19 +54,7 @@ func newTab(t *testing.T, width, height int) *tab {
 		}
 		t.Skip("Chromium is not at /usr/bin/chromium nor on PATH; install it (apt-get install chromium) to run the browser tests")
 	}
-	opts := append(chromedp.DefaultExecAllocatorOptions[:],
-		chromedp.ExecPath(path),
-		chromedp.NoSandbox,
-		chromedp.DisableGPU,
-		chromedp.Flag("disable-background-networking", true),
-		chromedp.Flag("disable-component-update", true),
-		chromedp.Flag("disable-sync", true),
-		chromedp.Flag("disable-quic", true),
-		chromedp.NoFirstRun,
-		chromedp.UserDataDir(t.TempDir()),
-		chromedp.WindowSize(width, height),
-	)
-	actx, cancelAlloc := chromedp.NewExecAllocator(context.Background(), opts...)
+	actx, cancelAlloc := chromedp.NewExecAllocator(context.Background(), chromiumOptions(path, t.TempDir(), width, height)...)
 	t.Cleanup(cancelAlloc)
 	ctx, cancel := chromedp.NewContext(actx)
 	t.Cleanup(cancel)
@@ -89,6 +77,24 @@ func newTab(t *testing.T, width, height int) *tab {
 		t.Fatal(err)
 	}
 	return tb
+}
+
+// chromiumOptions are the flags of every test and benchmark browser:
+// headless, no sandbox (the tests may run as root), no GPU, nothing
+// fetched in the background, a profile in dir.
+func chromiumOptions(path, dir string, width, height int) []chromedp.ExecAllocatorOption {
+	return append(chromedp.DefaultExecAllocatorOptions[:],
+		chromedp.ExecPath(path),
+		chromedp.NoSandbox,
+		chromedp.DisableGPU,
+		chromedp.Flag("disable-background-networking", true),
+		chromedp.Flag("disable-component-update", true),
+		chromedp.Flag("disable-sync", true),
+		chromedp.Flag("disable-quic", true),
+		chromedp.NoFirstRun,
+		chromedp.UserDataDir(dir),
+		chromedp.WindowSize(width, height),
+	)
 }
 
 // do runs actions with a time limit, failing the test on an error.
