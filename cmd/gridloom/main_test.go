@@ -141,7 +141,8 @@ func TestCheckExitCodes(t *testing.T) {
 		code        int
 		say         string
 	}{
-		{"clean demo", "", []string{"check", "../../testdata/plans/campus.yaml"}, 0, "0 errors"},
+		{"clean demo", "", []string{"check", "../../testdata/plans/campus.yaml"}, 0, "0 errors, 0 warnings, 3 partitions placed"},
+		{"one error", "", []string{"check", "../../testdata/broken/bandwidth.yaml"}, 1, "1 error, 0 warnings, 0 partitions placed"},
 		{"warnings only", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":15,"sizePrb":24},{"name":"b","scsKHz":30,"startCrb":13,"sizePrb":10}]}`,
 			[]string{"check", "-"}, 0, "numerology-gap"},
 		{"errors", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":120,"sizePrb":24}]}`, []string{"check", "-"}, 1, "scs-range"},

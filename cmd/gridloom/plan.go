@@ -116,7 +116,8 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 			warns++
 		}
 	}
-	fmt.Fprintf(stdout, "%s: %d errors, %d warnings, %d partitions placed\n", displayName(path), errs, warns, len(res.Partitions))
+	fmt.Fprintf(stdout, "%s: %s, %s, %s placed\n", displayName(path),
+		count(errs, "error", "errors"), count(warns, "warning", "warnings"), count(len(res.Partitions), "partition", "partitions"))
 	if errs > 0 {
 		return &exitError{code: exitPlanErrors}
 	}
@@ -211,4 +212,12 @@ func truncateRunes(s string, n int) string {
 		return s
 	}
 	return string([]rune(s)[:n])
+}
+
+// count says n things: "1 error", "2 errors".
+func count(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return fmt.Sprintf("%d %s", n, many)
 }
