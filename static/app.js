@@ -53,6 +53,7 @@
   let seq = 0; // number of the latest request; older answers are dropped
   let typing = false; // the current burst of typing has its history entry
   let swapping = false; // the form is being replaced: its events are not edits
+  let moves = 0; // steps the user has taken in the history (popstate events)
 
   // liveForm is the form that the page keeps live, if it has one.
   const liveForm = () => document.querySelector('form[data-live]');
@@ -136,10 +137,10 @@
     }
     // An edit of a value: the form's notes, the address and the title
     // follow the repaint (the browser takes its time over the last two).
-    const here = location.href;
+    const moved = moves;
     afterPaint(() => {
       if (mine === seq) applyForm(parse(text.slice(cut)), { full: false, commit, keepOpen: true });
-      if (location.href !== here) return; // the user has moved in the history meanwhile
+      if (moves !== moved) return; // the user has moved in the history meanwhile
       record(url, { commit });
       if (work.dataset.title) document.title = work.dataset.title;
     });
@@ -401,6 +402,7 @@
   });
 
   window.addEventListener('popstate', () => {
+    moves++;
     if (byId('gl-walk')) return; // the walkthrough keeps its own history
     typing = false;
     if (location.search.length <= 1) {
