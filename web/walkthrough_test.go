@@ -2,25 +2,15 @@ package web
 
 import (
 	"fmt"
-	"os"
 	"strings"
 	"testing"
 
 	"gridloom/grid"
-	"gridloom/grid/planfile"
 )
 
 func computeFile(t *testing.T, path string) grid.Result {
 	t.Helper()
-	data, err := os.ReadFile(path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	p, err := planfile.Decode(data)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return grid.Compute(p)
+	return grid.Compute(loadPlanFile(t, path))
 }
 
 // The walkthrough is made from the plan's numbers: each step says what the
