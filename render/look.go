@@ -125,6 +125,18 @@ func tileRect(t float64) pathData {
 	return pathOf(func(p *pathData) { p.rect(0, 0, t, t) })
 }
 
+// risingHatch draws the rising diagonal of a tile t wide and the stubs of
+// its neighbours' diagonals in two corners, o past the tile's edge, so
+// that the tiles join into unbroken lines.
+func risingHatch(p *pathData, t, o float64) {
+	p.moveTo(0, t)
+	p.lineTo(t, 0)
+	p.moveTo(-o, o)
+	p.lineTo(o, -o)
+	p.moveTo(t-o, t+o)
+	p.lineTo(t+o, t-o)
+}
+
 // partFill is pattern i: a tint of the partition's colour (none in print)
 // under marks of one of fillKinds shapes in that colour.
 func (lk *look) partFill(i int) pattern {
@@ -146,14 +158,7 @@ func (lk *look) partFill(i int) pattern {
 	mark := solid(c).withAlpha(lk.markA)
 	switch i % fillKinds {
 	case 0: // rising hatch
-		line(func(p *pathData) {
-			p.moveTo(0, t)
-			p.lineTo(t, 0)
-			p.moveTo(-2, 2)
-			p.lineTo(2, -2)
-			p.moveTo(t-2, t+2)
-			p.lineTo(t+2, t-2)
-		})
+		line(func(p *pathData) { risingHatch(p, t, 2) })
 	case 1: // dots; in print larger, to stand apart from the unused spectrum's
 		r := max(1, int(t)/6)
 		if lk.tintA == 0 {
@@ -208,14 +213,7 @@ func (lk *look) partFill(i int) pattern {
 func (lk *look) outsideFill() pattern {
 	return pattern{id: "gl-outside", tile: 6, shapes: []shape{
 		{d: tileRect(6), fill: solid(lk.outsideGround)},
-		{d: pathOf(func(p *pathData) {
-			p.moveTo(0, 6)
-			p.lineTo(6, 0)
-			p.moveTo(-1, 1)
-			p.lineTo(1, -1)
-			p.moveTo(5, 7)
-			p.lineTo(7, 5)
-		}), stroke: solid(lk.outsideLines), strokeW: 0.7},
+		{d: pathOf(func(p *pathData) { risingHatch(p, 6, 1) }), stroke: solid(lk.outsideLines), strokeW: 0.7},
 	}}
 }
 
@@ -242,13 +240,6 @@ func (lk *look) guardFill() pattern {
 func (lk *look) uplinkFill() pattern {
 	return pattern{id: "gl-tdd-hatch", tile: 4, shapes: []shape{
 		{d: tileRect(4), fill: solid(white)},
-		{d: pathOf(func(p *pathData) {
-			p.moveTo(0, 4)
-			p.lineTo(4, 0)
-			p.moveTo(-1, 1)
-			p.lineTo(1, -1)
-			p.moveTo(3, 5)
-			p.lineTo(5, 3)
-		}), stroke: solid(lk.tddUHatch), strokeW: 0.8},
+		{d: pathOf(func(p *pathData) { risingHatch(p, 4, 1) }), stroke: solid(lk.tddUHatch), strokeW: 0.8},
 	}}
 }
