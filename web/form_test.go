@@ -43,27 +43,32 @@ func mustQuery(t *testing.T, q string) url.Values {
 	return v
 }
 
+// roundTrip checks that p written as a page query reads back, without a
+// message, to p, and that writing it again gives the same query.
+func roundTrip(t *testing.T, p grid.Plan) {
+	t.Helper()
+	q := FormOf(p).Query()
+	f, qmsgs := ParseQuery(mustQuery(t, q))
+	if len(qmsgs) > 0 {
+		t.Fatalf("ParseQuery(%q) messages: %v", q, qmsgs)
+	}
+	got, msgs := f.Plan()
+	if len(msgs) > 0 {
+		t.Fatalf("Plan of %q: messages %v", q, msgs)
+	}
+	if !reflect.DeepEqual(got, p) {
+		t.Errorf("plan → query → plan changed the plan:\nquery %s\ngot  %+v\nwant %+v", q, got, p)
+	}
+	if q2 := FormOf(got).Query(); q2 != q {
+		t.Errorf("query → plan → query is not stable:\ngot  %s\nwant %s", q2, q)
+	}
+}
+
 // TestRoundTripDemoPlans: a plan written as a page query reads back to the
 // same plan, and writing that plan again gives the same query.
 func TestRoundTripDemoPlans(t *testing.T) {
 	for name, p := range demoPlans(t) {
-		t.Run(name, func(t *testing.T) {
-			q := FormOf(p).Query()
-			f, qmsgs := ParseQuery(mustQuery(t, q))
-			if len(qmsgs) > 0 {
-				t.Fatalf("ParseQuery(%q) messages: %v", q, qmsgs)
-			}
-			got, msgs := f.Plan()
-			if len(msgs) > 0 {
-				t.Fatalf("Plan of %q: messages %v", q, msgs)
-			}
-			if !reflect.DeepEqual(got, p) {
-				t.Errorf("plan → query → plan changed the plan:\nquery %s\ngot  %+v\nwant %+v", q, got, p)
-			}
-			if q2 := FormOf(got).Query(); q2 != q {
-				t.Errorf("query → plan → query is not stable:\ngot  %s\nwant %s", q2, q)
-			}
-		})
+		t.Run(name, func(t *testing.T) { roundTrip(t, p) })
 	}
 }
 
@@ -89,20 +94,7 @@ func TestRoundTripPlans(t *testing.T) {
 		"an environment of zeros": {Environment: &grid.EnvironmentPlan{}, Partitions: []grid.PartitionPlan{{Name: "a"}}},
 	}
 	for name, p := range cases {
-		t.Run(name, func(t *testing.T) {
-			q := FormOf(p).Query()
-			f, _ := ParseQuery(mustQuery(t, q))
-			got, msgs := f.Plan()
-			if len(msgs) > 0 {
-				t.Fatalf("Plan of %q: messages %v", q, msgs)
-			}
-			if !reflect.DeepEqual(got, p) {
-				t.Errorf("plan → query → plan changed the plan:\nquery %s\ngot  %+v\nwant %+v", q, got, p)
-			}
-			if q2 := FormOf(got).Query(); q2 != q {
-				t.Errorf("not stable:\ngot  %s\nwant %s", q2, q)
-			}
-		})
+		t.Run(name, func(t *testing.T) { roundTrip(t, p) })
 	}
 }
 
