@@ -29,26 +29,32 @@ func TestFigureGolden(t *testing.T) {
 				name = theme.String() + "-" + name
 			}
 			t.Run(name, func(t *testing.T) {
-				got := figure(t, r, Options{Theme: theme})
-				golden := filepath.Join(goldenDir, name+".svg")
-				if *update {
-					if err := os.MkdirAll(goldenDir, 0o755); err != nil {
-						t.Fatal(err)
-					}
-					if err := os.WriteFile(golden, got, 0o644); err != nil {
-						t.Fatal(err)
-					}
-					return
-				}
-				want, err := os.ReadFile(golden)
-				if err != nil {
-					t.Fatalf("%v (run go test ./render -update to create it)", err)
-				}
-				if !bytes.Equal(got, want) {
-					t.Errorf("figure of %s differs from %s (go test ./render -update rewrites it):\n%s", path, golden, lineDiff(got, want, 5))
-				}
+				checkGolden(t, name+".svg", figure(t, r, Options{Theme: theme}))
 			})
 		}
+	}
+}
+
+// checkGolden compares a figure with the golden file name in goldenDir,
+// or with -update writes it there.
+func checkGolden(t *testing.T, name string, got []byte) {
+	t.Helper()
+	golden := filepath.Join(goldenDir, name)
+	if *update {
+		if err := os.MkdirAll(goldenDir, 0o755); err != nil {
+			t.Fatal(err)
+		}
+		if err := os.WriteFile(golden, got, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		return
+	}
+	want, err := os.ReadFile(golden)
+	if err != nil {
+		t.Fatalf("%v (run go test ./render -update to create it)", err)
+	}
+	if !bytes.Equal(got, want) {
+		t.Errorf("the figure differs from %s (go test ./render -update rewrites it):\n%s", golden, lineDiff(got, want, 5))
 	}
 }
 

@@ -2,8 +2,6 @@ package render
 
 import (
 	"bytes"
-	"os"
-	"path/filepath"
 	"regexp"
 	"strings"
 	"testing"
@@ -214,18 +212,5 @@ func TestCompareGolden(t *testing.T) {
 	ra, rb := compute(t, loadPlan(t, comparePlanA)), compute(t, loadPlan(t, comparePlanB))
 	got := figure(t, ra, Options{Theme: ThemePrint, Window: FitWindow(ra).Union(FitWindow(rb)),
 		Caption: "Figure 2a. One 30 kHz partition, on the scales of the 15 + 60 kHz split beside it."})
-	golden := filepath.Join(goldenDir, "print-compare-a.svg")
-	if *update {
-		if err := os.WriteFile(golden, got, 0o644); err != nil {
-			t.Fatal(err)
-		}
-		return
-	}
-	want, err := os.ReadFile(golden)
-	if err != nil {
-		t.Fatalf("%v (run go test ./render -update to create it)", err)
-	}
-	if !bytes.Equal(got, want) {
-		t.Errorf("the compare figure differs from %s (go test ./render -update rewrites it):\n%s", golden, lineDiff(got, want, 5))
-	}
+	checkGolden(t, "print-compare-a.svg", got)
 }
