@@ -1,6 +1,7 @@
 package web
 
 import (
+	"cmp"
 	"fmt"
 	"log/slog"
 	"math"
@@ -431,7 +432,7 @@ func guardsOf(r grid.Result) (low, high, unused grid.Hz) {
 	for _, l := range r.Partitions {
 		spans = append(spans, [2]grid.Hz{max(l.Low, lo), min(l.High, hi)})
 	}
-	slices.SortFunc(spans, func(a, b [2]grid.Hz) int { return compareHz(a[0], b[0]) })
+	slices.SortFunc(spans, func(a, b [2]grid.Hz) int { return cmp.Compare(a[0], b[0]) })
 	reach := lo
 	for _, s := range spans {
 		if s[0] > reach {
@@ -486,7 +487,7 @@ func diffTotals(a, b state) []diffRow {
 			return 0, false
 		}
 		return slices.MinFunc(d.Partitions, func(x, y grid.JSONPartition) int {
-			return compareFloat(x.SlotUs, y.SlotUs)
+			return cmp.Compare(x.SlotUs, y.SlotUs)
 		}).SlotUs, true
 	}
 	if sa, okA := shortest(da); okA {
@@ -534,16 +535,6 @@ func diffTotals(a, b state) []diffRow {
 	num("Warnings", count(a, grid.Warning), count(b, grid.Warning), 0)
 	num("Notes", count(a, grid.Info), count(b, grid.Info), 0)
 	return rows
-}
-
-func compareFloat(a, b float64) int {
-	switch {
-	case a < b:
-		return -1
-	case a > b:
-		return 1
-	}
-	return 0
 }
 
 // diffPartitions matches the partitions of the two plans by name, in A's

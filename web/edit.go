@@ -1,6 +1,7 @@
 package web
 
 import (
+	"cmp"
 	"fmt"
 	"slices"
 	"strconv"
@@ -164,22 +165,12 @@ func newPartition(f Form, res grid.Result) PartForm {
 		}
 	}
 	if bestLen == 0 {
-		top := slices.MaxFunc(res.Partitions, func(a, b grid.Lattice) int { return compareHz(a.High, b.High) })
+		top := slices.MaxFunc(res.Partitions, func(a, b grid.Lattice) int { return cmp.Compare(a.High, b.High) })
 		bestStart, bestLen = firstCRBAbove(scs, top.High), 1
 	}
 	np.Start = strconv.Itoa(bestStart)
 	np.Size = strconv.Itoa(bestLen)
 	return np
-}
-
-func compareHz(a, b grid.Hz) int {
-	switch {
-	case a < b:
-		return -1
-	case a > b:
-		return 1
-	}
-	return 0
 }
 
 // firstCRBAbove is the lowest CRB of a spacing whose lower edge is at or above f.
