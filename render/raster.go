@@ -128,10 +128,7 @@ func (pa *painter) fill(dst *image.RGBA, o *outline, p paint, grow bool) {
 		return
 	}
 	w, h := r.Dx(), r.Dy()
-	if cap(pa.mask) < w*h {
-		pa.mask = make([]byte, w*h)
-	}
-	mask := &image.Alpha{Pix: pa.mask[:w*h], Stride: w, Rect: image.Rect(0, 0, w, h)}
+	mask := scratchAlpha(&pa.mask, w, h)
 	if len(o.groups) <= 1 {
 		pa.raster(mask, o.segs, r.Min)
 	} else {
@@ -205,10 +202,7 @@ func (pa *painter) rasterMax(m *image.Alpha, segs []oseg, r image.Rectangle) {
 		return
 	}
 	w, h := gr.Dx(), gr.Dy()
-	if cap(pa.part) < w*h {
-		pa.part = make([]byte, w*h)
-	}
-	part := &image.Alpha{Pix: pa.part[:w*h], Stride: w, Rect: image.Rect(0, 0, w, h)}
+	part := scratchAlpha(&pa.part, w, h)
 	pa.raster(part, segs, gr.Min)
 	for y := range h {
 		row := m.Pix[(gr.Min.Y-r.Min.Y+y)*m.Stride+(gr.Min.X-r.Min.X):]
@@ -454,4 +448,14 @@ func (pa *painter) label(dst *image.RGBA, l *label) {
 		pa.fill(dst, o, solid(white), true)
 	}
 	pa.fill(dst, o, solid(l.fill), false)
+}
+
+// scratchAlpha is a w×h alpha image over *buf, which grows when it is too
+// small and is otherwise reused as it is: the caller clears or overwrites
+// what it reads.
+func scratchAlpha(buf *[]byte, w, h int) *image.Alpha {
+	if cap(*buf) < w*h {
+		*buf = make([]byte, w*h)
+	}
+	return &image.Alpha{Pix: (*buf)[:w*h], Stride: w, Rect: image.Rect(0, 0, w, h)}
 }
