@@ -124,6 +124,7 @@
       trouble('The server sent something that is not the planner; press Update to try again.');
       return;
     }
+    stamp('parsed');
     trouble('');
     showResults(work);
     stamp('shown');
@@ -153,7 +154,7 @@
   }
 
   // stamp leaves a performance mark (gl:sent, gl:answered, gl:read,
-  // gl:shown) for the profiler and the browser benchmark.
+  // gl:parsed, gl:shown) for the profiler and the browser benchmark.
   // Only the latest of each is kept.
   function stamp(name) {
     if (!performance.mark) return;

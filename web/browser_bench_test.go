@@ -130,9 +130,9 @@ var quiet = chromedp.Func(func(ctx context.Context, t *chromedp.Target) error {
 
 // editMetrics names what glEdit measures, in its order, all in ms from
 // the change event: the end of the swap, the repaint, and the page
-// script's marks (static/app.js): the answer's headers, its body read, the
-// results shown.
-var editMetrics = []string{"swap", "repaint", "sent", "answered", "read", "shown"}
+// script's marks (static/app.js): the answer's headers, its body read, its
+// results parsed, the results shown.
+var editMetrics = []string{"swap", "repaint", "sent", "answered", "read", "parsed", "shown"}
 
 // reportEdits reports the median of each metric over the edits, and the
 // 90th percentile of the repaint.
@@ -202,7 +202,7 @@ window.glEdit = (id, value) => settle().then(() => new Promise((resolve, reject)
     const swap = performance.now() - t0;
     const redrawn = plot().innerHTML !== figureBefore;
     const at = (name) => { const m = performance.getEntriesByName('gl:' + name, 'mark').pop(); return m ? m.startTime - t0 : -1; };
-    const steps = [at('sent'), at('answered'), at('read'), at('shown')];
+    const steps = [at('sent'), at('answered'), at('read'), at('parsed'), at('shown')];
     performance.clearMarks();
     requestAnimationFrame(() => setTimeout(() => {
       if (!redrawn) reject(new Error('the table shows ' + value + ' but the figure is as before'));
