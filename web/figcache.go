@@ -2,7 +2,6 @@ package web
 
 import (
 	"bytes"
-	"compress/gzip"
 	"container/list"
 	"net/http"
 	"strings"
@@ -85,24 +84,13 @@ func cached(c *responseCache, next http.Handler) http.Handler {
 		}
 		e := &cachedResponse{query: r.URL.RawQuery, header: rec.header, body: rec.body.Bytes()}
 		var gz bytes.Buffer
-		zw := gzipWriters.Get().(*gzip.Writer)
-		zw.Reset(&gz)
-		_, _ = zw.Write(e.body)
-		if zw.Close() == nil {
+		if gzipBytes(&gz, e.body) == nil {
 			e.gz = gz.Bytes()
 		}
-		gzipWriters.Put(zw)
 		c.put(e)
 		e.send(w, r)
 	})
 }
-
-// gzipWriters are kept for reuse: a new one allocates the compressor's
-// tables, which costs more than compressing a figure.
-var gzipWriters = sync.Pool{New: func() any {
-	zw, _ := gzip.NewWriterLevel(nil, compressLevel)
-	return zw
-}}
 
 // send writes the kept answer, gzip-compressed when the client takes it.
 func (e *cachedResponse) send(w http.ResponseWriter, r *http.Request) {

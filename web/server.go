@@ -20,7 +20,6 @@
 package web
 
 import (
-	"bytes"
 	"cmp"
 	"compress/gzip"
 	"crypto/sha256"
@@ -32,6 +31,7 @@ import (
 	"net/http"
 	"path"
 	"runtime/debug"
+	"strconv"
 	"strings"
 	"sync"
 	"time"
@@ -307,10 +307,14 @@ func hashAssets(fsys fs.FS) map[string]string {
 }
 
 // writeHTML renders c into memory and sends it with status, so that a
-// template failure sends a clean 500 and never half a page.
+// template failure sends a clean 500 and never half a page. It compresses
+// the page itself, when the client takes gzip, and sends it in one write
+// with its length: the browser then reads the answer in one piece rather
+// than as the compressor's chunks.
 func writeHTML(w http.ResponseWriter, r *http.Request, logger *slog.Logger, status int, c templ.Component, styleSources []string) {
-	var buf bytes.Buffer
-	if err := c.Render(r.Context(), &buf); err != nil {
+	buf := getBuffer()
+	defer putBuffer(buf)
+	if err := c.Render(r.Context(), buf); err != nil {
 		if r.Context().Err() != nil {
 			return // the client went away (templ stops on a done context): no one to answer, nothing broken
 		}
@@ -322,6 +326,17 @@ func writeHTML(w http.ResponseWriter, r *http.Request, logger *slog.Logger, stat
 	h.Set("Content-Security-Policy", pagePolicy(styleSources))
 	h.Set("Content-Type", "text/html; charset=utf-8")
 	h.Set("Cache-Control", "no-cache")
+	body := buf.Bytes()
+	if acceptsGzip(r) {
+		gz := getBuffer()
+		defer putBuffer(gz)
+		if gzipBytes(gz, body) == nil {
+			h.Set("Content-Encoding", "gzip")
+			body = gz.Bytes()
+		}
+	}
+	h.Add("Vary", "Accept-Encoding")
+	h.Set("Content-Length", strconv.Itoa(len(body)))
 	w.WriteHeader(status)
-	_, _ = w.Write(buf.Bytes())
+	_, _ = w.Write(body)
 }
