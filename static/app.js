@@ -36,6 +36,8 @@
   const BUSY_AFTER_MS = 150;
   // EDITOR_MARK is where a fragment's form begins (after its results).
   const EDITOR_MARK = '<!--gl-editor-->';
+  // PART_MARK comes before each part of the results (one element each).
+  const PART_MARK = '<!--gl-part-->';
 
   // TS 38.211 4.1 and 5.3.1, in Tc = 1/(480 kHz · 4096).
   const KAPPA = 64;
@@ -54,6 +56,7 @@
   let typing = false; // the current burst of typing has its history entry
   let swapping = false; // the form is being replaced: its events are not edits
   let moves = 0; // steps the user has taken in the history (popstate events)
+  let shownParts = null; // the text of each part of the results shown, split at PART_MARK
 
   // liveForm is the form that the page keeps live, if it has one.
   const liveForm = () => document.querySelector('form[data-live]');
@@ -119,14 +122,19 @@
     // without waiting for it.
     const cut = text.indexOf(EDITOR_MARK);
     const full = op !== null || fromHistory;
-    const work = parse(full || cut < 0 ? text : text.slice(0, cut)).getElementById('gl-work');
+    const parts = cut < 0 ? null : text.slice(0, cut).split(PART_MARK);
+    let work = full ? null : showParts(parts);
     if (!work) {
-      trouble('The server sent something that is not the planner; press Update to try again.');
-      return;
+      work = parse(full || cut < 0 ? text : text.slice(0, cut)).getElementById('gl-work');
+      if (!work) {
+        trouble('The server sent something that is not the planner; press Update to try again.');
+        return;
+      }
+      stamp('parsed');
+      showResults(work);
+      shownParts = parts;
     }
-    stamp('parsed');
     trouble('');
-    showResults(work);
     stamp('shown');
     const url = form.dataset.page + '?' + (work.dataset.query || '');
     if (full || cut < 0) {
@@ -213,6 +221,40 @@
       morph(results, fresh);
       resetReadout();
     }
+  }
+
+  // showParts brings the results in line with parts, the text of the new
+  // results split at PART_MARK, parsing only the parts whose text differs
+  // from the one shown: a 40 KiB parse becomes one of the figure and a
+  // table or two. It returns the fragment's workspace element (its data
+  // without its content), or null when the parts do not line up with
+  // those shown (the first update, a table come or gone): the caller then
+  // parses everything. The figure's part is always brought in line, since
+  // the page script marks it up when it is pointed at.
+  function showParts(parts) {
+    const results = byId('gl-results');
+    if (!parts || !shownParts || !results || parts.length < 2 || parts.length !== shownParts.length ||
+        results.children.length !== parts.length - 1) return null;
+    const work = parse(parts[0]).getElementById('gl-work');
+    const fresh = work && work.querySelector('#gl-results');
+    if (!fresh) return null;
+    const changed = [];
+    for (let i = 1; i < parts.length; i++) {
+      const cur = results.children[i - 1];
+      if (parts[i] === shownParts[i] && !cur.querySelector('#gl-figure')) continue;
+      const f = parse(parts[i]).firstElementChild;
+      if (!f) return null;
+      changed.push([cur, f]);
+    }
+    stamp('parsed');
+    syncAttrs(results, fresh);
+    for (const [cur, f] of changed) {
+      if (sameNode(cur, f)) morph(cur, f);
+      else cur.replaceWith(document.adoptNode(f));
+    }
+    resetReadout();
+    shownParts = parts;
+    return work;
   }
 
   // applyForm brings the forms in line with the server's rendering (in

@@ -48,6 +48,12 @@ func handlePage(logger *slog.Logger, cfg Config) http.HandlerFunc {
 // it has read them and brings the forms up to date a frame later.
 const editorMark = "<!--gl-editor-->"
 
+// partMark comes before each part of the results (the status bar, the
+// figure, each table...), one element each: the page script (PART_MARK in
+// static/app.js) compares each part's text with the one it shows and
+// parses only the parts that changed.
+const partMark = "<!--gl-part-->"
+
 // handleFragment serves the workspace of the planner alone — figure,
 // tables, findings, then editorMark and the form — for the page script to
 // bring the page up to date with after an edit. It
