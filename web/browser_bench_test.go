@@ -1,10 +1,17 @@
 package web
 
 import (
+	"bytes"
 	"context"
+	"encoding/json"
+	"flag"
 	"fmt"
 	"net/http/httptest"
+	"os"
+	"path/filepath"
 	"slices"
+	"strings"
+	"sync"
 	"testing"
 	"time"
 
@@ -12,6 +19,7 @@ import (
 	"github.com/chromedp/cdproto/css"
 	"github.com/chromedp/cdproto/dom"
 	"github.com/chromedp/cdproto/network"
+	"github.com/chromedp/cdproto/tracing"
 	"github.com/chromedp/chromedp"
 )
 
@@ -29,7 +37,9 @@ import (
 //
 // repaint-ms-median and repaint-ms-p90 are over all edits of the run;
 // swap-ms-median stops at the swap, before the frame. The floor
-// sub-benchmark times an edit that costs nothing the same way.
+// sub-benchmark times an edit that costs nothing the same way. With
+// -edit-trace FILE each plan's measured edits are also recorded as a
+// Chromium trace (see editTrace).
 func BenchmarkBrowserRepaint(b *testing.B) {
 	path := chromiumPath()
 	if path == "" {
@@ -79,10 +89,12 @@ func BenchmarkBrowserRepaint(b *testing.B) {
 			for range 10 { // warm-up: the script's compiler, the style and the fetch path
 				next()
 			}
+			stop := startTrace(b, ctx, name)
 			var edits [][]float64
 			for b.Loop() {
 				edits = append(edits, next())
 			}
+			stop()
 			reportEdits(b, edits, editMetrics)
 		})
 	}
@@ -112,6 +124,86 @@ func BenchmarkBrowserRepaint(b *testing.B) {
 		}
 		reportEdits(b, edits, editMetrics[:2])
 	})
+}
+
+var editTrace = flag.String("edit-trace", "", "BenchmarkBrowserRepaint: record each plan's measured edits as a Chromium trace in this file, the plan's name added before the extension")
+
+// startTrace starts recording a Chromium trace of the tab when
+// -edit-trace is set, and returns the function that stops it and writes
+// the trace. The file opens in Perfetto (ui.perfetto.dev) or
+// chrome://tracing: the page's gl: marks show each edit on the renderer's
+// main thread beside the frames, the parsing and the network. Tracing
+// slows the browser, so the metrics of a traced run are not comparable.
+func startTrace(b *testing.B, ctx context.Context, plan string) (stop func()) {
+	if *editTrace == "" {
+		return func() {}
+	}
+	var mu sync.Mutex
+	var events []json.RawMessage
+	done := make(chan struct{})
+	var once sync.Once
+	err := chromedp.Listen(ctx, func(ev any) {
+		switch e := ev.(type) {
+		case *tracing.EventDataCollected:
+			mu.Lock()
+			for _, v := range e.Value {
+				if raw, err := json.Marshal(v); err == nil {
+					events = append(events, raw)
+				}
+			}
+			mu.Unlock()
+		case *tracing.EventTracingComplete:
+			once.Do(func() { close(done) })
+		}
+	})
+	if err != nil {
+		b.Fatalf("listening for the trace: %v", err)
+	}
+	call := func(what string, f func(ctx context.Context, t *chromedp.Target) error) {
+		c, cancel := context.WithTimeout(ctx, 30*time.Second)
+		defer cancel()
+		if err := chromedp.Do(c, chromedp.Func(f)); err != nil {
+			b.Fatalf("%s the trace: %v", what, err)
+		}
+	}
+	call("starting", func(ctx context.Context, t *chromedp.Target) error {
+		_, err := cdp.Call(ctx, t, tracing.Start, tracing.StartParams{
+			TransferMode: tracing.StartTransferModeReportEvents,
+			TraceConfig: &tracing.TraceConfig{IncludedCategories: []string{
+				"devtools.timeline", "disabled-by-default-devtools.timeline", "toplevel",
+				"blink", "blink.user_timing", "loading", "v8", "cc", "viz", "netlog",
+			}},
+		})
+		return err
+	})
+	return func() {
+		call("ending", func(ctx context.Context, t *chromedp.Target) error {
+			_, err := cdp.Call(ctx, t, tracing.End, cdp.Empty{})
+			return err
+		})
+		select {
+		case <-done:
+		case <-time.After(30 * time.Second):
+			b.Fatal("the trace did not complete within 30 s")
+		}
+		mu.Lock()
+		defer mu.Unlock()
+		var out bytes.Buffer
+		out.WriteString(`{"traceEvents":[`)
+		for i, e := range events {
+			if i > 0 {
+				out.WriteString(",\n")
+			}
+			out.Write(e)
+		}
+		out.WriteString("]}\n")
+		ext := filepath.Ext(*editTrace)
+		file := strings.TrimSuffix(*editTrace, ext) + "-" + plan + ext
+		if err := os.WriteFile(file, out.Bytes(), 0o644); err != nil {
+			b.Fatal(err)
+		}
+		b.Logf("trace of %d events in %s", len(events), file)
+	}
 }
 
 // quiet turns off the DevTools domains that chromedp enables on a tab and
