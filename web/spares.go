@@ -37,9 +37,10 @@ func (s *spares[T]) put(v T) {
 	}
 }
 
-// gzipWriters are the compressors of pages and figures; four cover the
-// requests a local app serves at once.
-var gzipWriters = newSpares(4, func() *gzip.Writer {
+// gzipWriters are the compressors of pages and figures; two cover the
+// requests a local app serves at once (a busier moment makes more, and
+// drops them after).
+var gzipWriters = newSpares(2, func() *gzip.Writer {
 	zw, _ := gzip.NewWriterLevel(nil, compressLevel)
 	return zw
 })
@@ -56,8 +57,9 @@ func gzipBytes(dst *bytes.Buffer, b []byte) error {
 }
 
 // buffers hold pages while they are rendered and compressed: a fragment
-// grows one to 60-70 KiB and its gzip form to 16 KiB.
-var buffers = newSpares(8, func() *bytes.Buffer { return new(bytes.Buffer) })
+// grows one to 60-70 KiB and its gzip form to 16 KiB; four serve two
+// requests at once.
+var buffers = newSpares(4, func() *bytes.Buffer { return new(bytes.Buffer) })
 
 func getBuffer() *bytes.Buffer {
 	b := buffers.get()
@@ -65,10 +67,10 @@ func getBuffer() *bytes.Buffer {
 	return b
 }
 
-// putBuffer keeps b unless it grew past 512 KiB (a page far above the
+// putBuffer keeps b unless it grew past 256 KiB (a page far above the
 // usual), so that a rare large answer does not stay in memory for good.
 func putBuffer(b *bytes.Buffer) {
-	if b.Cap() <= 512<<10 {
+	if b.Cap() <= 256<<10 {
 		buffers.put(b)
 	}
 }
