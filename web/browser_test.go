@@ -225,12 +225,19 @@ func TestBrowserLiveEdit(t *testing.T) {
 // lose its own. Each round changes the second partition's size twice in
 // a row; the address must end with the second value.
 func TestBrowserQuickEdits(t *testing.T) {
+	checkPageScript(t, quickEdits)
+}
+
+// checkPageScript opens the startup plan and runs script, a promise that
+// resolves with "" or with what went wrong, in the page.
+func checkPageScript(t *testing.T, script string) {
+	t.Helper()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1440, 1000)
 	tb.open(srv.URL + "/")
 	ctx, cancel := context.WithTimeout(tb.ctx, 60*time.Second)
 	defer cancel()
-	got, err := chromedp.Run(ctx, chromedp.Evaluate[string](quickEdits, chromedp.EvalAwaitPromise))
+	got, err := chromedp.Run(ctx, chromedp.Evaluate[string](untilJS+script, chromedp.EvalAwaitPromise))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -240,18 +247,22 @@ func TestBrowserQuickEdits(t *testing.T) {
 	tb.checkConsole()
 }
 
+// untilJS defines until(ok, ms): a promise of whether ok() holds within ms.
+const untilJS = `
+const until = async (ok, ms) => {
+  for (const end = performance.now() + ms; performance.now() < end; ) {
+    if (ok()) return true;
+    await new Promise((r) => setTimeout(r, 10));
+  }
+  return ok();
+};
+`
+
 // quickEdits resolves with "" or with what went wrong.
 const quickEdits = `(async () => {
   const shown = () => document.querySelector('[data-testid=spectrum-table] tbody tr:nth-child(2) td:nth-child(2)').textContent;
   const el = document.getElementById('f-p1-size');
   const edit = (v) => { el.value = v; el.dispatchEvent(new Event('change', { bubbles: true })); };
-  const until = async (ok, ms) => {
-    for (const end = performance.now() + ms; performance.now() < end; ) {
-      if (ok()) return true;
-      await new Promise((r) => setTimeout(r, 10));
-    }
-    return ok();
-  };
   for (let round = 0; round < 8; round++) {
     const first = String(30 + 2 * round), second = String(31 + 2 * round);
     await new Promise((resolve) => {
@@ -280,32 +291,13 @@ const quickEdits = `(async () => {
 // untouched (bringing it in line would remove it). Sending one block
 // instead of four then changes that table, and it is brought in line.
 func TestBrowserKeepsUnchangedParts(t *testing.T) {
-	srv, _ := newTestServer(t, testConfig(t))
-	tb := newTab(t, 1440, 1000)
-	tb.open(srv.URL + "/")
-	ctx, cancel := context.WithTimeout(tb.ctx, 60*time.Second)
-	defer cancel()
-	got, err := chromedp.Run(ctx, chromedp.Evaluate[string](keptParts, chromedp.EvalAwaitPromise))
-	if err != nil {
-		t.Fatal(err)
-	}
-	if got != "" {
-		t.Error(got)
-	}
-	tb.checkConsole()
+	checkPageScript(t, keptParts)
 }
 
 // keptParts resolves with "" or with what went wrong.
 const keptParts = `(async () => {
   const q = (sel) => document.querySelector(sel);
   const size = () => q('[data-testid=spectrum-table] tbody tr:nth-child(2) td:nth-child(2)').textContent;
-  const until = async (ok, ms) => {
-    for (const end = performance.now() + ms; performance.now() < end; ) {
-      if (ok()) return true;
-      await new Promise((r) => setTimeout(r, 10));
-    }
-    return ok();
-  };
   const edit = (id, v) => { const el = document.getElementById(id); el.value = v; el.dispatchEvent(new Event('change', { bubbles: true })); };
   const ssb = () => q('[data-testid=ssb-table]');
   if (!ssb()) return 'the startup plan has no SS/PBCH table';
