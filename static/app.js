@@ -117,15 +117,16 @@
     // A template parses the fragment inert (no script runs, nothing loads)
     // and faster than DOMParser, which builds a whole document. The
     // fragment holds the results first and the form after EDITOR_MARK: the
-    // results are parsed and shown at once, the form, unless it must be
-    // rebuilt now, after the next frame, so that the new figure is painted
-    // without waiting for it.
+    // results (the parts that changed, see showParts) are parsed and shown
+    // at once, the form, unless it must be rebuilt now, after the next
+    // frame, so that the new figure is painted without waiting for it.
     const cut = text.indexOf(EDITOR_MARK);
     const full = op !== null || fromHistory;
-    const parts = cut < 0 ? null : text.slice(0, cut).split(PART_MARK);
-    let work = full ? null : showParts(parts);
+    const head = cut < 0 ? text : text.slice(0, cut);
+    const parts = cut < 0 ? null : head.split(PART_MARK);
+    let work = showParts(parts);
     if (!work) {
-      work = parse(full || cut < 0 ? text : text.slice(0, cut)).getElementById('gl-work');
+      work = parse(head).getElementById('gl-work');
       if (!work) {
         trouble('The server sent something that is not the planner; press Update to try again.');
         return;
@@ -138,7 +139,7 @@
     stamp('shown');
     const url = form.dataset.page + '?' + (work.dataset.query || '');
     if (full || cut < 0) {
-      applyForm(work, { full, commit, keepOpen: !fromHistory });
+      applyForm(cut < 0 ? work : parse(text.slice(cut)), { full, commit, keepOpen: !fromHistory });
       if (work.dataset.focus) focusControl(work.dataset.focus);
       if (!fromHistory) record(url, { commit });
       if (work.dataset.title) document.title = work.dataset.title;
@@ -228,8 +229,8 @@
   // from the one shown: a 40 KiB parse becomes one of the figure and a
   // table or two. It returns the fragment's workspace element (its data
   // without its content), or null when the parts do not line up with
-  // those shown (the first update, a table come or gone): the caller then
-  // parses everything. The figure's part is always brought in line, since
+  // those shown (the first update, a table come or gone, a fragment
+  // without parts): the caller then parses all the results. The figure's part is always brought in line, since
   // the page script marks it up when it is pointed at.
   function showParts(parts) {
     const results = byId('gl-results');
