@@ -53,15 +53,7 @@ func BenchmarkBrowserRepaint(b *testing.B) {
 	for _, name := range names {
 		b.Run(name, func(b *testing.B) {
 			ctx := benchTab(b, browser, 1440, 1000)
-			run := func(what string, a chromedp.Action[chromedp.Void]) {
-				b.Helper()
-				c, cancel := context.WithTimeout(ctx, 30*time.Second)
-				defer cancel()
-				if err := chromedp.Do(c, a); err != nil {
-					b.Fatalf("%s: %v", what, err)
-				}
-			}
-			run("opening the plan", chromedp.Navigate(srv.URL+"/?"+queries[name]))
+			benchDo(b, ctx, "opening the plan", chromedp.Navigate(srv.URL+"/?"+queries[name]))
 			c, cancel := context.WithTimeout(ctx, 30*time.Second)
 			_, err := chromedp.Run(c, chromedp.Poll[bool](`document.querySelector('#gl-plot') !== null && document.readyState === 'complete'`,
 				chromedp.WithPollingTimeout(20*time.Second)))
@@ -69,8 +61,8 @@ func BenchmarkBrowserRepaint(b *testing.B) {
 			if err != nil {
 				b.Fatalf("waiting for the figure: %v", err)
 			}
-			run("quieting the tab", quiet)
-			run("installing the probe", chromedp.Evaluate[chromedp.Void](repaintProbe))
+			benchDo(b, ctx, "quieting the tab", quiet)
+			benchDo(b, ctx, "installing the probe", chromedp.Evaluate[chromedp.Void](repaintProbe))
 			edit := func(size int) []float64 {
 				c, cancel := context.WithTimeout(ctx, 30*time.Second)
 				defer cancel()
@@ -159,14 +151,7 @@ func startTrace(b *testing.B, ctx context.Context, plan string) (stop func()) {
 	if err != nil {
 		b.Fatalf("listening for the trace: %v", err)
 	}
-	call := func(what string, f func(ctx context.Context, t *chromedp.Target) error) {
-		c, cancel := context.WithTimeout(ctx, 30*time.Second)
-		defer cancel()
-		if err := chromedp.Do(c, chromedp.Func(f)); err != nil {
-			b.Fatalf("%s the trace: %v", what, err)
-		}
-	}
-	call("starting", func(ctx context.Context, t *chromedp.Target) error {
+	benchDo(b, ctx, "starting the trace", chromedp.Func(func(ctx context.Context, t *chromedp.Target) error {
 		_, err := cdp.Call(ctx, t, tracing.Start, tracing.StartParams{
 			TransferMode: tracing.StartTransferModeReportEvents,
 			TraceConfig: &tracing.TraceConfig{IncludedCategories: []string{
@@ -175,12 +160,12 @@ func startTrace(b *testing.B, ctx context.Context, plan string) (stop func()) {
 			}},
 		})
 		return err
-	})
+	}))
 	return func() {
-		call("ending", func(ctx context.Context, t *chromedp.Target) error {
+		benchDo(b, ctx, "ending the trace", chromedp.Func(func(ctx context.Context, t *chromedp.Target) error {
 			_, err := cdp.Call(ctx, t, tracing.End, cdp.Empty{})
 			return err
-		})
+		}))
 		select {
 		case <-done:
 		case <-time.After(30 * time.Second):
@@ -203,6 +188,16 @@ func startTrace(b *testing.B, ctx context.Context, plan string) (stop func()) {
 			b.Fatal(err)
 		}
 		b.Logf("trace of %d events in %s", len(events), file)
+	}
+}
+
+// benchDo runs a on the tab of ctx within 30 s, or ends the benchmark.
+func benchDo(b *testing.B, ctx context.Context, what string, a chromedp.Action[chromedp.Void]) {
+	b.Helper()
+	c, cancel := context.WithTimeout(ctx, 30*time.Second)
+	defer cancel()
+	if err := chromedp.Do(c, a); err != nil {
+		b.Fatalf("%s: %v", what, err)
 	}
 }
 
