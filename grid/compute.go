@@ -21,7 +21,9 @@ type Result struct {
 	TDD        *TDD      // the TDD pattern, when the plan has a valid one
 	SSB        *SSB      // the SS/PBCH blocks, when the plan places valid ones
 	Fit        *Fit      // the numerology fit, when the plan describes its environment
-	Findings   []Finding
+	// Spectrum is how the carriers and partitions divide the channel.
+	Spectrum Spectrum
+	Findings []Finding
 }
 
 // HasErrors reports whether any finding is an Error.
@@ -254,7 +256,8 @@ func Compute(plan Plan) Result {
 			res.Fit = f
 		}
 	}
-	res.Channel.UsePercent = usePercent(res.Channel, res.Partitions)
+	res.Spectrum = spectrumOf(res.Channel, res.Carriers, res.Partitions)
+	res.Channel.UsePercent = usePercent(res.Channel, res.Spectrum)
 
 	p.SpanMs = span
 	res.Plan = p
@@ -843,32 +846,6 @@ func placeAbsolute(fs *findings, rng Range, ch *Channel, cp CarrierPlan) {
 		fs.add(Error, CodeFrequency, "", "carrier.centerMHz", "The channel spans %s to %s, outside %s (%s to %s).",
 			fmtMHz(ch.Abs(ch.Low)), fmtMHz(ch.Abs(ch.High)), rng, fmtMHz(lo), fmtMHz(hi))
 	}
-}
-
-// usePercent is the share of the channel that the union of the partitions covers.
-func usePercent(ch Channel, ls []Lattice) float64 {
-	type span struct{ lo, hi Hz }
-	var spans []span
-	for _, l := range ls {
-		lo, hi := max(l.Low, ch.Low), min(l.High, ch.High)
-		if hi > lo {
-			spans = append(spans, span{lo, hi})
-		}
-	}
-	slices.SortFunc(spans, func(a, b span) int { return cmp.Compare(a.lo, b.lo) })
-	var used, reach Hz
-	reach = ch.Low
-	for _, s := range spans {
-		lo := max(s.lo, reach)
-		if s.hi > lo {
-			used += s.hi - lo
-			reach = s.hi
-		}
-	}
-	if ch.High <= ch.Low {
-		return 0
-	}
-	return math.Round(float64(used)/float64(ch.High-ch.Low)*1e4) / 100
 }
 
 func fmtKHz(f Hz) string { return strconv.FormatFloat(f.KHz(), 'f', -1, 64) + " kHz" }
