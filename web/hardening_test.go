@@ -21,6 +21,7 @@ import (
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
+	"gridloom/grid/report"
 )
 
 // Tests of the app under bad input and abuse: bounded queries, refusals
@@ -416,7 +417,7 @@ func TestNamesAreTextInTheDownloads(t *testing.T) {
 	}
 	r = post(t, srv, "/api/v1/render", "application/json", body)
 	wantStatus(t, r, http.StatusOK)
-	var doc grid.JSONResult
+	var doc report.Document
 	if err := json.Unmarshal([]byte(r.body), &doc); err != nil || doc.Plan.Name != evilPlan {
 		t.Errorf("API document: %v, plan name %q", err, doc.Plan.Name)
 	}

@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"gridloom/grid"
+	"gridloom/grid/report"
 )
 
 const campusYAML = `
@@ -192,7 +193,7 @@ func FuzzDecode(f *testing.F) {
 			return
 		}
 		res := grid.Compute(p)
-		_ = res.JSON(false)
+		_ = report.Build(res, false)
 		b, err := EncodeJSON(p)
 		if err != nil {
 			t.Fatalf("encoding a decoded plan: %v", err)
