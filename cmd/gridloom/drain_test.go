@@ -43,7 +43,7 @@ func TestSignalDrainsRequests(t *testing.T) {
 		t.Skip("no SIGTERM on Windows")
 	}
 	bin := buildBinary(t)
-	plan, err := os.ReadFile("../../testdata/plans/campus.yaml")
+	plan, err := os.ReadFile("../../grid/demo/campus.yaml")
 	if err != nil {
 		t.Fatal(err)
 	}
