@@ -225,12 +225,11 @@ func Compute(plan Plan) Result {
 			continue
 		}
 		c, _ := res.Carrier(pt.num.SCSKHz())
-		if l, ok := placePartition(&fs, rng, pt, c, span); ok {
-			res.Partitions = append(res.Partitions, l)
-			pt.plan.StartCRB = &l.StartCRB
-			pt.plan.SizePRB = l.SizePRB
-			pt.plan.LocationAndBandwidth = nil
-		}
+		l := placePartition(&fs, rng, pt, c, span)
+		res.Partitions = append(res.Partitions, l)
+		pt.plan.StartCRB = &l.StartCRB
+		pt.plan.SizePRB = l.SizePRB
+		pt.plan.LocationAndBandwidth = nil
 	}
 
 	if tdd != nil {
@@ -642,7 +641,10 @@ func specFor(rng Range) string {
 	return "TS 38.101-2"
 }
 
-func placePartition(fs *findings, rng Range, pt pending, c Carrier, span int) (Lattice, bool) {
+// placePartition places a partition whose spacing, CP and bandwidth allow
+// it. It always places it, as the plan asks, even outside its carrier: the
+// findings say why that does not fit, and the figure shows where it went.
+func placePartition(fs *findings, rng Range, pt pending, c Carrier, span int) Lattice {
 	pp, f, who := pt.plan, pt.field, pt.plan.Name
 	scs := pt.num.SCSKHz()
 	start, size := c.OffsetToCarrier, pp.SizePRB
@@ -685,7 +687,7 @@ func placePartition(fs *findings, rng Range, pt pending, c Carrier, span int) (L
 	if pt.bits > 0 && pp.Layers >= 1 && pp.Layers <= pt.dir.MaxLayers() {
 		l.PeakMbps = PeakMbps(rng, pt.dir, pt.num, size, pp.Layers, pt.bits)
 	}
-	return l, true
+	return l
 }
 
 // applyTDD maps the TDD pattern onto every partition and scales the rate

@@ -188,7 +188,7 @@ func build(r grid.Result, opt Options) (*doc, error) {
 		blocks = planSSB(*r.SSB, f)
 	}
 
-	rows := partRows(r, details, tdds, b)
+	rows := partRows(r, details, tdds)
 	keys := keyRows(r, b, blocks, f)
 	keyW := minKeyWidth
 	for _, k := range keys {
@@ -587,7 +587,7 @@ func (p *partRowText) wrap(maxW float64) {
 func (p *partRowText) height() int { return partRow + drawnLine*max(0, len(p.lines)-1) }
 
 // partRows writes the legend text of every partition.
-func partRows(r grid.Result, details []detail, tdds []tddDrawing, b *builder) []partRowText {
+func partRows(r grid.Result, details []detail, tdds []tddDrawing) []partRowText {
 	rows := make([]partRowText, len(r.Partitions))
 	for i, l := range r.Partitions {
 		n := l.Numerology
