@@ -626,7 +626,7 @@ func TestCheckersSeeInjection(t *testing.T) {
 	}
 	for _, inj := range []string{
 		`<script>alert(1)</script>`, `<g onload="alert(1)"/>`, `<path fill="red;x:expression(1)"/>`, `<path fill="url(javascript:x)"/>`,
-		`<a href="x"/>`, `<foreignObject/>`, `<path class="a&quot;b"/>`, `<text>` + "" + `</text>`, `<g>`,
+		`<a href="x"/>`, `<foreignObject/>`, `<path class="a&quot;b"/>`, `<text>` + "\x01" + `</text>`, `<g>`,
 	} {
 		if p := svgProblems([]byte(strings.Replace(svg, "</svg>", inj+"</svg>", 1)), "<b>"); len(p) == 0 {
 			t.Errorf("svgProblems sees nothing wrong with %q", inj)
