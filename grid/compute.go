@@ -21,7 +21,9 @@ type Result struct {
 	TDD        *TDD      // the TDD pattern, when the plan has a valid one
 	SSB        *SSB      // the SS/PBCH blocks, when the plan places valid ones
 	Fit        *Fit      // the numerology fit, when the plan describes its environment
-	Findings   []Finding
+	// Spectrum is how the carriers and partitions divide the channel.
+	Spectrum Spectrum
+	Findings []Finding
 }
 
 // HasErrors reports whether any finding is an Error.
@@ -223,12 +225,11 @@ func Compute(plan Plan) Result {
 			continue
 		}
 		c, _ := res.Carrier(pt.num.SCSKHz())
-		if l, ok := placePartition(&fs, rng, pt, c, span); ok {
-			res.Partitions = append(res.Partitions, l)
-			pt.plan.StartCRB = &l.StartCRB
-			pt.plan.SizePRB = l.SizePRB
-			pt.plan.LocationAndBandwidth = nil
-		}
+		l := placePartition(&fs, rng, pt, c, span)
+		res.Partitions = append(res.Partitions, l)
+		pt.plan.StartCRB = &l.StartCRB
+		pt.plan.SizePRB = l.SizePRB
+		pt.plan.LocationAndBandwidth = nil
 	}
 
 	if tdd != nil {
@@ -254,7 +255,8 @@ func Compute(plan Plan) Result {
 			res.Fit = f
 		}
 	}
-	res.Channel.UsePercent = usePercent(res.Channel, res.Partitions)
+	res.Spectrum = spectrumOf(res.Channel, res.Carriers, res.Partitions)
+	res.Channel.UsePercent = usePercent(res.Channel, res.Spectrum)
 
 	p.SpanMs = span
 	res.Plan = p
@@ -639,7 +641,10 @@ func specFor(rng Range) string {
 	return "TS 38.101-2"
 }
 
-func placePartition(fs *findings, rng Range, pt pending, c Carrier, span int) (Lattice, bool) {
+// placePartition places a partition whose spacing, CP and bandwidth allow
+// it. It always places it, as the plan asks, even outside its carrier: the
+// findings say why that does not fit, and the figure shows where it went.
+func placePartition(fs *findings, rng Range, pt pending, c Carrier, span int) Lattice {
 	pp, f, who := pt.plan, pt.field, pt.plan.Name
 	scs := pt.num.SCSKHz()
 	start, size := c.OffsetToCarrier, pp.SizePRB
@@ -682,7 +687,7 @@ func placePartition(fs *findings, rng Range, pt pending, c Carrier, span int) (L
 	if pt.bits > 0 && pp.Layers >= 1 && pp.Layers <= pt.dir.MaxLayers() {
 		l.PeakMbps = PeakMbps(rng, pt.dir, pt.num, size, pp.Layers, pt.bits)
 	}
-	return l, true
+	return l
 }
 
 // applyTDD maps the TDD pattern onto every partition and scales the rate
@@ -843,32 +848,6 @@ func placeAbsolute(fs *findings, rng Range, ch *Channel, cp CarrierPlan) {
 		fs.add(Error, CodeFrequency, "", "carrier.centerMHz", "The channel spans %s to %s, outside %s (%s to %s).",
 			fmtMHz(ch.Abs(ch.Low)), fmtMHz(ch.Abs(ch.High)), rng, fmtMHz(lo), fmtMHz(hi))
 	}
-}
-
-// usePercent is the share of the channel that the union of the partitions covers.
-func usePercent(ch Channel, ls []Lattice) float64 {
-	type span struct{ lo, hi Hz }
-	var spans []span
-	for _, l := range ls {
-		lo, hi := max(l.Low, ch.Low), min(l.High, ch.High)
-		if hi > lo {
-			spans = append(spans, span{lo, hi})
-		}
-	}
-	slices.SortFunc(spans, func(a, b span) int { return cmp.Compare(a.lo, b.lo) })
-	var used, reach Hz
-	reach = ch.Low
-	for _, s := range spans {
-		lo := max(s.lo, reach)
-		if s.hi > lo {
-			used += s.hi - lo
-			reach = s.hi
-		}
-	}
-	if ch.High <= ch.Low {
-		return 0
-	}
-	return math.Round(float64(used)/float64(ch.High-ch.Low)*1e4) / 100
 }
 
 func fmtKHz(f Hz) string { return strconv.FormatFloat(f.KHz(), 'f', -1, 64) + " kHz" }

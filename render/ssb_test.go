@@ -19,7 +19,7 @@ import (
 // the edges are drawn at the outer subcarrier edges, half a subcarrier
 // beyond the centres.
 func TestSSBCampus(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
 	f := plotFrame(r, DefaultWidth)
 	root := parseSVG(t, figure(t, r, Options{}))
 	rs := pathRects(t, root, "gl-ssb")
@@ -55,7 +55,7 @@ func TestSSBCampus(t *testing.T) {
 // in it: 28 blocks, candidates 0–27, drawn as 28 rectangles (blocks 4–7
 // and 8–11 of each pair touch but stay apart) under two labels.
 func TestSSBStadium(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/stadium.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/stadium.yaml"))
 	root := parseSVG(t, figure(t, r, Options{}))
 	if rs := pathRects(t, root, "gl-ssb"); len(rs) != 28 {
 		t.Errorf("%d blocks drawn, want 28", len(rs))

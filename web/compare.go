@@ -15,6 +15,7 @@ import (
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
+	"gridloom/grid/report"
 	"gridloom/render"
 )
 
@@ -412,44 +413,10 @@ func signed(d float64, decimals int) string {
 	return "+" + s
 }
 
-// guardsOf measures what the figure calls guardbands and unused spectrum:
-// from each channel edge to the outermost carrier or partition, and the
-// stretches between them that no partition covers.
-func guardsOf(r grid.Result) (low, high, unused grid.Hz) {
-	ch := r.Channel
-	lo, hi := ch.High, ch.Low
-	for _, c := range r.Carriers {
-		lo, hi = min(lo, c.Low), max(hi, c.High)
-	}
-	for _, l := range r.Partitions {
-		lo, hi = min(lo, l.Low), max(hi, l.High)
-	}
-	if hi <= lo {
-		return 0, 0, ch.High - ch.Low
-	}
-	lo, hi = max(lo, ch.Low), min(hi, ch.High)
-	spans := make([][2]grid.Hz, 0, len(r.Partitions))
-	for _, l := range r.Partitions {
-		spans = append(spans, [2]grid.Hz{max(l.Low, lo), min(l.High, hi)})
-	}
-	slices.SortFunc(spans, func(a, b [2]grid.Hz) int { return cmp.Compare(a[0], b[0]) })
-	reach := lo
-	for _, s := range spans {
-		if s[0] > reach {
-			unused += s[0] - reach
-		}
-		reach = max(reach, s[1])
-	}
-	if hi > reach {
-		unused += hi - reach
-	}
-	return lo - ch.Low, ch.High - hi, unused
-}
-
 // diffTotals compares the plans as a whole.
 func diffTotals(a, b state) []diffRow {
 	ra, rb := a.res, b.res
-	da, db := ra.JSON(false), rb.JSON(false)
+	da, db := report.Build(ra, false), report.Build(rb, false)
 	var rows []diffRow
 	text := func(label, x, y string) {
 		rows = append(rows, diffRow{Label: label, A: x, B: y, Changed: x != y})
@@ -467,26 +434,25 @@ func diffTotals(a, b state) []diffRow {
 	}
 	text("Channel", channel(ra), channel(rb))
 	text("Partitions placed", fmt.Sprintf("%d of %d", len(ra.Partitions), len(a.plan.Partitions)), fmt.Sprintf("%d of %d", len(rb.Partitions), len(b.plan.Partitions)))
-	sum := func(d grid.JSONResult, f func(grid.JSONPartition) float64) float64 {
+	sum := func(d report.Document, f func(report.Partition) float64) float64 {
 		t := 0.0
 		for _, p := range d.Partitions {
 			t += f(p)
 		}
 		return t
 	}
-	num("PRBs in partitions", sum(da, func(p grid.JSONPartition) float64 { return float64(p.SizePRB) }), sum(db, func(p grid.JSONPartition) float64 { return float64(p.SizePRB) }), 0)
-	num("Occupied MHz", sum(da, func(p grid.JSONPartition) float64 { return p.OccupiedMHz }), sum(db, func(p grid.JSONPartition) float64 { return p.OccupiedMHz }), 2)
+	num("PRBs in partitions", sum(da, func(p report.Partition) float64 { return float64(p.SizePRB) }), sum(db, func(p report.Partition) float64 { return float64(p.SizePRB) }), 0)
+	num("Occupied MHz", sum(da, func(p report.Partition) float64 { return p.OccupiedMHz }), sum(db, func(p report.Partition) float64 { return p.OccupiedMHz }), 2)
 	num("Channel use %", da.Channel.UsePercent, db.Channel.UsePercent, 2)
-	gla, gha, ua := guardsOf(ra)
-	glb, ghb, ub := guardsOf(rb)
-	num("Lower guardband kHz", gla.KHz(), glb.KHz(), 1)
-	num("Upper guardband kHz", gha.KHz(), ghb.KHz(), 1)
-	num("Unused inside the channel MHz", ua.MHz(), ub.MHz(), 3)
-	shortest := func(d grid.JSONResult) (float64, bool) {
+	spa, spb := ra.Spectrum, rb.Spectrum
+	num("Lower guardband kHz", spa.LowGuard.Width().KHz(), spb.LowGuard.Width().KHz(), 1)
+	num("Upper guardband kHz", spa.HighGuard.Width().KHz(), spb.HighGuard.Width().KHz(), 1)
+	num("Unused inside the channel MHz", spa.UnusedWidth().MHz(), spb.UnusedWidth().MHz(), 3)
+	shortest := func(d report.Document) (float64, bool) {
 		if len(d.Partitions) == 0 {
 			return 0, false
 		}
-		return slices.MinFunc(d.Partitions, func(x, y grid.JSONPartition) int {
+		return slices.MinFunc(d.Partitions, func(x, y report.Partition) int {
 			return cmp.Compare(x.SlotUs, y.SlotUs)
 		}).SlotUs, true
 	}
@@ -495,8 +461,8 @@ func diffTotals(a, b state) []diffRow {
 			num("Shortest slot µs", sa, sb, 3)
 		}
 	}
-	dir := func(want string) func(grid.JSONPartition) float64 {
-		return func(p grid.JSONPartition) float64 {
+	dir := func(want string) func(report.Partition) float64 {
+		return func(p report.Partition) float64 {
 			if p.Direction == want {
 				return p.PeakMbps
 			}
@@ -505,14 +471,14 @@ func diffTotals(a, b state) []diffRow {
 	}
 	num("Peak downlink Mb/s", sum(da, dir("DL")), sum(db, dir("DL")), 1)
 	num("Peak uplink Mb/s", sum(da, dir("UL")), sum(db, dir("UL")), 1)
-	tdd := func(d grid.JSONResult) string {
+	tdd := func(d report.Document) string {
 		if d.TDD == nil {
 			return "none"
 		}
 		return fmt.Sprintf("%s on %d kHz, %s ms", d.TDD.Slots, d.TDD.ReferenceSCSKHz, exact(d.TDD.PeriodMs))
 	}
 	text("TDD pattern", tdd(da), tdd(db))
-	ssb := func(d grid.JSONResult) string {
+	ssb := func(d report.Document) string {
 		if d.SSB == nil {
 			return "none"
 		}
@@ -540,13 +506,13 @@ func diffTotals(a, b state) []diffRow {
 // diffPartitions matches the partitions of the two plans by name, in A's
 // order and then B's, and compares each quantity of a matched pair.
 func diffPartitions(ra, rb grid.Result) diffParts {
-	da, db := ra.JSON(false), rb.JSON(false)
+	da, db := report.Build(ra, false), report.Build(rb, false)
 	tdd := ra.TDD != nil || rb.TDD != nil
 	dp := diffParts{Columns: []string{"SCS kHz", "CP", "PRBs", "CRBs", "MHz", "Slot µs", "Symbol µs", "CP µs", "Link", "Peak Mb/s"}}
 	if tdd {
 		dp.Columns = append(dp.Columns, "TDD share")
 	}
-	values := func(p grid.JSONPartition) []string {
+	values := func(p report.Partition) []string {
 		v := []string{strconv.Itoa(p.SCSKHz), p.CP, strconv.Itoa(p.SizePRB),
 			fmt.Sprintf("%d–%d", p.StartCRB, p.StartCRB+p.SizePRB-1),
 			strconv.FormatFloat(p.OccupiedMHz, 'f', 2, 64), us(p.SlotUs), us(p.UsefulUs), us(p.CPUs),

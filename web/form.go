@@ -163,12 +163,6 @@ func (p *PartForm) field(key string) *string {
 	return nil
 }
 
-// planField maps a partition key to its plan path after "partitions[i].".
-var planField = map[string]string{
-	"name": "name", "scs": "scsKHz", "cp": "cp", "start": "startCrb", "size": "sizePrb",
-	"riv": "locationAndBandwidth", "dir": "direction", "layers": "layers", "mod": "modulation",
-}
-
 // Messages holds messages about a form, keyed by plan path ("carrier.bandwidthMHz",
 // "partitions[1].sizePrb"), the same paths that grid.Finding.Field uses.
 type Messages map[string]string

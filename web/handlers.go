@@ -20,6 +20,7 @@ import (
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
+	"gridloom/grid/report"
 	"gridloom/render"
 )
 
@@ -450,7 +451,7 @@ func handleAPIRender(logger *slog.Logger) http.HandlerFunc {
 		if res.HasErrors() {
 			status = http.StatusUnprocessableEntity
 		}
-		writeJSON(w, status, res.JSON(true))
+		writeJSON(w, status, report.Build(res, true))
 	}
 }
 
@@ -464,7 +465,7 @@ func handleAPIFigure(logger *slog.Logger, cfg Config) http.HandlerFunc {
 		}
 		res := grid.Compute(plan)
 		if res.HasErrors() {
-			writeJSON(w, http.StatusUnprocessableEntity, res.JSON(false))
+			writeJSON(w, http.StatusUnprocessableEntity, report.Build(res, false))
 			return
 		}
 		svg, err := drawFigure(cfg.Figure, res, render.Options{})

@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"gridloom/grid"
+	"gridloom/grid/report"
 )
 
 // The view models of the page. Templates take these, never the request.
@@ -758,7 +759,7 @@ func formShape(f Form, scsRows []int) string {
 
 func buildResults(s state, query string, figure string, figErr error) resultsView {
 	res := s.res
-	doc := res.JSON(false)
+	doc := report.Build(res, false)
 	rv := resultsView{
 		Placed: len(res.Partitions), Total: len(s.plan.Partitions),
 		Figure: figure, Absolute: res.Channel.Absolute, SpanMs: res.Plan.SpanMs,

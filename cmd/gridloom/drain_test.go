@@ -20,9 +20,10 @@ import (
 // buildBinary builds the real program into a temporary folder.
 func buildBinary(t *testing.T) string {
 	t.Helper()
+	// go test puts its own toolchain's bin first on PATH (since Go 1.19).
 	goTool, err := exec.LookPath("go")
 	if err != nil {
-		goTool = filepath.Join(runtime.GOROOT(), "bin", "go")
+		t.Fatalf("the go command is not on PATH: %v", err)
 	}
 	bin := filepath.Join(t.TempDir(), "gridloom")
 	out, err := exec.Command(goTool, "build", "-o", bin, ".").CombinedOutput()
@@ -43,7 +44,7 @@ func TestSignalDrainsRequests(t *testing.T) {
 		t.Skip("no SIGTERM on Windows")
 	}
 	bin := buildBinary(t)
-	plan, err := os.ReadFile("../../testdata/plans/campus.yaml")
+	plan, err := os.ReadFile("../../grid/demo/campus.yaml")
 	if err != nil {
 		t.Fatal(err)
 	}

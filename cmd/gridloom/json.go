@@ -1,14 +1,10 @@
 package main
 
 import (
-	"encoding/json"
 	"io"
 
 	"gridloom/grid"
+	"gridloom/grid/report"
 )
 
-func writeJSON(w io.Writer, res grid.Result) error {
-	enc := json.NewEncoder(w)
-	enc.SetIndent("", "  ")
-	return enc.Encode(res.JSON(true))
-}
+func writeJSON(w io.Writer, res grid.Result) error { return report.Write(w, res, true) }

@@ -30,7 +30,7 @@ func runCLI(t *testing.T, stdin string, args ...string) (stdout, stderr string, 
 
 func demoPlans(t *testing.T) []string {
 	t.Helper()
-	files, err := filepath.Glob("../../testdata/plans/*.yaml")
+	files, err := filepath.Glob("../../grid/demo/*.yaml")
 	if err != nil || len(files) < 3 {
 		t.Fatalf("demo plans: %v, %d found", err, len(files))
 	}
@@ -84,7 +84,7 @@ func TestRenderJSONGolden(t *testing.T) {
 
 // The JSON document carries every symbol of every partition over the span.
 func TestRenderJSONShape(t *testing.T) {
-	out, _, code := runCLI(t, "", "render", "-format", "json", "../../testdata/plans/port.yaml")
+	out, _, code := runCLI(t, "", "render", "-format", "json", "../../grid/demo/port.yaml")
 	if code != 0 {
 		t.Fatalf("exit %d", code)
 	}
@@ -123,11 +123,11 @@ func TestRenderJSONShape(t *testing.T) {
 }
 
 func TestStdin(t *testing.T) {
-	data, err := os.ReadFile("../../testdata/plans/campus.yaml")
+	data, err := os.ReadFile("../../grid/demo/campus.yaml")
 	if err != nil {
 		t.Fatal(err)
 	}
-	fromFile, _, _ := runCLI(t, "", "render", "-format", "json", "../../testdata/plans/campus.yaml")
+	fromFile, _, _ := runCLI(t, "", "render", "-format", "json", "../../grid/demo/campus.yaml")
 	fromStdin, errOut, code := runCLI(t, string(data), "render", "-format", "json", "-")
 	if code != 0 || fromStdin != fromFile {
 		t.Errorf("stdin: exit %d, stderr %q; same output as the file: %v", code, errOut, fromStdin == fromFile)
@@ -141,19 +141,19 @@ func TestCheckExitCodes(t *testing.T) {
 		code        int
 		say         string
 	}{
-		{"clean demo", "", []string{"check", "../../testdata/plans/campus.yaml"}, 0, "0 errors, 0 warnings, 3 partitions placed"},
+		{"clean demo", "", []string{"check", "../../grid/demo/campus.yaml"}, 0, "0 errors, 0 warnings, 3 partitions placed"},
 		{"one error", "", []string{"check", "../../testdata/broken/bandwidth.yaml"}, 1, "1 error, 0 warnings, 0 partitions placed"},
 		{"warnings only", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":15,"sizePrb":24},{"name":"b","scsKHz":30,"startCrb":13,"sizePrb":10}]}`,
 			[]string{"check", "-"}, 0, "numerology-gap"},
 		{"errors", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":120,"sizePrb":24}]}`, []string{"check", "-"}, 1, "scs-range"},
-		{"unreadable", "", []string{"check", "../../testdata/plans/no-such-plan.yaml"}, 2, "no-such-plan"},
+		{"unreadable", "", []string{"check", "../../grid/demo/no-such-plan.yaml"}, 2, "no-such-plan"},
 		{"undecodable", `{"carrier":`, []string{"check", "-"}, 2, "not valid JSON"},
 		{"no plan argument", "", []string{"check"}, 2, "exactly one plan"},
 		{"unknown command", "", []string{"draw"}, 2, "unknown command"},
 		{"unknown format", "", []string{"render", "-format", "pdf", "x.yaml"}, 2, "svg, png, json or csv"},
 		{"unknown theme", "", []string{"render", "-theme", "dark", "x.yaml"}, 2, "light or print"},
 		{"unknown layer", "", []string{"render", "-layers", "grid", "x.yaml"}, 2, "lattice"},
-		{"width out of range", "", []string{"render", "-width", "100", "../../testdata/plans/campus.yaml"}, 2, "640"},
+		{"width out of range", "", []string{"render", "-width", "100", "../../grid/demo/campus.yaml"}, 2, "640"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			out, errOut, code := runCLI(t, c.stdin, c.args...)
@@ -207,7 +207,7 @@ func TestHelpOnEverySubcommand(t *testing.T) {
 
 func TestRenderWritesFile(t *testing.T) {
 	out := filepath.Join(t.TempDir(), "plan.json")
-	if _, errOut, code := runCLI(t, "", "render", "-format", "json", "-o", out, "../../testdata/plans/stadium.yaml"); code != 0 {
+	if _, errOut, code := runCLI(t, "", "render", "-format", "json", "-o", out, "../../grid/demo/stadium.yaml"); code != 0 {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
 	data, err := os.ReadFile(out)
@@ -227,7 +227,7 @@ func TestExitErrorMessage(t *testing.T) {
 // decodes to the plan the figure was drawn from. PNG output is a PNG.
 func TestRenderFigureFormats(t *testing.T) {
 	dir := t.TempDir()
-	src := "../../testdata/plans/stadium.yaml"
+	src := "../../grid/demo/stadium.yaml"
 	svgPath, pngPath := filepath.Join(dir, "f.svg"), filepath.Join(dir, "f.png")
 	for _, c := range [][]string{
 		{"render", "-format", "svg", "-theme", "print", "-layers", "lattice,tdd,ssb", "-o", svgPath, src},

@@ -5,17 +5,14 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"io/fs"
 	"log/slog"
 	"net"
 	"net/http"
-	"slices"
 	"strings"
 	"syscall"
 	"time"
 
-	"gridloom/grid/planfile"
-	"gridloom/testdata/plans"
+	"gridloom/grid/demo"
 	"gridloom/web"
 )
 
@@ -150,25 +147,16 @@ func serveURL(a net.Addr, requested string) string {
 // loadDemos decodes the embedded demo plans and returns them with the
 // default one, which the app opens with.
 func loadDemos() ([]web.Demo, web.Demo, error) {
-	names, err := fs.Glob(plans.FS, "*.yaml")
+	all, err := demo.All()
 	if err != nil {
 		return nil, web.Demo{}, err
 	}
-	slices.Sort(names)
 	var demos []web.Demo
 	var def web.Demo
-	for _, n := range names {
-		b, err := fs.ReadFile(plans.FS, n)
-		if err != nil {
-			return nil, web.Demo{}, err
-		}
-		p, err := planfile.DecodeYAML(b)
-		if err != nil {
-			return nil, web.Demo{}, fmt.Errorf("demo plan %s: %w", n, err)
-		}
-		d := web.Demo{Name: strings.TrimSuffix(n, ".yaml"), Plan: p}
+	for _, p := range all {
+		d := web.Demo{Name: p.Name, Plan: p.Plan}
 		demos = append(demos, d)
-		if n == plans.Default {
+		if p.Name == demo.Default {
 			def = d
 		}
 	}

@@ -15,6 +15,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"reflect"
 	"slices"
 	"strconv"
 	"strings"
@@ -286,6 +287,38 @@ func FromTree(tree any) (grid.Plan, error) {
 	return p, nil
 }
 
+// keys are the keys of each object of a plan file, in field order, read
+// once from the json tags of grid.Plan and the types it holds: the structs
+// own the format, and the walk accepts exactly the keys they write.
+var keys = struct {
+	plan, carrier, partition, tdd, tddPattern, ssb, environment []string
+}{
+	plan:        tagKeys(reflect.TypeFor[grid.Plan]()),
+	carrier:     tagKeys(reflect.TypeFor[grid.CarrierPlan]()),
+	partition:   tagKeys(reflect.TypeFor[grid.PartitionPlan]()),
+	tdd:         tagKeys(reflect.TypeFor[grid.TDDPlan]()),
+	tddPattern:  tagKeys(reflect.TypeFor[grid.TDDPattern]()),
+	ssb:         tagKeys(reflect.TypeFor[grid.SSBPlan]()),
+	environment: tagKeys(reflect.TypeFor[grid.EnvironmentPlan]()),
+}
+
+// tagKeys lists the json keys of a struct's fields. A field without a key,
+// or whose yaml key differs, would make the two syntaxes disagree: that is
+// a mistake in grid, reported at start-up by any test.
+func tagKeys(t reflect.Type) []string {
+	out := make([]string, 0, t.NumField())
+	for i := range t.NumField() {
+		f := t.Field(i)
+		j, _, _ := strings.Cut(f.Tag.Get("json"), ",")
+		y, _, _ := strings.Cut(f.Tag.Get("yaml"), ",")
+		if j == "" || j == "-" || j != y {
+			panic(fmt.Sprintf("planfile: %s.%s has json key %q and yaml key %q; give both the same key", t.Name(), f.Name, j, y))
+		}
+		out = append(out, j)
+	}
+	return out
+}
+
 type walker struct{ errs Errors }
 
 func (w *walker) fail(field, format string, args ...any) {
@@ -443,7 +476,7 @@ func sortedKeys(m map[string]any) []string {
 }
 
 func (w *walker) plan(v any) grid.Plan {
-	m := w.object(v, "", "name", "spanMs", "carrier", "partitions", "numerologyGapKHz", "tdd", "ssb", "environment")
+	m := w.object(v, "", keys.plan...)
 	if m == nil {
 		return grid.Plan{}
 	}
@@ -481,7 +514,7 @@ func (w *walker) plan(v any) grid.Plan {
 }
 
 func (w *walker) carrier(v any) grid.CarrierPlan {
-	m := w.object(v, "carrier", "range", "bandwidthMHz", "centerMHz", "arfcn", "offsetToCarrier", "carrierBandwidth")
+	m := w.object(v, "carrier", keys.carrier...)
 	if m == nil {
 		return grid.CarrierPlan{}
 	}
@@ -497,7 +530,7 @@ func (w *walker) carrier(v any) grid.CarrierPlan {
 }
 
 func (w *walker) partition(v any, f string) grid.PartitionPlan {
-	m := w.object(v, f, "name", "scsKHz", "cp", "startCrb", "sizePrb", "locationAndBandwidth", "direction", "layers", "modulation")
+	m := w.object(v, f, keys.partition...)
 	if m == nil {
 		return grid.PartitionPlan{}
 	}
@@ -516,7 +549,7 @@ func (w *walker) partition(v any, f string) grid.PartitionPlan {
 }
 
 func (w *walker) tdd(v any) *grid.TDDPlan {
-	m := w.object(v, "tdd", "referenceScsKHz", "pattern1", "pattern2")
+	m := w.object(v, "tdd", keys.tdd...)
 	if m == nil {
 		return nil
 	}
@@ -534,7 +567,7 @@ func (w *walker) tdd(v any) *grid.TDDPlan {
 }
 
 func (w *walker) tddPattern(v any, f string) grid.TDDPattern {
-	m := w.object(v, f, "periodMs", "downlinkSlots", "downlinkSymbols", "uplinkSlots", "uplinkSymbols")
+	m := w.object(v, f, keys.tddPattern...)
 	if m == nil {
 		return grid.TDDPattern{}
 	}
@@ -552,7 +585,7 @@ func (w *walker) tddPattern(v any, f string) grid.TDDPattern {
 }
 
 func (w *walker) ssb(v any) *grid.SSBPlan {
-	m := w.object(v, "ssb", "scsKHz", "case", "bitmap", "offsetToPointA", "kSsb", "scsCommonKHz", "periodMs")
+	m := w.object(v, "ssb", keys.ssb...)
 	if m == nil {
 		return nil
 	}
@@ -576,7 +609,7 @@ func (w *walker) bitmap(v any, field string) string {
 }
 
 func (w *walker) environment(v any) *grid.EnvironmentPlan {
-	m := w.object(v, "environment", "delaySpreadNs", "delayProfile", "speedKmh", "carrierMHz")
+	m := w.object(v, "environment", keys.environment...)
 	if m == nil {
 		return nil
 	}

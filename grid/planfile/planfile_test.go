@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"gridloom/grid"
+	"gridloom/grid/report"
 )
 
 const campusYAML = `
@@ -82,7 +83,7 @@ func TestRoundTrip(t *testing.T) {
 }
 
 func TestDemoPlansDecode(t *testing.T) {
-	files, _ := filepath.Glob("../../testdata/plans/*.yaml")
+	files, _ := filepath.Glob("../demo/*.yaml")
 	if len(files) < 3 {
 		t.Fatalf("found %d demo plans, want at least 3", len(files))
 	}
@@ -180,7 +181,7 @@ func FuzzDecode(f *testing.F) {
 	f.Add([]byte(campusJSON))
 	f.Add([]byte(`{"carrier":{"bandwidthMHz":100},"partitions":[{"name":"a","scsKHz":30,"locationAndBandwidth":1099}]}`))
 	f.Add([]byte("carrier: {bandwidthMHz: 40}\npartitions: [{name: x, scsKHz: 60, cp: extended, sizePrb: 3}]\n"))
-	files, _ := filepath.Glob("../../testdata/plans/*.yaml")
+	files, _ := filepath.Glob("../demo/*.yaml")
 	for _, file := range files {
 		if data, err := os.ReadFile(file); err == nil {
 			f.Add(data)
@@ -192,7 +193,7 @@ func FuzzDecode(f *testing.F) {
 			return
 		}
 		res := grid.Compute(p)
-		_ = res.JSON(false)
+		_ = report.Build(res, false)
 		b, err := EncodeJSON(p)
 		if err != nil {
 			t.Fatalf("encoding a decoded plan: %v", err)

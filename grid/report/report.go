@@ -1,65 +1,70 @@
-package grid
+// Package report is the JSON document of a computed plan, shared by the
+// command line and the web API. It lives outside the engine so that grid
+// stays computation only and the document's form has one owner; kHz values
+// are relative to point A, MHz values are absolute and present only when the
+// plan ties the channel to a frequency.
+package report
 
 import (
+	"encoding/json"
+	"io"
 	"math"
 	"strconv"
+
+	"gridloom/grid"
 )
 
-// The JSON form of a Result, shared by the command line and the web API.
-// kHz values are relative to point A; MHz values are absolute and present
-// only when the plan ties the channel to a frequency.
-
-// JSONResult is the document that Result.JSON returns.
-type JSONResult struct {
-	Plan       Plan            `json:"plan"`
-	Channel    JSONChannel     `json:"channel"`
-	Carriers   []JSONCarrier   `json:"carriers"`
-	Partitions []JSONPartition `json:"partitions"`
-	TDD        *JSONTDD        `json:"tdd,omitempty"`
-	SSB        *JSONSSB        `json:"ssb,omitempty"`
-	Fit        *Fit            `json:"fit,omitempty"`
-	Findings   []Finding       `json:"findings"`
+// Document is the JSON document of one grid.Result, as Build makes it.
+type Document struct {
+	Plan       grid.Plan      `json:"plan"`
+	Channel    Channel        `json:"channel"`
+	Carriers   []Carrier      `json:"carriers"`
+	Partitions []Partition    `json:"partitions"`
+	TDD        *TDD           `json:"tdd,omitempty"`
+	SSB        *SSB           `json:"ssb,omitempty"`
+	Fit        *grid.Fit      `json:"fit,omitempty"`
+	Findings   []grid.Finding `json:"findings"`
 }
 
-// JSONSSB is the SS/PBCH configuration of a JSONResult. Slot and symbol
+// SSB is the SS/PBCH configuration of a Document. Slot and symbol
 // of each block count in the block's own spacing over the span.
-type JSONSSB struct {
-	Case       string         `json:"case"`
-	SCSKHz     int            `json:"scsKHz"`
-	Candidates int            `json:"candidates"`
-	PeriodMs   int            `json:"periodMs"`
-	Blocks     []JSONSSBBlock `json:"blocks"`
+type SSB struct {
+	Case       string     `json:"case"`
+	SCSKHz     int        `json:"scsKHz"`
+	Candidates int        `json:"candidates"`
+	PeriodMs   int        `json:"periodMs"`
+	Blocks     []SSBBlock `json:"blocks"`
 }
 
-// JSONSSBBlock is one SS/PBCH block of a JSONSSB.
-type JSONSSBBlock struct {
+// SSBBlock is one SS/PBCH block of an SSB.
+type SSBBlock struct {
 	Index   int     `json:"index"`
 	Slot    int     `json:"slot"`
 	Symbol  int     `json:"symbol"`
-	StartTc Tc      `json:"startTc"`
-	EndTc   Tc      `json:"endTc"`
+	StartTc grid.Tc `json:"startTc"`
+	EndTc   grid.Tc `json:"endTc"`
 	LowKHz  float64 `json:"lowKHz"`
 	HighKHz float64 `json:"highKHz"`
 }
 
-// JSONTDD is the TDD pattern of a JSONResult. Slots writes each reference
+// TDD is the TDD pattern of a Document. Slots writes each reference
 // slot of one period as D (all downlink), U (all uplink) or S (mixed or
 // flexible), the way engineers write patterns ("DDDSU").
-type JSONTDD struct {
+type TDD struct {
 	ReferenceSCSKHz int     `json:"referenceScsKHz"`
 	PeriodMs        float64 `json:"periodMs"`
 	Slots           string  `json:"slots"`
 }
 
-// JSONSymbol is one symbol of a JSONPartition; Direction is D, U or F under
+// Symbol is one symbol of a Partition; Direction is D, U or F under
 // a TDD pattern and absent without one.
-type JSONSymbol struct {
-	Symbol
+type Symbol struct {
+	grid.Symbol
 	Direction string `json:"direction,omitempty"`
 }
 
-// JSONChannel is the channel of a JSONResult.
-type JSONChannel struct {
+// Channel is the channel of a Document.
+type Channel struct {
 	Range        string   `json:"range"`
 	BandwidthMHz int      `json:"bandwidthMHz"`
 	CenterMHz    *float64 `json:"centerMHz,omitempty"`
@@ -72,8 +77,8 @@ type JSONChannel struct {
 	UsePercent   float64  `json:"usePercent"`
 }
 
-// JSONCarrier is one SCS-specific carrier of a JSONResult.
-type JSONCarrier struct {
+// Carrier is one SCS-specific carrier of a Document.
+type Carrier struct {
 	SCSKHz           int     `json:"scsKHz"`
 	NRB              int     `json:"nrb"`
 	CarrierBandwidth int     `json:"carrierBandwidth"`
@@ -86,8 +91,8 @@ type JSONCarrier struct {
 	GuardHighKHz     float64 `json:"guardHighKHz"`
 }
 
-// JSONPartition is one placed partition of a JSONResult, with its symbols.
-type JSONPartition struct {
+// Partition is one placed partition of a Document, with its symbols.
+type Partition struct {
 	Name                 string   `json:"name"`
 	SCSKHz               int      `json:"scsKHz"`
 	Mu                   int      `json:"mu"`
@@ -119,23 +124,23 @@ type JSONPartition struct {
 	// MiniSlotUs gives the length of mini-slots of 2, 4 and 7 symbols away
 	// from the longer CP, for latency.
 	MiniSlotUs map[string]float64 `json:"miniSlotUs"`
-	Symbols    []JSONSymbol       `json:"symbols"`
+	Symbols    []Symbol           `json:"symbols"`
 }
 
-// JSON returns the JSON document of r. With symbols false the per-symbol
-// lists are left empty, for callers that want the summary only.
-func (r Result) JSON(symbols bool) JSONResult {
+// Build returns the document of r. With symbols false the per-symbol lists
+// are left empty, for callers that want the summary only.
+func Build(r grid.Result, symbols bool) Document {
 	ch := r.Channel
-	out := JSONResult{
+	out := Document{
 		Plan: r.Plan,
-		Channel: JSONChannel{Range: ch.Range.String(), BandwidthMHz: ch.BandwidthMHz,
+		Channel: Channel{Range: ch.Range.String(), BandwidthMHz: ch.BandwidthMHz,
 			LowKHz: ch.Low.KHz(), HighKHz: ch.High.KHz(), CenterKHz: ch.Center.KHz(), UsePercent: ch.UsePercent},
-		Carriers:   []JSONCarrier{},
-		Partitions: []JSONPartition{},
+		Carriers:   []Carrier{},
+		Partitions: []Partition{},
 		Findings:   r.Findings,
 	}
 	if out.Findings == nil {
-		out.Findings = []Finding{}
+		out.Findings = []grid.Finding{}
 	}
 	if ch.Absolute {
 		out.Channel.CenterMHz = ptr(ch.CenterHz.MHz())
@@ -148,22 +153,22 @@ func (r Result) JSON(symbols bool) JSONResult {
 		}
 	}
 	for _, c := range r.Carriers {
-		out.Carriers = append(out.Carriers, JSONCarrier{SCSKHz: c.SCSKHz, NRB: c.NRB, CarrierBandwidth: c.CarrierBandwidth,
+		out.Carriers = append(out.Carriers, Carrier{SCSKHz: c.SCSKHz, NRB: c.NRB, CarrierBandwidth: c.CarrierBandwidth,
 			OffsetToCarrier: c.OffsetToCarrier, OffsetChosen: c.Chosen, LowKHz: c.Low.KHz(), HighKHz: c.High.KHz(),
 			MinGuardKHz: c.MinGuard.KHz(), GuardLowKHz: c.GuardLow.KHz(), GuardHighKHz: c.GuardHigh.KHz()})
 	}
 	for _, l := range r.Partitions {
 		n := l.Numerology
-		jp := JSONPartition{Name: l.Name, SCSKHz: n.SCSKHz(), Mu: n.Mu, CP: n.CP.String(),
+		jp := Partition{Name: l.Name, SCSKHz: n.SCSKHz(), Mu: n.Mu, CP: n.CP.String(),
 			StartCRB: l.StartCRB, SizePRB: l.SizePRB, LowKHz: l.Low.KHz(), HighKHz: l.High.KHz(),
 			OccupiedMHz: l.Width().MHz(), SlotsPerSubframe: n.SlotsPerSubframe(), SymbolsPerSlot: n.SymbolsPerSlot(),
 			Slots: l.SlotCount(), SymbolCount: l.SymbolCount(), SlotUs: n.SlotTc().Micros(),
 			UsefulUs: n.UsefulTc().Micros(), CPUs: n.CPTc(1).Micros(), LongCPUs: n.CPTc(0).Micros(),
 			REPerSlot: l.REPerSlot(), Direction: string(l.Direction), Layers: l.Layers, Modulation: l.Modulation,
-			PeakMbps: l.PeakMbps, Share: math.Round(l.Share*1e4) / 1e4, Symbols: []JSONSymbol{},
+			PeakMbps: l.PeakMbps, Share: math.Round(l.Share*1e4) / 1e4, Symbols: []Symbol{},
 			MiniSlotUs: map[string]float64{}}
 		for _, k := range []int{2, 4, 7} {
-			jp.MiniSlotUs[strconv.Itoa(k)] = math.Round((Tc(k)*(n.UsefulTc()+n.CPTc(1))).Micros()*1e4) / 1e4
+			jp.MiniSlotUs[strconv.Itoa(k)] = math.Round((grid.Tc(k)*(n.UsefulTc()+n.CPTc(1))).Micros()*1e4) / 1e4
 		}
 		if l.LocationAndBandwidth >= 0 {
 			jp.LocationAndBandwidth = ptr(l.LocationAndBandwidth)
@@ -173,7 +178,7 @@ func (r Result) JSON(symbols bool) JSONResult {
 			jp.HighMHz = ptr(ch.Abs(l.High).MHz())
 		}
 		if symbols {
-			jp.Symbols = make([]JSONSymbol, l.SymbolCount())
+			jp.Symbols = make([]Symbol, l.SymbolCount())
 			for k := range jp.Symbols {
 				jp.Symbols[k].Symbol = n.SymbolAt(k)
 				if l.Dirs != nil {
@@ -184,17 +189,30 @@ func (r Result) JSON(symbols bool) JSONResult {
 		out.Partitions = append(out.Partitions, jp)
 	}
 	if s := r.SSB; s != nil {
-		js := &JSONSSB{Case: s.Case, SCSKHz: s.Numerology.SCSKHz(), Candidates: s.Candidates, PeriodMs: s.PeriodMs, Blocks: []JSONSSBBlock{}}
+		js := &SSB{Case: s.Case, SCSKHz: s.Numerology.SCSKHz(), Candidates: s.Candidates, PeriodMs: s.PeriodMs, Blocks: []SSBBlock{}}
 		for _, b := range s.Blocks {
-			js.Blocks = append(js.Blocks, JSONSSBBlock{Index: b.Index, Slot: b.Slot, Symbol: b.Symbol, StartTc: b.Start, EndTc: b.End, LowKHz: b.Low.KHz(), HighKHz: b.High.KHz()})
+			js.Blocks = append(js.Blocks, SSBBlock{Index: b.Index, Slot: b.Slot, Symbol: b.Symbol, StartTc: b.Start, EndTc: b.End, LowKHz: b.Low.KHz(), HighKHz: b.High.KHz()})
 		}
 		out.SSB = js
 	}
 	out.Fit = r.Fit
 	if t := r.TDD; t != nil {
-		out.TDD = &JSONTDD{ReferenceSCSKHz: t.Reference.SCSKHz(), PeriodMs: float64(t.Period) / float64(TcPerSubframe), Slots: t.SlotString()}
+		out.TDD = &TDD{ReferenceSCSKHz: t.Reference.SCSKHz(), PeriodMs: float64(t.Period) / float64(grid.TcPerSubframe), Slots: t.SlotString()}
 	}
 	return out
+}
+
+// Write writes the document of r, symbols included, to w as JSON and a
+// newline; with indent each value stands on its own line, two spaces deep,
+// as the command line and the web API give it. Callers write through it
+// rather than marshal Build's value so that the document can later be
+// streamed without changing them.
+func Write(w io.Writer, r grid.Result, indent bool) error {
+	enc := json.NewEncoder(w)
+	if indent {
+		enc.SetIndent("", "  ")
+	}
+	return enc.Encode(Build(r, true))
 }
 
 func ptr[T any](v T) *T { return &v }

@@ -1,0 +1,58 @@
+package report
+
+import (
+	"bytes"
+	"encoding/json"
+	"testing"
+
+	"gridloom/grid"
+)
+
+func sample() grid.Result {
+	start := 0
+	return grid.Compute(grid.Plan{Name: "sample", Carrier: grid.CarrierPlan{BandwidthMHz: 20},
+		Partitions: []grid.PartitionPlan{{Name: "a", SCSKHz: 30, StartCRB: &start, SizePRB: 51}},
+		TDD:        &grid.TDDPlan{ReferenceSCSKHz: 30, Pattern1: grid.TDDPattern{PeriodMs: 2.5, DownlinkSlots: 3, DownlinkSymbols: 6, UplinkSlots: 1, UplinkSymbols: 4}}})
+}
+
+// Write gives the bytes that marshalling Build's document gives, so a
+// caller may use either; the command line's golden files pin the bytes.
+func TestWriteMatchesBuild(t *testing.T) {
+	r := sample()
+	for _, indent := range []bool{true, false} {
+		var buf bytes.Buffer
+		if err := Write(&buf, r, indent); err != nil {
+			t.Fatal(err)
+		}
+		var want []byte
+		var err error
+		if indent {
+			want, err = json.MarshalIndent(Build(r, true), "", "  ")
+		} else {
+			want, err = json.Marshal(Build(r, true))
+		}
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Equal(buf.Bytes(), append(want, '\n')) {
+			t.Errorf("indent %v: Write and Build differ", indent)
+		}
+	}
+}
+
+// The summary keeps empty symbol lists (never null), the full document lists
+// every symbol of the span: 28 per millisecond at 30 kHz (TS 38.211 4.3.2).
+func TestSymbols(t *testing.T) {
+	r := sample()
+	sum, full := Build(r, false), Build(r, true)
+	if len(sum.Partitions) != 1 || sum.Partitions[0].Symbols == nil || len(sum.Partitions[0].Symbols) != 0 {
+		t.Fatalf("summary partitions %+v, want one with an empty symbol list", sum.Partitions)
+	}
+	p := full.Partitions[0]
+	if len(p.Symbols) != 28*r.Plan.SpanMs || p.SymbolCount != len(p.Symbols) {
+		t.Errorf("%d symbols over %d ms, symbolCount %d; want 28 a millisecond", len(p.Symbols), r.Plan.SpanMs, p.SymbolCount)
+	}
+	if p.Symbols[0].Direction != "D" {
+		t.Errorf("first symbol under a DDDSU pattern is %q, want D", p.Symbols[0].Direction)
+	}
+}
