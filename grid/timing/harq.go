@@ -143,11 +143,15 @@ func HARQRoundTrips(p Pattern, tproc1, gnbProc Tc) (RoundTrips, error) {
 			return RoundTrips{}, err
 		}
 		ready := p.dlEnd(ack.Symbol) + gnbProc
-		r := ack.Symbol/SymbolsPerSlot + 1
-		for ; r < ack.Symbol/SymbolsPerSlot+2*p.CycleSlots()+int(gnbProc/SlotTc(p.Mu))+2; r++ {
+		r, found := ack.Symbol/SymbolsPerSlot+1, false
+		for limit := r + 2*p.CycleSlots() + int(gnbProc/SlotTc(p.Mu)) + 2; r < limit; r++ {
 			if p.IsDL(r*SymbolsPerSlot) && p.dlStart(r*SymbolsPerSlot) >= ready {
+				found = true
 				break
 			}
+		}
+		if !found {
+			return RoundTrips{}, fmt.Errorf("The pattern has no slot starting with a downlink symbol after the HARQ-ACK of slot %d.", s)
 		}
 		rt := RoundTrip{Slot: s, PDSCHEnd: last, Ack: ack, Retx: r,
 			RTT: p.dlStart(r*SymbolsPerSlot) - p.dlStart(first)}

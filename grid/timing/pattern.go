@@ -30,6 +30,9 @@ func (p Pattern) Check() error {
 	if err := checkMu("The pattern's numerology", p.Mu); err != nil {
 		return err
 	}
+	if p.ULAdvance < 0 {
+		return fmt.Errorf("The uplink advance must be zero or more Tc; got %d.", p.ULAdvance)
+	}
 	if p.Dir == nil {
 		return nil
 	}
@@ -40,9 +43,6 @@ func (p Pattern) Check() error {
 		if d != 'D' && d != 'U' && d != 'F' {
 			return fmt.Errorf("The pattern's symbol %d is %q; each symbol must be 'D', 'U' or 'F'.", i, d)
 		}
-	}
-	if p.ULAdvance < 0 {
-		return fmt.Errorf("The uplink advance must be zero or more Tc; got %d.", p.ULAdvance)
 	}
 	return nil
 }
