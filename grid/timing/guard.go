@@ -96,6 +96,21 @@ func GuardOfPattern(p Pattern) (Tc, int, error) {
 	return best, bestN, nil
 }
 
+// Table4_3_2_3 is TS 38.211 Table 4.3.2-3 (Release 17), the transition
+// times N_Tx-Rx and N_Rx-Tx in Tc, the same both ways: index 0 is FR1,
+// index 1 FR2. A UE that is not full duplex does not transmit earlier than
+// N_Rx-Tx·Tc after the end of the last downlink symbol it received (4.3.2),
+// so N_Rx-Tx is the switching time MaxCellRadius must leave for it.
+var Table4_3_2_3 = [2]Tc{25600, 13792}
+
+// RxTxTransition returns N_Rx-Tx·Tc of Table 4.3.2-3 for FR1 or FR2.
+func RxTxTransition(fr2 bool) Tc {
+	if fr2 {
+		return Table4_3_2_3[1]
+	}
+	return Table4_3_2_3[0]
+}
+
 // MaxCellRadius is the largest distance from the gNB at which a UE can still
 // finish receiving the last downlink symbol before it must start sending the
 // first uplink symbol:
@@ -106,8 +121,11 @@ func GuardOfPattern(p Pattern) (Tc, int, error) {
 // it receives downlink frame i (TS 38.211 4.3.1), with N_TA the round trip
 // 2r/c (TS 38.213 4.2). The last downlink symbol reaches it r/c late; its
 // first uplink symbol must leave 2r/c + N_TA,offset·Tc early; both within
-// the guard, with the switching time T_switch between them. The result is
-// in metres, zero when the guard is too short.
+// the guard, with the switching time T_switch between them: for a UE that
+// is not full duplex, N_Rx-Tx·Tc of TS 38.211 Table 4.3.2-3
+// (RxTxTransition); pass 0 to see the guard's bound from propagation
+// alone, as range estimates often do (common practice). The result is in
+// metres, zero when the guard is too short.
 func MaxCellRadius(guard, ntaOffset, switching Tc) float64 {
 	t := guard - ntaOffset - switching
 	if t <= 0 {

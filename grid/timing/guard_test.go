@@ -23,6 +23,13 @@ func TestMaxCellRadiusTwoGuardSymbols30kHz(t *testing.T) {
 	if want := 299792458.0 * 7 / 240000; math.Abs(r-want) > 1e-6 || math.Abs(r-8743.9467) > 1e-3 {
 		t.Errorf("radius %.4f m, want %.4f", r, want)
 	}
+	// A UE that is not full duplex also needs N_Rx-Tx = 25 600 Tc (TS 38.211
+	// Table 4.3.2-3): 140 288 − 2·25 600 = 89 088 Tc = 29/640 000 s
+	// (45.31 µs), r = 299 792 458·29/1 280 000 = 6 792.17 m.
+	r = MaxCellRadius(gp, off, RxTxTransition(false))
+	if want := 299792458.0 * 29 / 1280000; math.Abs(r-want) > 1e-6 || math.Abs(r-6792.1729) > 1e-3 {
+		t.Errorf("radius with N_Rx-Tx %.4f m, want %.4f", r, want)
+	}
 	// The same guard measured in the DDDSU pattern (symbols 10–11 of the
 	// special slot, neither the first of a half subframe).
 	g, n, err := GuardOfPattern(dddsu)
@@ -34,6 +41,7 @@ func TestMaxCellRadiusTwoGuardSymbols30kHz(t *testing.T) {
 	if sw != 19661 {
 		t.Errorf("10 µs = %d Tc, want 19661 (19 660.8 rounded)", sw)
 	}
+	r = MaxCellRadius(gp, off, 0)
 	if r2 := MaxCellRadius(gp, off, sw); math.Abs(r-r2-299792458.0*float64(sw)/1966080000/2) > 1e-6 {
 		t.Errorf("radius with switching %.2f m, want %.2f less than %.2f", r2, 299792458.0*float64(sw)/1966080000/2, r)
 	}
