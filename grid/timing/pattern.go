@@ -96,3 +96,30 @@ func (p Pattern) dlEnd(k int) Tc   { s, l := SymbolStart(p.Mu, k); return s + l 
 // ulStart and ulEnd are the edges of symbol k as the UE transmits it.
 func (p Pattern) ulStart(k int) Tc { return p.dlStart(k) - p.ULAdvance }
 func (p Pattern) ulEnd(k int) Tc   { return p.dlEnd(k) - p.ULAdvance }
+
+// ExpandSlots turns a direction per slot into a direction per symbol:
+// 'D', 'U' and 'F' fill a slot's 14 symbols, 'S' takes special, which gives
+// the 14 symbols of the special slot (e.g. "DDDDDDDDDDFFUU"). ExpandSlots("DDDSU",
+// "DDDDDDDDDDFFUU") is the 2.5 ms pattern at 30 kHz.
+func ExpandSlots(slots, special string) ([]byte, error) {
+	var out []byte
+	for i := 0; i < len(slots); i++ {
+		switch c := slots[i]; c {
+		case 'D', 'U', 'F':
+			for range SymbolsPerSlot {
+				out = append(out, c)
+			}
+		case 'S':
+			if len(special) != SymbolsPerSlot {
+				return nil, fmt.Errorf("The special slot must give %d symbol directions ('D', 'U' or 'F'); got %d.", SymbolsPerSlot, len(special))
+			}
+			out = append(out, special...)
+		default:
+			return nil, fmt.Errorf("Slot %d of the pattern is %q; each slot must be 'D', 'U', 'F' or 'S'.", i, c)
+		}
+	}
+	if len(out) == 0 {
+		return nil, fmt.Errorf("The slot pattern is empty; give at least one slot.")
+	}
+	return out, nil
+}

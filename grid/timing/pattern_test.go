@@ -56,3 +56,15 @@ func TestErrorsAreSentences(t *testing.T) {
 		}
 	}
 }
+
+func TestExpandSlots(t *testing.T) {
+	got, err := ExpandSlots("DDDSU", "DDDDDDDDDDFFUU")
+	if err != nil || string(got) != string(dddsu.Dir) {
+		t.Errorf("ExpandSlots = %q, %v; want the DDDSU pattern", got, err)
+	}
+	for _, c := range []struct{ slots, special string }{{"DDSU", "DDD"}, {"DXU", ""}, {"", ""}} {
+		if _, err := ExpandSlots(c.slots, c.special); err == nil {
+			t.Errorf("ExpandSlots(%q, %q): no error", c.slots, c.special)
+		}
+	}
+}
