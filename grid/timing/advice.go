@@ -12,6 +12,10 @@ type Profile struct {
 	CP     Tc // normal cyclic prefix of a symbol that does not start a half subframe, 144κ·2^−μ
 	TProc1 Tc // T_proc,1 with pos0 and the Adders zero value
 	TProc2 Tc // T_proc,2 with the Adders zero value (d2,1 = 1)
+	// K1 and K2 are the least slot offsets the numerology meets on its own
+	// (FDD, no timing advance): K1 for a PDSCH that ends with the slot, K2
+	// for a PDCCH in symbols 0–1 granting a 14-symbol PUSCH.
+	K1, K2 int
 	// SlotLatency and MiniSlotLatency are the downlink user-plane latency on
 	// FDD with a 14-symbol slot and a 2-symbol mini-slot, EvaluationProcessing
 	// on each side, no retransmission.
@@ -46,6 +50,14 @@ func Profiles(c Capability, fr1 Coexistence) ([]Profile, error) {
 		if err != nil {
 			continue
 		}
+		ack, err := EarliestK1(Pattern{Mu: mu}, 0, SymbolsPerSlot-1, t1)
+		if err != nil {
+			return nil, err
+		}
+		grant, err := EarliestK2(Pattern{Mu: mu}, 0, 1, SymbolsPerSlot, t2)
+		if err != nil {
+			return nil, err
+		}
 		proc, err := EvaluationProcessing(mu, c)
 		if err != nil {
 			return nil, err
@@ -70,7 +82,7 @@ func Profiles(c Capability, fr1 Coexistence) ([]Profile, error) {
 		}
 		out = append(out, Profile{
 			Mu: mu, SCSKHz: 15 << mu, Slot: SlotTc(mu), CP: Tc(144*Kappa) >> mu,
-			TProc1: t1, TProc2: t2, SlotLatency: slot, MiniSlotLatency: mini,
+			TProc1: t1, TProc2: t2, K1: ack.K1, K2: grant.K2, SlotLatency: slot, MiniSlotLatency: mini,
 			GuardRadius: MaxCellRadius(GuardTc(mu, 2), off, 0), TARadius: ta,
 		})
 	}

@@ -13,7 +13,8 @@ const (
 )
 
 // Table8_6_2_1 is TS 38.133 Table 8.6.2-1 (Release 17), the BWP switch delay
-// T_BWPswitchDelay in slots for type 1 and type 2, indexed by μ; the table's
+// T_BWPswitchDelay in slots for type 1 and type 2, indexed by μ (from
+// memory; every cell agrees with OpenAirInterface's copy); the table's
 // other column, the slot length, is SlotTc. Rows exist for μ 0–3 only here:
 // rows for 480 and 960 kHz, if Release 17 added them for FR2-2, were not at
 // hand and are absent (a request for μ 4–6 is refused).
@@ -41,9 +42,9 @@ func bwpDelay(mu int, t SwitchType) (Tc, error) {
 }
 
 // BWPSwitchDelay is the DCI- or timer-based switch delay of TS 38.133 8.6.2
-// from a BWP at μ from to one at μ to. Note 2 of Table 8.6.2-1: when the
-// switch changes the subcarrier spacing, the delay is the larger of the
-// delays before and after the switch. The two are counted in slots of
+// from a BWP at μ from to one at μ to. Note 2 of Table 8.6.2-1 (from
+// memory): when the switch changes the subcarrier spacing, the delay is the
+// larger of the delays before and after the switch. The two are counted in slots of
 // different lengths, so this package compares them in time (the reading
 // taken here) and expresses the larger in slots of the new BWP, rounded up.
 func BWPSwitchDelay(from, to int, t SwitchType) (BWPSwitch, error) {

@@ -17,11 +17,13 @@
 //
 // Release: the tables are pinned to 3GPP Release 17. The exact V17.x.0
 // documents were not at hand; the TS 38.214 and TS 38.213 cells were read in
-// a stored Release 18 text of those clauses (whose rows are those of
-// Release 17: Rel-18 added only the d3 and d4 terms, zero here) and compared
-// cell by cell with OpenAirInterface's copy; the TS 38.133 values (N_TA,offset,
-// BWP switch delay) are from memory, compared with srsRAN_Project's and
-// OpenAirInterface's copies. testdata/ holds those copies and
+// a stored Release 18 text of those clauses, whose rows are those of
+// Release 17 (from memory: Rel-18 added the d3 and d4 terms to T_proc, which
+// this package leaves out as Release 17 has them not), and compared cell by
+// cell with OpenAirInterface's copy; TS 38.211 Table 4.3.2-3 likewise. The
+// TS 38.133 values (N_TA,offset, BWP switch delay, the RRC switch's 6 ms)
+// are from memory, compared with srsRAN_Project's and OpenAirInterface's
+// copies; the text of TS 38.133 and of TR 37.910 was not at hand. testdata/ holds those copies and
 // reference_test.go counts the cells. Each table's doc comment names its
 // clause and what is absent.
 //

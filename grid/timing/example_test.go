@@ -28,20 +28,20 @@ func ExampleTProc1() {
 // (N1/2 on each side here), which capability 1 stops shortening at 120 kHz.
 func ExampleProfiles() {
 	ps, _ := timing.Profiles(timing.Cap1, timing.FR1NoCoexistence)
-	fmt.Println("kHz  slot µs  DL slot µs  DL 2-symbol µs  2-symbol guard km")
+	fmt.Println("kHz  slot µs  K1  K2  DL slot µs  DL 2-symbol µs  2-symbol guard km")
 	for _, p := range ps {
-		fmt.Printf("%3d %8.1f %11.1f %15.1f %18.2f\n", p.SCSKHz, p.Slot.Micros(),
+		fmt.Printf("%3d %8.1f %3d %3d %11.1f %15.1f %18.2f\n", p.SCSKHz, p.Slot.Micros(), p.K1, p.K2,
 			p.SlotLatency.Mean*1e6/float64(timing.TcPerSecond),
 			p.MiniSlotLatency.Mean*1e6/float64(timing.TcPerSecond), p.GuardRadius/1000)
 	}
 	// Output:
-	// kHz  slot µs  DL slot µs  DL 2-symbol µs  2-symbol guard km
-	//  15   1000.0      2070.8           754.5              19.44
-	//  30    500.0      1106.8           448.6               8.74
-	//  60    250.0       678.3           349.2               3.40
-	// 120    125.0       365.9           201.3               1.62
-	// 480     31.2       225.3           184.1               0.00
-	// 960     15.6       201.8           181.3               0.00
+	// kHz  slot µs  K1  K2  DL slot µs  DL 2-symbol µs  2-symbol guard km
+	//  15   1000.0   1   1      2070.8           754.5              19.44
+	//  30    500.0   1   2      1106.8           448.6               8.74
+	//  60    250.0   2   2       678.3           349.2               3.40
+	// 120    125.0   2   3       365.9           201.3               1.62
+	// 480     31.2   6  11       225.3           184.1               0.00
+	// 960     15.6  12  21       201.8           181.3               0.00
 }
 
 // The HARQ round trip of every downlink slot of a DDDSU pattern at 30 kHz.

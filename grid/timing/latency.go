@@ -42,7 +42,7 @@ type LatencyConfig struct {
 	// gives the value this package uses when told nothing.
 	TxProc, RxProc Tc
 	// RetxProb is the probability that a transmission fails and is
-	// retransmitted (the TR evaluates p = 0.1); HARQRTT the time one
+	// retransmitted (the TR evaluates p = 0.1, from memory); HARQRTT the time one
 	// retransmission adds, e.g. a RoundTrips.Max; MaxRetx how many
 	// retransmissions at most (the TR counts one; 0 means 1 when RetxProb > 0).
 	RetxProb float64
