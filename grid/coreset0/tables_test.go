@@ -204,3 +204,27 @@ func TestNoCORESET0In5MHzAt30kHz(t *testing.T) {
 		t.Errorf("Table 13-4 index 0 is %d Hz wide, want 8 640 000", cfg.WidthHz())
 	}
 }
+
+// Spot rows of the occasion tables, read from the clause 13 text (O and M
+// doubled).
+func TestOccasionSpotRows(t *testing.T) {
+	cases := []struct {
+		fr    FR
+		index int
+		want  OccasionRow
+	}{
+		{FR1, 0, OccasionRow{0, 1, 2, 0, 0}},              // TS 38.213 Table 13-11 index 0: O 0, 1 set, M 1, symbol 0
+		{FR1, 7, OccasionRow{14, 2, 1, 0, NSymbCORESET}},  // Table 13-11 index 7: O 7, 2 sets, M 1/2, {0 if i even, N_symb^CORESET if odd}
+		{FR1, 9, OccasionRow{10, 1, 4, 0, 0}},             // Table 13-11 index 9: O 5, 1 set, M 2, symbol 0
+		{FR1, 15, OccasionRow{10, 1, 2, 2, 2}},            // Table 13-11 index 15: O 5, 1 set, M 1, symbol 2
+		{FR2, 3, OccasionRow{5, 2, 1, 0, 7}},              // TS 38.213 Table 13-12 index 3: O 2.5, 2 sets, M 1/2, {0 if even, 7 if odd}
+		{FR2, 11, OccasionRow{15, 2, 1, 0, NSymbCORESET}}, // Table 13-12 index 11: O 7.5, 2 sets, M 1/2, {0, N_symb^CORESET}
+		{FR2, 13, OccasionRow{10, 1, 4, 0, 0}},            // Table 13-12 index 13: O 5, 1 set, M 2, symbol 0
+		{FR2, 14, OccasionRow{}},                          // Table 13-12 index 14: reserved
+	}
+	for _, c := range cases {
+		if got := OccasionRows(c.fr)[c.index]; got != c.want {
+			t.Errorf("%v searchSpaceZero %d = %+v, want %+v", c.fr, c.index, got, c.want)
+		}
+	}
+}
