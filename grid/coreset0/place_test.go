@@ -28,6 +28,14 @@ func TestPlaceHandWorked(t *testing.T) {
 			wantRef: 10, wantFirst: 8, wantLowHz: 2_865_000, wantHighHz: 11_505_000,
 		},
 		{
+			// The largest FR1 k_SSB keeps the block's subcarrier 0 in the same 30 kHz CRB:
+			// 20 × 180 + 23 × 15 = 3 945 kHz; ⌊3 945 / 360⌋ = 10. Table 13-4 index 0 (offset 0):
+			// first CRB 10, low edge 3 600 − 15 = 3 585 kHz, high edge 3 585 + 8 640 kHz.
+			name: "FR1 30/30 k_SSB 23", table: Table13_4, index: 0,
+			pos:     SSBPosition{FR: FR1, CommonSCSkHz: 30, OffsetToPointA: 20, KSSB: 23},
+			wantRef: 10, wantFirst: 10, wantLowHz: 3_585_000, wantHighHz: 12_225_000,
+		},
+		{
 			// FR1, 15/15, Table 13-1 index 12 (96 RBs, offset 38). offsetToPointA 40 is
 			// CRB 40 at 15 kHz; first CRB 40 − 38 = 2; low edge 2 × 180 − 7.5 = 352.5 kHz;
 			// width 96 × 180 kHz = 17 280 kHz.
