@@ -75,6 +75,7 @@ func (s SubCarrierSpacingCommon) KHz(fr FR) int {
 	return base << s
 }
 
+// String returns the ASN.1 name, "scs15or60" or "scs30or120".
 func (s SubCarrierSpacingCommon) String() string {
 	if s == SCS30or120 {
 		return "scs30or120"
@@ -107,6 +108,7 @@ const (
 // Symbol returns l0, the symbol index the value names.
 func (d DMRSTypeAPosition) Symbol() int { return 2 + int(d) }
 
+// String returns the ASN.1 name, "pos2" or "pos3".
 func (d DMRSTypeAPosition) String() string {
 	if d == Pos3 {
 		return "pos3"

@@ -13,6 +13,7 @@ const (
 	FR2 FR = 2
 )
 
+// String returns "FR1" or "FR2".
 func (f FR) String() string {
 	switch f {
 	case FR1:
