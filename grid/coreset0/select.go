@@ -256,7 +256,10 @@ type Placement struct {
 // the smallest RB index of the CORESET … to the smallest RB index of the
 // common RB overlapping with the first RB of the corresponding SS/PBCH
 // block"). The k_SSB of the position resolves the k_SSB-dependent rows; a
-// CORESET that would start below CRB 0 is an error.
+// CORESET that would start below CRB 0 is an error. With shared spectrum
+// (Tables 13-1A, 13-4A) this is the placement for an SS/PBCH block on a
+// synchronization raster entry; a block placed off the raster by ssbFrequency
+// adds a second offset (TS 38.213 13) that Place does not compute.
 func Place(t Table, controlResourceSetZero int, p SSBPosition) (Placement, error) {
 	if p.FR != t.FR() || p.CommonSCSkHz != t.PDCCHSCSkHz() {
 		return Placement{}, fmt.Errorf("The SS/PBCH position (%v, common SCS %d kHz) does not match %v, which is for %v with a %d kHz CORESET.", p.FR, p.CommonSCSkHz, t, t.FR(), t.PDCCHSCSkHz())
