@@ -83,8 +83,15 @@ func SymbolStartTc(mu, l int) int64 {
 // 30 and 120 kHz both slots of the subframe / 60 kHz slot when the table says
 // 2, and only the second (n_slot^RA = 1) when it says 1. In a paired format
 // (A1/B1...) the last occasion of each PRACH slot sends the B format, the
-// others the A format (TS 38.211 6.3.3.2, as read from memory of the table's
-// notes).
+// others the A format (TS 38.211 5.3.2: B when n_t^RA = N_t^{RA,slot} − 1).
+//
+// Times sit on the uplink symbol grid of TS 38.211 5.3.1 counted from the
+// start of the subframe, so an occasion holds exactly its N_dur^RA symbols.
+// Clause 5.3.2 measures t_start^RA from the start of the 60 kHz slot "assumed
+// to start at t = 0"; read literally in the 60 kHz slots that do not begin at
+// 0 or 0.5 ms of a subframe (slots 1 and 3 of each subframe) that puts 16κ
+// (0.52 µs) into symbols that have none on the grid. This package follows
+// the grid there.
 func Occasions(s Spectrum, index, sfn, mu int) ([]Occasion, error) {
 	c, err := Lookup(s, index)
 	if err != nil {
