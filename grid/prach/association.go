@@ -31,7 +31,8 @@ func (n SSBPerRO) occasionsPerCycle(nSSB int) int {
 	return (nSSB + n.Num - 1) / n.Num
 }
 
-// associationPeriods is TS 38.213 Table 8.1-1 (Release 17): for each PRACH
+// associationPeriods is TS 38.213 Table 8.1-1 (unchanged from Release 15 to
+// the Release 18 text read in github.com/CrzyNxtG/mdspc): for each PRACH
 // configuration period in ms, the allowed association periods in numbers of
 // configuration periods.
 var associationPeriods = map[int][]int{

@@ -74,37 +74,38 @@ func (s Spectrum) FR() int {
 	return 1
 }
 
-func (s Spectrum) rows() (*[256]Config, error) {
+func (s Spectrum) rows() ([]Config, error) {
 	switch s {
 	case FR1Paired:
-		return &table6332_2, nil
+		return table6332_2, nil
 	case FR1Unpaired:
-		return &table6332_3, nil
+		return table6332_3, nil
 	case FR2Unpaired:
-		return &table6332_4, nil
+		return table6332_4, nil
 	}
 	return nil, fmt.Errorf("the PRACH table %d is not one of FR1 paired, FR1 unpaired, FR2 unpaired", uint8(s))
 }
 
-// Lookup returns row prach-ConfigurationIndex of the table. Every index 0–255
-// is defined in Release 17; the FR1 unpaired indexes 256–262 (Release 16,
-// prach-ConfigurationIndex-v1610) are refused as not transcribed.
+// Lookup returns row prach-ConfigurationIndex of the table: 0–255, and for
+// FR1 unpaired spectrum also 256–262 (prach-ConfigurationIndex-v1610). No
+// row of the three tables is reserved in the spec text, so every index in
+// range has a row.
 func Lookup(s Spectrum, index int) (Config, error) {
 	rows, err := s.rows()
 	if err != nil {
 		return Config{}, err
 	}
-	if s == FR1Unpaired && index >= 256 && index <= 262 {
-		return Config{}, fmt.Errorf("prach-ConfigurationIndex %d (prach-ConfigurationIndex-v1610) is not transcribed from TS 38.211 Table %s; use 0 to 255", index, s.Table())
+	if index < 0 || index >= len(rows) {
+		return Config{}, fmt.Errorf("prach-ConfigurationIndex is %d; TS 38.211 Table %s defines 0 to %d", index, s.Table(), len(rows)-1)
 	}
-	if index < 0 || index > 255 {
-		return Config{}, fmt.Errorf("prach-ConfigurationIndex is %d; TS 38.211 Table %s defines 0 to 255", index, s.Table())
-	}
-	c := rows[index]
-	if c.X == 0 {
-		return Config{}, fmt.Errorf("prach-ConfigurationIndex %d is reserved in TS 38.211 Table %s", index, s.Table())
-	}
-	return c, nil
+	return rows[index], nil
+}
+
+// Len is the number of configuration indexes the table defines: 256, or 263
+// for FR1 unpaired spectrum.
+func (s Spectrum) Len() int {
+	rows, _ := s.rows()
+	return len(rows)
 }
 
 // InFrame reports whether radio frame sfn carries occasions: n_SFN mod x = y
@@ -118,18 +119,24 @@ func (c Config) InFrame(sfn int) bool {
 	return false
 }
 
-// The three tables below are TS 38.211 Release 17 (V17.x.0) Tables 6.3.3.2-2,
-// 6.3.3.2-3 and 6.3.3.2-4, one row per prach-ConfigurationIndex 0–255:
+// The three tables below are TS 38.211 Tables 6.3.3.2-2, 6.3.3.2-3 and
+// 6.3.3.2-4, one row per prach-ConfigurationIndex, in the spec's columns:
 // {preamble format, x, y values, subframe or 60 kHz slot numbers, starting
-// symbol, PRACH slots per subframe or 60 kHz slot, N_t^{RA,slot}, N_dur^RA}.
-// The values were taken where two independent published copies agree
-// (testdata/oai_prach_config.tsv, testdata/srsran_prach_config.tsv; see
-// TestTablesAgainstOAI and TestTablesAgainstSRSRAN for the cell counts).
-// The copies differ in one cell, settled at index 95 of Table 6.3.3.2-3.
+// symbol, PRACH slots per subframe or 60 kHz slot, N_t^{RA,slot}, N_dur^RA},
+// with 0 for the spec's "-".
+//
+// Transcribed from the text of TS 38.211 V18.7.0 (2025-06), Release 18: the
+// only full text of the tables at hand (no V17.x.0 text was available). The
+// rows 0–255 and the Release 16 rows 256–262 of Table 6.3.3.2-3 are those the
+// Release 17 configuration index selects; Release 18 changed the tables'
+// titles (FR2-NTN) but, as far as the two Release 17-era copies below show,
+// no value. They are checked cell by cell against two independent copies,
+// testdata/oai_prach_config.tsv and testdata/srsran_prach_config.tsv (see
+// TestTablesAgainstOAI and TestTablesAgainstSRSRAN for the counts).
 
 // table6332_2 is TS 38.211 Table 6.3.3.2-2: random access configurations for
-// FR1 and paired spectrum/supplementary uplink (Release 17).
-var table6332_2 = [256]Config{
+// FR1 and paired spectrum/supplementary uplink.
+var table6332_2 = []Config{
 	/*   0 */ {Format0, 16, ys{1}, at{1}, 0, 0, 0, 0},
 	/*   1 */ {Format0, 16, ys{1}, at{4}, 0, 0, 0, 0},
 	/*   2 */ {Format0, 16, ys{1}, at{7}, 0, 0, 0, 0},
@@ -389,16 +396,15 @@ var table6332_2 = [256]Config{
 }
 
 // table6332_3 is TS 38.211 Table 6.3.3.2-3: random access configurations for
-// FR1 and unpaired spectrum (Release 17).
+// FR1 and unpaired spectrum, indexes 0–262 (256–262 are the Release 16
+// prach-ConfigurationIndex-v1610 rows).
 //
-// Index 95: the OpenAirInterface copy has x = 16, the srsRAN copy x = 2. This
-// table follows x = 2: the same row for A1 (index 76) and A3 (index 118) —
-// subframes 2,3,4,7,8,9, start symbol 0, one PRACH slot — reads x = 2, y = 1 in
-// both copies, the block of A2 rows around it (indexes 90–94) is x = 2, and
-// x = 16 appears in the A2 block only at its head (index 87). The stored
-// 38.211 text gives no readable copy of this row; x = 2 is also how the
-// spec's row reads from memory.
-var table6332_3 = [256]Config{
+// Index 95: the OpenAirInterface copy has x = 16; the spec text and the
+// srsRAN copy have x = 2, which this table follows. It fits the table's own
+// pattern: the same row for A1 (index 76) and A3 (index 118) has x = 2.
+// Index 15: the spec text leaves the two "-" cells of this long-format row
+// empty; they mean the same "-".
+var table6332_3 = []Config{
 	/*   0 */ {Format0, 16, ys{1}, at{9}, 0, 0, 0, 0},
 	/*   1 */ {Format0, 8, ys{1}, at{9}, 0, 0, 0, 0},
 	/*   2 */ {Format0, 4, ys{1}, at{9}, 0, 0, 0, 0},
@@ -655,13 +661,21 @@ var table6332_3 = [256]Config{
 	/* 253 */ {FormatA3B3, 1, ys{0}, at{3, 4, 8, 9}, 0, 2, 2, 6},
 	/* 254 */ {FormatA3B3, 1, ys{0}, at{1, 3, 5, 7, 9}, 0, 1, 2, 6},
 	/* 255 */ {FormatA3B3, 1, ys{0}, at{0, 1, 2, 3, 4, 5, 6, 7, 8, 9}, 2, 1, 2, 6},
+	/* 256 */ {Format0, 16, ys{1}, at{7}, 0, 0, 0, 0},
+	/* 257 */ {Format0, 8, ys{1}, at{7}, 0, 0, 0, 0},
+	/* 258 */ {Format0, 4, ys{1}, at{7}, 0, 0, 0, 0},
+	/* 259 */ {Format0, 2, ys{0}, at{7}, 0, 0, 0, 0},
+	/* 260 */ {Format0, 2, ys{1}, at{7}, 0, 0, 0, 0},
+	/* 261 */ {Format0, 2, ys{0}, at{2}, 0, 0, 0, 0},
+	/* 262 */ {Format0, 2, ys{1}, at{2}, 0, 0, 0, 0},
 }
 
 // table6332_4 is TS 38.211 Table 6.3.3.2-4: random access configurations for
-// FR2 and unpaired spectrum (Release 17). Slots are numbered 0–39 on the 60 kHz
-// slot grid of a frame; where a row gives two y values (n_SFN mod x ∈ {1, 2}),
-// Y lists both.
-var table6332_4 = [256]Config{
+// FR2 and unpaired spectrum. Slots are numbered 0–39 on the 60 kHz slot grid
+// of a frame; where a row gives two y values (n_SFN mod x ∈ {1, 2}), Y lists
+// both. The spec writes long slot lists with "..." (1,3,5,7,...,37,39); they
+// are written out here.
+var table6332_4 = []Config{
 	/*   0 */ {FormatA1, 16, ys{1}, at{4, 9, 14, 19, 24, 29, 34, 39}, 0, 2, 6, 2},
 	/*   1 */ {FormatA1, 16, ys{1}, at{3, 7, 11, 15, 19, 23, 27, 31, 35, 39}, 0, 1, 6, 2},
 	/*   2 */ {FormatA1, 8, ys{1, 2}, at{9, 19, 29, 39}, 0, 2, 6, 2},

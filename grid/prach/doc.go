@@ -9,9 +9,10 @@
 // it. Time is a count of Tc = 1/(480000·4096) s (TS 38.211 4.1) held in an
 // int64 whose name ends in Tc; κ = 64.
 //
-// All tables are those of 3GPP Release 17: TS 38.211 V17.x.0 and TS 38.213
-// V17.x.0. The Release 16/17 additions that serve NR-U and FR2-2 only (L_RA =
-// 571 and 1151, Δf^RA = 480 and 960 kHz, the FR1 unpaired indexes 256–262 of
-// prach-ConfigurationIndex-v1610) are not transcribed; asking for them is an
-// error that says so.
+// The tables are transcribed from the text of TS 38.211 V18.7.0 and checked
+// against two independent copies (see config.go); the rules of TS 38.213
+// clause 8.1 follow its Release 17 content (the later additions — SBFD,
+// LTM candidate cells, preamble repetitions, shared spectrum — are left
+// out). The additions that serve only NR-U and FR2-2 (L_RA = 571 and 1151,
+// Δf^RA = 480 and 960 kHz) are not transcribed; asking for them is an error.
 package prach

@@ -76,7 +76,7 @@ func (f Format) Pair() (a, b Format) {
 }
 
 // Preamble is one row of TS 38.211 Table 6.3.3.1-1 (long formats) or
-// Table 6.3.3.1-2 (short formats), Release 17.
+// Table 6.3.3.1-2 (short formats).
 //
 // For the long formats NuKappa and NCPKappa count κ; for the short formats
 // they count κ·2^−μ, where Δf^RA = 15·2^μ kHz, exactly as the tables print
@@ -95,8 +95,11 @@ type Preamble struct {
 }
 
 // preambles is TS 38.211 Table 6.3.3.1-1 (rows 0–3) and Table 6.3.3.1-2
-// (L_RA = 139 column only), Release 17 (V17.x.0), one row per format in the
-// order of the Format constants. Short formats support no restricted set.
+// (L_RA = 139 only), one row per format in the order of the Format
+// constants. Rows 0–3 are read from the text of V18.7.0; the short formats'
+// N_u and N_CP^RA are pictures in that text, so they are written from memory
+// and checked against the srsRAN copy (TestPreamblesAgainstCopy). The text
+// marks every short format "-" for restricted sets.
 var preambles = [FormatC2 + 1]Preamble{
 	// Table 6.3.3.1-1: L_RA = 839, Δf^RA, N_u, N_CP^RA in κ.
 	{Format0, 839, 1250, 24576, 3168, 1, true, true},
@@ -186,23 +189,24 @@ func (s RestrictedSet) String() string {
 
 const noNCS = -1 // a cell the spec leaves empty
 
-// ncs1250 is TS 38.211 Table 6.3.3.1-5 (N_CS for Δf^RA = 1.25 kHz), Release 17,
-// columns unrestricted, type A, type B; rows zeroCorrelationZoneConfig 0–15.
+// ncs1250 is TS 38.211 Table 6.3.3.1-5 (N_CS for Δf^RA = 1.25 kHz), read from
+// the text of V18.7.0: columns unrestricted, type A, type B; rows
+// zeroCorrelationZoneConfig 0–15.
 var ncs1250 = [3][16]int{
 	{0, 13, 15, 18, 22, 26, 32, 38, 46, 59, 76, 93, 119, 167, 279, 419},
 	{15, 18, 22, 26, 32, 38, 46, 55, 68, 82, 100, 128, 158, 202, 237, noNCS},
 	{15, 18, 22, 26, 32, 38, 46, 55, 68, 82, 100, 118, 137, noNCS, noNCS, noNCS},
 }
 
-// ncs5000 is TS 38.211 Table 6.3.3.1-6 (N_CS for Δf^RA = 5 kHz), Release 17.
+// ncs5000 is TS 38.211 Table 6.3.3.1-6 (N_CS for Δf^RA = 5 kHz), V18.7.0.
 var ncs5000 = [3][16]int{
 	{0, 13, 26, 33, 38, 41, 49, 55, 64, 76, 93, 119, 139, 209, 279, 419},
 	{36, 57, 72, 81, 89, 94, 103, 112, 121, 132, 137, 152, 173, 195, 216, 237},
 	{36, 57, 60, 63, 65, 68, 71, 77, 81, 85, 97, 109, 122, 137, noNCS, noNCS},
 }
 
-// ncs139 is TS 38.211 Table 6.3.3.1-7 (N_CS for Δf^RA = 15·2^μ kHz), Release
-// 17, the L_RA = 139 column (unrestricted sets only).
+// ncs139 is TS 38.211 Table 6.3.3.1-7 (N_CS for Δf^RA = 15·2^μ kHz), V18.7.0,
+// the L_RA = 139 column (unrestricted sets only).
 var ncs139 = [16]int{0, 2, 4, 6, 8, 10, 12, 13, 15, 17, 19, 23, 27, 34, 46, 69}
 
 // NCS returns the cyclic shift N_CS for a format, zeroCorrelationZoneConfig
@@ -239,7 +243,7 @@ func NCS(f Format, zeroCorrelationZoneConfig int, set RestrictedSet) (int, error
 	return v, nil
 }
 
-// Allocation is one row of TS 38.211 Table 6.3.3.2-1 (Release 17): for a
+// Allocation is one row of TS 38.211 Table 6.3.3.2-1: for a
 // PRACH and a PUSCH subcarrier spacing, how many PUSCH resource blocks one
 // PRACH occasion spans (N_RB^RA) and the offset k̄ in PRACH subcarriers.
 type Allocation struct {
@@ -250,8 +254,9 @@ type Allocation struct {
 	KBar       int // k̄
 }
 
-// allocations is TS 38.211 Table 6.3.3.2-1, Release 17, the L_RA = 839 and
-// L_RA = 139 rows (the L_RA = 571/1151 and 480/960 kHz rows are not transcribed).
+// allocations is TS 38.211 Table 6.3.3.2-1 as the text of V18.7.0 gives it,
+// the rows with L_RA = 839, and L_RA = 139 with both spacings up to 120 kHz
+// (the rows with 480/960 kHz or L_RA = 571/1151 are not transcribed).
 var allocations = []Allocation{
 	{839, 1250, 15000, 6, 7},
 	{839, 1250, 30000, 3, 1},

@@ -119,3 +119,55 @@ func TestFormatNames(t *testing.T) {
 		t.Error("ParseFormat(D1) gave no error")
 	}
 }
+
+// TestPreamblesAgainstCopy compares Tables 6.3.3.1-1 and 6.3.3.1-2 with the
+// srsRAN copy in testdata/preambles.tsv. The long formats were also read
+// against the text of TS 38.211 V18.7.0; the short formats' N_u and N_CP are
+// pictures in that text, so this copy is their only outside check.
+func TestPreamblesAgainstCopy(t *testing.T) {
+	f, err := os.Open("testdata/preambles.tsv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	cells, rows := 0, 0
+	sc := bufio.NewScanner(f)
+	for sc.Scan() {
+		c := strings.Split(sc.Text(), "\t")
+		if strings.HasPrefix(c[0], "#") || c[0] == "format" {
+			continue
+		}
+		rows++
+		fm, err := ParseFormat(c[0])
+		if err != nil {
+			t.Fatal(err)
+		}
+		p, err := PreambleOf(fm)
+		if err != nil {
+			t.Fatal(err)
+		}
+		v := make([]int, 4)
+		for i := range v {
+			v[i], _ = strconv.Atoi(c[i+1])
+		}
+		seqUnit := 2048
+		if fm.Long() {
+			seqUnit = 24576
+			if v[1] == 5000 {
+				seqUnit = 6144
+			}
+		}
+		got := []int{p.LRA, p.SCSHz, p.Repeats, p.NCPKappa, p.NuKappa}
+		want := []int{v[0], v[1], v[2], v[3], v[2] * seqUnit}
+		for i := range got {
+			cells++
+			if got[i] != want[i] {
+				t.Errorf("format %v column %d: %d, copy %d", fm, i, got[i], want[i])
+			}
+		}
+	}
+	t.Logf("preamble formats: %d rows, %d cells compared", rows, cells)
+	if rows != 13 {
+		t.Errorf("%d rows in the copy, want 13", rows)
+	}
+}

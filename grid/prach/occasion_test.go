@@ -94,6 +94,19 @@ func TestOccasionsLongTDDStartSymbol7(t *testing.T) {
 	}
 }
 
+// TestOccasionsIndex261 works index 261 of Table 6.3.3.2-3 (a Release 16
+// row: format 0, x = 2, y = 0, subframe 2, start symbol 0).
+func TestOccasionsIndex261(t *testing.T) {
+	if n := len(mustOccasions(t, FR1Unpaired, 261, 5, 0)); n != 0 {
+		t.Errorf("SFN 5 (5 mod 2 = 1): %d occasions, want 0", n)
+	}
+	occ := mustOccasions(t, FR1Unpaired, 261, 4, 0)
+	// Subframe 2 starts at 2·1 966 080 = 3 932 160 Tc.
+	if len(occ) != 1 || occ[0].Subframe != 2 || occ[0].StartTc != 3932160 || occ[0].Format != Format0 {
+		t.Errorf("SFN 4: %+v, want one format 0 occasion in subframe 2 at 3932160 Tc", occ)
+	}
+}
+
 // TestOccasionsB4Unpaired30kHz works index 160 of Table 6.3.3.2-3 (B4, x = 1,
 // y = 0, subframe 9, start symbol 2, one PRACH slot per subframe, one
 // occasion, N_dur = 12) at Δf^RA = 30 kHz (μ = 1).

@@ -43,7 +43,8 @@ func (l Layout) check() error {
 	return nil
 }
 
-// NGap is N_gap of TS 38.213 Table 8.1-2 (Release 17) in symbols of the
+// NGap is N_gap of TS 38.213 Table 8.1-2 (read in the Release 18 text of
+// github.com/CrzyNxtG/mdspc, commit dec6ce3; the same rows since Release 17) in symbols of the
 // preamble's spacing: 0 at 1.25 and 5 kHz, 2 at 15, 30, 60 and 120 kHz
 // (8 at 480 kHz and 16 at 960 kHz, not used here), and 0 for format B4
 // whatever the spacing (TS 38.213 8.1).
@@ -61,7 +62,8 @@ type Validity struct {
 	Reason string
 }
 
-// Valid applies TS 38.213 clause 8.1 (Release 17) to occasion o:
+// Valid applies TS 38.213 clause 8.1 to occasion o, the Release 17 rules
+// (the later SBFD, LTM and shared-spectrum branches are left out):
 //   - paired spectrum or SUL: every occasion is valid;
 //   - unpaired without tdd-UL-DL-ConfigurationCommon: valid if it does not
 //     precede an SS/PBCH block in the PRACH slot and starts at least N_gap
