@@ -44,7 +44,10 @@ func (o Occasion) GuardTc() int64 { return o.EndTc - o.PreambleEndTc() }
 // LongAllotmentTc is the time a long-format preamble is usually drawn to hold,
 // sequence, cyclic prefix and guard together: 1 ms for formats 0 and 3, 3 ms
 // for format 1 and 3.5 ms for format 2. This is common practice (the guard
-// periods quoted with these formats), not a number of TS 38.211.
+// periods quoted with these formats), not a number of TS 38.211. Sources
+// differ here: the srsRAN Project rounds a long preamble's window up to whole
+// milliseconds, 4 ms for format 2; the 3.5 ms kept here is the allotment the
+// 22 km usually quoted for format 2 comes from (from memory).
 func LongAllotmentTc(f Format) (int64, error) {
 	switch f {
 	case Format0, Format3:

@@ -305,3 +305,39 @@ func TestCellRange(t *testing.T) {
 		t.Error("N_CS = 139 for L_RA = 139 gave no error")
 	}
 }
+
+// TestCellRangeLongFormats shows the CP and guard radii of formats 2 and 3
+// (Table 6.3.3.2-2 indexes 53 and 60), N_CS = 0. The guard follows the
+// common-practice allotments of LongAllotmentTc.
+func TestCellRangeLongFormats(t *testing.T) {
+	for _, tc := range []struct {
+		index            int
+		cpTc, guardTc    int64
+		cp, guard, limit float64
+	}{
+		// Format 2: N_CP = 4688κ = 300 032 Tc (152.604 µs) → 22 874.789 m;
+		// allotted 3.5 ms = 6 881 280 Tc, N_u = 4·24576κ = 6 291 456 Tc:
+		// guard 289 792 Tc (147.396 µs) → 22 094.080 m, the limit (the 22 km
+		// usually quoted for format 2).
+		{53, 300032, 289792, 22874.789, 22094.080, 22094.080},
+		// Format 3: N_CP = 3168κ = 202 752 Tc → 15 458.049 m; N_u = 4·6144κ =
+		// 1 572 864 Tc in 1 ms: guard 190 464 Tc → 14 521.197 m, as format 0.
+		{60, 202752, 190464, 15458.049, 14521.197, 14521.197},
+	} {
+		occ := mustOccasions(t, FR1Paired, tc.index, 1, 0)
+		o := occ[0]
+		r, err := CellRange(o, 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		t.Logf("index %d, format %v: CP %.0f m, guard %.0f m, limit %.0f m", tc.index, o.Format, r.CP, r.Guard, r.Limit)
+		if o.CPTc != tc.cpTc || o.GuardTc() != tc.guardTc {
+			t.Errorf("index %d: CP %d, guard %d Tc; want %d, %d", tc.index, o.CPTc, o.GuardTc(), tc.cpTc, tc.guardTc)
+		}
+		for _, v := range [][2]float64{{r.CP, tc.cp}, {r.Guard, tc.guard}, {r.Limit, tc.limit}} {
+			if math.Abs(v[0]-v[1]) > 0.01 {
+				t.Errorf("index %d: radius %.3f m, want %.3f m", tc.index, v[0], v[1])
+			}
+		}
+	}
+}
