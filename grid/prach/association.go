@@ -15,6 +15,7 @@ func (n SSBPerRO) valid() bool {
 		(n.Num == 1 && slices.Contains([]int{2, 4, 8}, n.Den))
 }
 
+// String writes N as the RRC field spells it: "1/8" ... "16".
 func (n SSBPerRO) String() string {
 	if n.Den == 1 {
 		return fmt.Sprint(n.Num)

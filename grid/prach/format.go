@@ -175,6 +175,7 @@ const (
 	RestrictedTypeB
 )
 
+// String names the set for messages.
 func (s RestrictedSet) String() string {
 	switch s {
 	case Unrestricted:

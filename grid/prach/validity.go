@@ -125,9 +125,6 @@ func Valid(o Occasion, l Layout) (Validity, error) {
 		slotEnd = SymbolStartTc(o.Mu, o.Slot*14+14)
 	}
 	gap := int64(NGap(o)) * int64((2048+144)*Kappa>>o.Mu)
-	if o.Format.Long() {
-		gap = 0
-	}
 	// Look back one frame and forward to the end of the PRACH slot.
 	var lastDLEnd, lastSSBEnd int64 = -frameTc, -frameTc
 	for k := -n; ; k++ {
@@ -153,6 +150,9 @@ func Valid(o Occasion, l Layout) (Validity, error) {
 			return Validity{false, "the occasion overlaps a downlink symbol"}, nil
 		}
 		return Validity{false, fmt.Sprintf("the occasion starts %d Tc after the last downlink symbol, less than N_gap = %d symbols (%d Tc)", start-lastDLEnd, NGap(o), gap)}, nil
+	}
+	if lastSSBEnd > start {
+		return Validity{false, "the occasion overlaps an SS/PBCH block symbol"}, nil
 	}
 	if start < lastSSBEnd+gap {
 		return Validity{false, fmt.Sprintf("the occasion starts %d Tc after the last SS/PBCH block symbol, less than N_gap = %d symbols (%d Tc)", start-lastSSBEnd, NGap(o), gap)}, nil

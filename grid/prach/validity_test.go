@@ -98,6 +98,20 @@ func TestValidity(t *testing.T) {
 		t.Errorf("N_gap of B4 = %d, want 0", g)
 	}
 	checkValid(t, "C0 at symbol 6", handOccasion(FormatC0, 1, 3, 6, 2), l, false, "less than N_gap = 2")
+	// A long format 0 occasion (μ = 0) in subframe 0 meets the SS/PBCH blocks
+	// of the 30 kHz layout from its start (symbol 2 of slot 0 at 30 kHz).
+	checkValid(t, "format 0 over the blocks", Occasion{Format: Format0, Slot60: -1, StartTc: 0, EndTc: TcPerSubframe},
+		tdd30(false), false, "precedes an SS/PBCH block")
+	// Blocks on a 15 kHz layout (symbols 2–5 and 8–11 of subframe 0) and a
+	// 30 kHz C0 occasion at symbol 11 of slot 0: it starts at 11·70 144 + 1024
+	// = 772 608 Tc, inside 15 kHz symbol 5 (702 464 to 842 752 Tc); the next
+	// block symbol (8, from 1 124 352 Tc) lies past the 30 kHz slot's end at
+	// 983 040 Tc.
+	l15 := Layout{Mu: 0, SSB: make([]bool, 140)}
+	for _, k := range []int{2, 3, 4, 5, 8, 9, 10, 11} {
+		l15.SSB[k] = true
+	}
+	checkValid(t, "C0 inside a block", handOccasion(FormatC0, 1, 0, 11, 1), l15, false, "overlaps an SS/PBCH block")
 
 	// Without tdd-UL-DL-ConfigurationCommon only the SS/PBCH blocks count.
 	n := tdd30(false)
