@@ -125,14 +125,15 @@ func (c Config) InFrame(sfn int) bool {
 // symbol, PRACH slots per subframe or 60 kHz slot, N_t^{RA,slot}, N_dur^RA},
 // with 0 for the spec's "-".
 //
-// Transcribed from the text of TS 38.211 V18.7.0 (2025-06), Release 18: the
-// only full text of the tables at hand (no V17.x.0 text was available). The
-// rows 0–255 and the Release 16 rows 256–262 of Table 6.3.3.2-3 are those the
-// Release 17 configuration index selects; Release 18 changed the tables'
-// titles (FR2-NTN) but, as far as the two Release 17-era copies below show,
-// no value. They are checked cell by cell against two independent copies,
-// testdata/oai_prach_config.tsv and testdata/srsran_prach_config.tsv (see
-// TestTablesAgainstOAI and TestTablesAgainstSRSRAN for the counts).
+// Transcribed from the text of TS 38.211 V18.7.0 (2025-06), Release 18, as
+// converted to Markdown in github.com/CrzyNxtG/mdspc (38211-i70.md, commit
+// cc28174): the only full text of the tables at hand; no V17.x.0 text was, so the pin is
+// to that version. The indexes are those Release 17 signals (0–255, and
+// 256–262 of Table 6.3.3.2-3 since Release 16). The rows are checked cell by
+// cell against two independent copies, testdata/oai_prach_config.tsv and
+// testdata/srsran_prach_config.tsv, which agree with this text on every cell
+// they carry but one (see TestTablesAgainstOAI and TestTablesAgainstSRSRAN
+// for the counts).
 
 // table6332_2 is TS 38.211 Table 6.3.3.2-2: random access configurations for
 // FR1 and paired spectrum/supplementary uplink.
