@@ -481,12 +481,13 @@ func (w *walker) plan(v any) grid.Plan {
 }
 
 func (w *walker) carrier(v any) grid.CarrierPlan {
-	m := w.object(v, "carrier", "range", "bandwidthMHz", "centerMHz", "arfcn", "offsetToCarrier", "carrierBandwidth")
+	m := w.object(v, "carrier", "range", "band", "bandwidthMHz", "centerMHz", "arfcn", "offsetToCarrier", "carrierBandwidth")
 	if m == nil {
 		return grid.CarrierPlan{}
 	}
 	c := grid.CarrierPlan{
 		Range:            w.str(m["range"], "carrier.range"),
+		Band:             w.str(m["band"], "carrier.band"),
 		BandwidthMHz:     w.intOr0(m["bandwidthMHz"], "carrier.bandwidthMHz"),
 		CenterMHz:        w.optFloat(m["centerMHz"], "carrier.centerMHz"),
 		ARFCN:            w.optInt(m["arfcn"], "carrier.arfcn"),
