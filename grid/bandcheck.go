@@ -120,9 +120,9 @@ func checkInBand(fs *findings, b band.Band, rng Range, ch *Channel, cp CarrierPl
 		fs.add(Info, CodeBand, "", "carrier.band", "Band %s's row of %s is not transcribed here; carrier.bandwidthMHz and the subcarrier spacings are not checked against the band.",
 			b.Name, bandSource(b, "5.3.5-1"))
 	} else {
-		allowed := b.SCS()
+		allowed, data := b.SCS(), rng.DataSCS()
 		for i, p := range parts {
-			if slices.Contains(rng.DataSCS(), p.SCSKHz) && !slices.Contains(allowed, p.SCSKHz) {
+			if slices.Contains(data, p.SCSKHz) && !slices.Contains(allowed, p.SCSKHz) {
 				fs.add(Error, CodeBand, p.Name, fmt.Sprintf("partitions[%d].scsKHz", i), "Partition %q uses %d kHz, which band %s does not allow (%s); use %s kHz.",
 					p.Name, p.SCSKHz, b.Name, bandSource(b, "5.3.5-1"), JoinInts(allowed))
 			}
@@ -171,9 +171,13 @@ func checkInBand(fs *findings, b band.Band, rng Range, ch *Channel, cp CarrierPl
 
 // rasterRule describes the rows of a band's channel raster that apply.
 func rasterRule(b band.Band, scsInUse []int) string {
+	minSCS := 0
+	if len(scsInUse) > 0 {
+		minSCS = slices.Min(scsInUse)
+	}
 	var rows []string
 	for _, r := range b.Rasters {
-		if r.RasterKHz == 100 || len(scsInUse) == 0 || r.RasterKHz <= slices.Min(scsInUse) {
+		if r.Serves(minSCS) {
 			rows = append(rows, "ΔF_Raster "+strconv.Itoa(r.RasterKHz)+" kHz, NR-ARFCN "+r.DL.String())
 		}
 	}

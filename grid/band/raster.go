@@ -70,27 +70,29 @@ func (b Band) CheckUL(centreHz int64, scsKHz []int, bandwidthMHz int) Check {
 	return b.check(centreHz, scsKHz, bandwidthMHz, true)
 }
 
-// usableRasters are the rows of Table 5.4.2.3-1 that a carrier of these
-// spacings may use. TS 38.101-1 5.4.2.3: a 100 kHz raster serves every
-// spacing; where the table gives ΔF_Raster per spacing (15/30 kHz in FR1,
-// 60/120 kHz in FR2-1, 120/480/960 kHz in n263) a raster coarser than the
-// carrier's smallest spacing may not be used (the 30 kHz raster is not for
-// 15 kHz carriers).
-func (b Band) usableRasters(scsKHz []int) []Raster {
+// Serves reports whether a carrier whose smallest subcarrier spacing is
+// minSCSKHz may use the raster. TS 38.101-1 5.4.2.3: a 100 kHz raster
+// serves every spacing; where Table 5.4.2.3-1 gives ΔF_Raster per spacing
+// (15/30 kHz in FR1, 60/120 kHz in FR2-1, 120/480/960 kHz in n263) a raster
+// coarser than the carrier's smallest spacing may not be used (the 30 kHz
+// raster is not for 15 kHz carriers). A minSCSKHz of 0 means any.
+func (r Raster) Serves(minSCSKHz int) bool {
+	return r.RasterKHz == 100 || minSCSKHz <= 0 || r.RasterKHz <= minSCSKHz
+}
+
+// minSCS is the smallest spacing of a carrier, 0 when none is given or
+// when no raster of the band serves it (then every raster is tried).
+func (b Band) minSCS(scsKHz []int) int {
 	if len(scsKHz) == 0 {
-		return b.Rasters
+		return 0
 	}
-	minSCS := slices.Min(scsKHz)
-	var out []Raster
+	m := slices.Min(scsKHz)
 	for _, r := range b.Rasters {
-		if r.RasterKHz == 100 || r.RasterKHz <= minSCS {
-			out = append(out, r)
+		if r.Serves(m) {
+			return m
 		}
 	}
-	if len(out) == 0 {
-		return b.Rasters
-	}
-	return out
+	return 0
 }
 
 func (b Band) check(f int64, scsKHz []int, bandwidthMHz int, ul bool) Check {
@@ -100,15 +102,18 @@ func (b Band) check(f int64, scsKHz []int, bandwidthMHz int, ul bool) Check {
 		}
 		return r.DL
 	}
-	rows := b.usableRasters(scsKHz)
+	minSCS := b.minSCS(scsKHz)
 	c := Check{ARFCN: -1, Below: -1, Above: -1}
-	if len(rows) > 0 {
-		c.RasterKHz = rows[0].RasterKHz
+	for _, r := range b.Rasters {
+		if r.Serves(minSCS) {
+			c.RasterKHz = r.RasterKHz
+			break
+		}
 	}
 	n, exact := ARFCN(f)
 	if exact {
-		for _, r := range rows {
-			if pick(r).Holds(n) {
+		for _, r := range b.Rasters {
+			if r.Serves(minSCS) && pick(r).Holds(n) {
 				c.On, c.ARFCN, c.RasterKHz = true, n, r.RasterKHz
 			}
 		}
@@ -135,9 +140,9 @@ func (b Band) check(f int64, scsKHz []int, bandwidthMHz int, ul bool) Check {
 		}
 		return cur
 	}
-	for _, r := range rows {
+	for _, r := range b.Rasters {
 		a := pick(r)
-		if a.Step == 0 {
+		if a.Step == 0 || !r.Serves(minSCS) {
 			continue
 		}
 		if lo >= a.First {
