@@ -84,8 +84,13 @@ func checkBand(fs *findings, rng Range, ch *Channel, cp *CarrierPlan, parts []Pa
 			first = own
 		}
 		if !slices.ContainsFunc(own, func(f Finding) bool { return f.Severity != Info }) {
-			fs.add(Info, CodeBand, "", "carrier.band", "The channel lies in band %s (%s); it is checked as %s. Name the band in carrier.band to choose.",
-				JoinOr(ch.BandCandidates), bandSource(b, "5.2-1"), b.Name)
+			if len(cands) == 1 {
+				fs.add(Info, CodeBand, "", "carrier.band", "The channel lies in band %s (%s) and is checked against it; carrier.band may name it.",
+					b.Name, bandSource(b, "5.2-1"))
+			} else {
+				fs.add(Info, CodeBand, "", "carrier.band", "The channel lies in band %s (%s); it is checked as %s, the first it fits. Name the band in carrier.band to choose.",
+					JoinOr(ch.BandCandidates), bandSource(b, "5.2-1"), b.Name)
+			}
 			*fs = append(*fs, own...)
 			setBand(ch, b, *cp, scsInUse)
 			return
