@@ -228,3 +228,25 @@ func TestRasterRowsInsideBands(t *testing.T) {
 		}
 	}
 }
+
+// A second reading of TS 38.101-2 Table 5.4.2.3-1 for FR2-1, derived from
+// the band edges of Table 5.2-1: the 60 kHz raster is every global raster
+// point (60 kHz from 24250.08 MHz, TS 38.101-2 5.4.2.1) inside the band;
+// the 120 kHz raster is those an even number of points from 24250.08 MHz.
+// This holds n259 and n262 too, for which no independent copy was found.
+func TestFR2RasterFromBandEdges(t *testing.T) {
+	for _, name := range []string{"n257", "n258", "n259", "n260", "n261", "n262"} {
+		b, _ := Lookup(name)
+		first := firstFR2N + int((b.DL.LowHz-24250.08e6+59999)/60000) // ceil
+		last := firstFR2N + int((b.DL.HighHz-24250.08e6)/60000)       // floor
+		want := map[int]ARFCNRange{60: {first, 1, last}, 120: {first + (first-firstFR2N)%2, 2, last - (last-firstFR2N)%2}}
+		if len(b.Rasters) != 2 {
+			t.Fatalf("%s has %d rasters; want 60 and 120 kHz", name, len(b.Rasters))
+		}
+		for _, r := range b.Rasters {
+			if r.DL != want[r.RasterKHz] || r.UL != r.DL {
+				t.Errorf("%s ΔF_Raster %d kHz: DL %s, UL %s; derived from %d–%d Hz: %s", name, r.RasterKHz, r.DL, r.UL, b.DL.LowHz, b.DL.HighHz, want[r.RasterKHz])
+			}
+		}
+	}
+}
