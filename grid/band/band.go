@@ -34,9 +34,9 @@ type Span struct {
 // Empty reports whether the span stands for an absent direction.
 func (s Span) Empty() bool { return s.HighHz <= s.LowHz }
 
-// Holds reports whether [lowHz, highHz] lies within the span; a channel
-// may touch the band edges (TS 38.101-1 5.3.1: the channel edges are the
-// band's outermost usable frequencies).
+// Holds reports whether [lowHz, highHz] lies within the span. A channel is
+// held by its channel edges, F_C ∓ BW_Channel/2 (TS 38.101-1 5.3.1), which
+// may reach the band edges.
 func (s Span) Holds(lowHz, highHz int64) bool {
 	return !s.Empty() && lowHz >= s.LowHz && highHz <= s.HighHz && lowHz <= highHz
 }

@@ -172,9 +172,10 @@ func (b Band) check(f int64, scsKHz []int, bandwidthMHz int, ul bool) Check {
 }
 
 // PairedUL returns the uplink centre of an FDD band's downlink carrier at
-// the default duplex spacing, with its NR-ARFCN (TS 38.101-1 Table 5.2-1
-// and Table 5.4.2.3-1 pair the two ranges offset by offset); false for a
-// band without a pair.
+// the band's default duplex spacing, with its NR-ARFCN; false for a band
+// without a pair. Table 5.4.2.3-1 lists the uplink and downlink NR-ARFCNs
+// of an FDD band entry by entry, so the pair keeps the spacing of the
+// ranges' lower edges (the n28 note's 155608/144608 keeps it too).
 func (b Band) PairedUL(dlCentreHz int64) (ulCentreHz int64, arfcn int, ok bool) {
 	d, ok := b.DuplexSpacingHz()
 	if !ok {
