@@ -78,7 +78,13 @@ func (c *tally) cell(key string, ours, theirs int) {
 
 func (c *tally) done(what string) {
 	c.t.Logf("%s: %d cells compared, %d differ (each settled below)", what, c.compared, c.differs)
-	for k, why := range c.settled {
+	keys := make([]string, 0, len(c.settled))
+	for k := range c.settled {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	for _, k := range keys {
+		why := c.settled[k]
 		if !c.seen[k] {
 			c.t.Errorf("%s: settled difference %q no longer differs; remove it (%s)", what, k, why)
 		} else {
