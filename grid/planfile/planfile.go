@@ -3,8 +3,9 @@
 //
 // Security: Decode takes untrusted bytes. It refuses input over MaxSize,
 // unknown keys, duplicate keys, values of the wrong type, numbers that are
-// not finite or not whole where a count is wanted, and YAML whose aliases
-// expand past a bound, so the plan it returns is small and well-typed. It
+// not finite or not whole where a count is wanted, YAML whose aliases
+// expand past a bound, a second YAML document (which would otherwise be
+// dropped unread) and !!binary values (which would read as their base64), so the plan it returns is small and well-typed. It
 // does not judge values: grid.Compute does, with findings.
 package planfile
 
@@ -104,12 +105,29 @@ func DecodeYAML(data []byte) (grid.Plan, error) {
 		return grid.Plan{}, tooLarge(len(data))
 	}
 	data = bytes.TrimPrefix(data, bom)
+	dec := yaml.NewDecoder(bytes.NewReader(data))
 	var doc yaml.Node
-	if err := yaml.Unmarshal(data, &doc); err != nil {
-		return grid.Plan{}, &FieldError{Msg: "The plan is not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: ") + "."}
+	if err := dec.Decode(&doc); err != nil && err != io.EOF {
+		return grid.Plan{}, yamlSyntaxError(data, err)
 	}
 	if doc.Kind == 0 {
 		return grid.Plan{}, &FieldError{Msg: "The plan file is empty."}
+	}
+	// JSON refuses data after the plan; YAML would read the first of
+	// several documents and drop the rest without a word. An empty
+	// document after a closing "---" drops nothing and passes.
+	var next yaml.Node
+	if err := dec.Decode(&next); err != io.EOF {
+		if err != nil {
+			return grid.Plan{}, yamlSyntaxError(data, err)
+		}
+		if !emptyDocument(&next) {
+			return grid.Plan{}, &FieldError{Msg: fmt.Sprintf("Line %d: a second YAML document starts here; a plan file holds one plan, so remove the \"---\" line and what follows, or put each plan in a file of its own.", documentLine(&next))}
+		}
+		var more yaml.Node
+		if err := dec.Decode(&more); err != io.EOF {
+			return grid.Plan{}, &FieldError{Msg: "The plan file holds more than one YAML document; a plan file holds one plan, so put each plan in a file of its own."}
+		}
 	}
 	budget := maxNodes
 	tree, err := yamlTree(&doc, &budget, 0)
@@ -117,6 +135,23 @@ func DecodeYAML(data []byte) (grid.Plan, error) {
 		return grid.Plan{}, err
 	}
 	return FromTree(tree)
+}
+
+// emptyDocument reports whether a YAML document holds nothing.
+func emptyDocument(n *yaml.Node) bool {
+	if len(n.Content) == 0 {
+		return true
+	}
+	c := n.Content[0]
+	return c.Kind == yaml.ScalarNode && c.Tag == "!!null" && c.Value == ""
+}
+
+// documentLine is the first line of a document's content.
+func documentLine(n *yaml.Node) int {
+	if len(n.Content) > 0 && n.Content[0].Line > 0 {
+		return n.Content[0].Line
+	}
+	return n.Line
 }
 
 func tooLarge(n int) error {
@@ -264,6 +299,9 @@ func yamlTree(n *yaml.Node, budget *int, depth int) (any, error) {
 				return number(n.Value), nil // too large for int64: the walk refuses it by size
 			}
 			return number(strconv.FormatInt(i, 10)), nil
+		case "!!binary":
+			// Read as its text, base64 would pass for a name or a case.
+			return nil, &FieldError{Msg: fmt.Sprintf("Line %d: !!binary values are not accepted in a plan; write the value as plain text.", n.Line)}
 		case "!!float":
 			var f float64
 			if err := n.Decode(&f); err != nil {
@@ -622,4 +660,9 @@ func EncodeYAML(p grid.Plan) ([]byte, error) {
 		return nil, err
 	}
 	return buf.Bytes(), nil
+}
+
+// yamlSyntaxError turns the YAML parser's error into the message users see.
+func yamlSyntaxError(data []byte, err error) error {
+	return &FieldError{Msg: "The plan is not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: ") + "."}
 }

@@ -123,6 +123,12 @@ func TestDecodeErrorsNameTheField(t *testing.T) {
 		{"trailing JSON", `{"name":"a"} {}`, "", "more after the end"},
 		{"top-level list", `[1]`, "", "want an object"},
 		{"empty YAML", "", "", "empty"},
+		{"second YAML document", "name: a\n---\nname: b\n", "", "Line 3: a second YAML document"},
+		{"second YAML document, a list", "name: a\n--- [1, 2]\n", "", "second YAML document"},
+		{"third YAML document", "name: a\n---\n---\nname: b\n", "", "more than one YAML document"},
+		{"broken second YAML document", "name: a\n---\n: [\n", "", "not valid YAML"},
+		{"YAML binary", "name: !!binary aGVsbG8=\n", "", "Line 1: !!binary values are not accepted"},
+		{"YAML binary in a partition", "partitions:\n  - {name: a, cp: !!binary bm9ybWFs}\n", "", "Line 2: !!binary"},
 		{"deep nesting", strings.Repeat("[", 100) + strings.Repeat("]", 100), "", "deeper"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
@@ -150,6 +156,17 @@ func TestDecodeErrorsNameTheField(t *testing.T) {
 			}
 			t.Errorf("error %q does not name field %q", err, c.field)
 		})
+	}
+}
+
+// YAML that marks the start or end of its one document, or ends with an
+// empty one, is a single plan and reads as one.
+func TestYAMLOneDocument(t *testing.T) {
+	for _, doc := range []string{"name: a\n", "---\nname: a\n", "name: a\n...\n", "name: a\n---\n", "--- \nname: a\n---\n# the end\n"} {
+		p, err := DecodeYAML([]byte(doc))
+		if err != nil || p.Name != "a" {
+			t.Errorf("%q: %+v, %v; want the plan named a", doc, p, err)
+		}
 	}
 }
 
