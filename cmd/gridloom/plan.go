@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"flag"
 	"fmt"
 	"io"
@@ -41,19 +42,37 @@ func parseFlags(fs *flag.FlagSet, args []string) error {
 	return nil
 }
 
-// readPlan reads and decodes the plan named by path, "-" for stdin.
-func readPlan(path string, stdin io.Reader) (grid.Plan, error) {
-	var data []byte
-	var err error
-	if path == "-" {
-		data, err = io.ReadAll(io.LimitReader(stdin, planfile.MaxSize+1))
-	} else {
-		data, err = readFileLimited(path)
+// readPlan reads and decodes the plan named by path, "-" for stdin. It
+// gives up when ctx ends: standard input (or a named pipe) may never
+// deliver, and Ctrl-C must still end the program.
+func readPlan(ctx context.Context, path string, stdin io.Reader) (grid.Plan, error) {
+	type result struct {
+		data []byte
+		err  error
 	}
-	if err != nil {
-		return grid.Plan{}, &exitError{code: exitBadInput, msg: err.Error()}
+	read := make(chan result, 1)
+	go func() {
+		var r result
+		if path == "-" {
+			r.data, r.err = io.ReadAll(io.LimitReader(stdin, planfile.MaxSize+1))
+		} else {
+			r.data, r.err = readFileLimited(path)
+		}
+		read <- r
+	}()
+	var data []byte
+	select {
+	case r := <-read:
+		if r.err != nil {
+			return grid.Plan{}, &exitError{code: exitBadInput, msg: r.err.Error()}
+		}
+		data = r.data
+	case <-ctx.Done():
+		// The reading goroutine stays blocked; the program is about to exit.
+		return grid.Plan{}, interrupted(ctx, "while reading "+displayName(path))
 	}
 	var p grid.Plan
+	var err error
 	switch strings.ToLower(filepath.Ext(path)) {
 	case ".json":
 		p, err = planfile.DecodeJSON(data)
@@ -92,7 +111,7 @@ func onePlanArg(fs *flag.FlagSet) (string, error) {
 	return fs.Arg(0), nil
 }
 
-func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
+func runCheck(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	fs := newFlags("check", "PLAN", stderr)
 	if err := parseFlags(fs, args); err != nil {
 		return err
@@ -101,7 +120,7 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(path, stdin)
+	p, err := readPlan(ctx, path, stdin)
 	if err != nil {
 		return err
 	}
@@ -124,7 +143,7 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	return nil
 }
 
-func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
+func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	fs := newFlags("render", "[-format svg|png|json|csv] [-o FILE] [figure flags] PLAN", stderr)
 	format := fs.String("format", "svg", "output `format`: svg or png (the figure), json (lattice, summary and findings) or csv (one row per symbol)")
 	out := fs.String("o", "-", "write to `FILE` instead of standard output")
@@ -152,7 +171,7 @@ func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(path, stdin)
+	p, err := readPlan(ctx, path, stdin)
 	if err != nil {
 		return err
 	}
