@@ -12,3 +12,13 @@ func writeJSON(w io.Writer, res grid.Result) error {
 	enc.SetIndent("", "  ")
 	return enc.Encode(res.JSON(true))
 }
+
+// writeFindingsJSON writes check's JSON: an object whose "findings" are
+// exactly those of the render document, so one jq filter reads both.
+func writeFindingsJSON(w io.Writer, res grid.Result) error {
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(struct {
+		Findings []grid.Finding `json:"findings"`
+	}{res.JSON(false).Findings})
+}

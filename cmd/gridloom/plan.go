@@ -7,6 +7,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"unicode/utf8"
 
@@ -40,6 +41,29 @@ func parseFlags(fs *flag.FlagSet, args []string) error {
 		return &exitError{code: exitBadInput}
 	}
 	return nil
+}
+
+// parseInterspersed parses flags before, between and after the
+// positional arguments and returns those, so that "render plan.yaml
+// -format json" does what it says: the flag package alone stops at the
+// first argument that is not a flag and would leave -format to be taken
+// for a second plan file. "--" ends the flags; every argument after it is
+// positional, so a plan file whose name starts with "-" can still be given.
+func parseInterspersed(fs *flag.FlagSet, args []string) ([]string, error) {
+	var pos []string
+	for {
+		if err := parseFlags(fs, args); err != nil {
+			return nil, err
+		}
+		rest := fs.Args()
+		if n := len(args) - len(rest); n > 0 && args[n-1] == "--" {
+			return append(pos, rest...), nil
+		}
+		if len(rest) == 0 {
+			return pos, nil
+		}
+		pos, args = append(pos, rest[0]), rest[1:]
+	}
 }
 
 // readPlan reads and decodes the plan named by path, "-" for stdin. It
@@ -103,20 +127,38 @@ func displayName(path string) string {
 	return path
 }
 
-func onePlanArg(fs *flag.FlagSet) (string, error) {
-	if fs.NArg() != 1 {
+func onePlanArg(fs *flag.FlagSet, pos []string) (string, error) {
+	if len(pos) != 1 {
 		fs.Usage()
-		return "", &exitError{code: exitBadInput, msg: "give exactly one plan file, or - for standard input"}
+		msg := "give exactly one plan file, or - for standard input"
+		if len(pos) > 1 {
+			msg += fmt.Sprintf("; got %d: %s", len(pos), strings.Join(quoteAll(pos), " "))
+		}
+		return "", &exitError{code: exitBadInput, msg: msg}
 	}
-	return fs.Arg(0), nil
+	return pos[0], nil
+}
+
+func quoteAll(ss []string) []string {
+	q := make([]string, len(ss))
+	for i, s := range ss {
+		q[i] = strconv.Quote(s)
+	}
+	return q
 }
 
 func runCheck(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.Writer) error {
-	fs := newFlags("check", "PLAN", stderr)
-	if err := parseFlags(fs, args); err != nil {
+	fs := newFlags("check", "[-format text|json] [-strict] PLAN", stderr)
+	format := fs.String("format", "text", "output `format`: text (one finding a line and a summary) or json (an object whose \"findings\" are those of render -format json)")
+	strict := fs.Bool("strict", false, "exit 1 on warnings as well as errors, for CI")
+	pos, err := parseInterspersed(fs, args)
+	if err != nil {
 		return err
 	}
-	path, err := onePlanArg(fs)
+	if *format != "text" && *format != "json" {
+		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format of check; use text or json", *format)}
+	}
+	path, err := onePlanArg(fs, pos)
 	if err != nil {
 		return err
 	}
@@ -127,7 +169,6 @@ func runCheck(ctx context.Context, args []string, stdin io.Reader, stdout, stder
 	res := grid.Compute(p)
 	errs, warns := 0, 0
 	for _, f := range res.Findings {
-		fmt.Fprintln(stdout, f)
 		switch f.Severity {
 		case grid.Error:
 			errs++
@@ -135,10 +176,22 @@ func runCheck(ctx context.Context, args []string, stdin io.Reader, stdout, stder
 			warns++
 		}
 	}
-	fmt.Fprintf(stdout, "%s: %s, %s, %s placed\n", displayName(path),
-		count(errs, "error", "errors"), count(warns, "warning", "warnings"), count(len(res.Partitions), "partition", "partitions"))
-	if errs > 0 {
+	if *format == "json" {
+		if err := writeFindingsJSON(stdout, res); err != nil {
+			return &exitError{code: exitBadInput, msg: err.Error()}
+		}
+	} else {
+		for _, f := range res.Findings {
+			fmt.Fprintln(stdout, f)
+		}
+		fmt.Fprintf(stdout, "%s: %s, %s, %s placed\n", displayName(path),
+			count(errs, "error", "errors"), count(warns, "warning", "warnings"), count(len(res.Partitions), "partition", "partitions"))
+	}
+	switch {
+	case errs > 0:
 		return &exitError{code: exitPlanErrors}
+	case *strict && warns > 0:
+		return &exitError{code: exitPlanErrors, msg: fmt.Sprintf("%s: -strict fails on %s", displayName(path), count(warns, "warning", "warnings"))}
 	}
 	return nil
 }
@@ -151,7 +204,8 @@ func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 	theme := fs.String("theme", "light", "figure `theme`: light, or print (greyscale-safe)")
 	layers := fs.String("layers", "all", "figure `layers` to show, a comma list of "+strings.Join(render.LayerNames(), ", ")+", or all or none")
 	caption := fs.String("caption", "", "a caption `line` under the figure; empty for the plan's name, - for none")
-	if err := parseFlags(fs, args); err != nil {
+	pos, err := parseInterspersed(fs, args)
+	if err != nil {
 		return err
 	}
 	switch *format {
@@ -160,14 +214,13 @@ func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use svg, png, json or csv", *format)}
 	}
 	opt := render.Options{Width: *width}
-	var err error
 	if opt.Theme, err = render.ParseTheme(*theme); err != nil {
 		return &exitError{code: exitBadInput, msg: "-theme: " + err.Error()}
 	}
 	if opt.Layers, err = render.ParseLayers(*layers); err != nil {
 		return &exitError{code: exitBadInput, msg: "-" + err.Error()}
 	}
-	path, err := onePlanArg(fs)
+	path, err := onePlanArg(fs, pos)
 	if err != nil {
 		return err
 	}
