@@ -2,6 +2,8 @@ package main
 
 import (
 	"encoding/json"
+	"os"
+	"path/filepath"
 	"reflect"
 	"runtime/debug"
 	"strings"
@@ -149,5 +151,39 @@ func TestVersion(t *testing.T) {
 	}
 	if got := versionText(nil, false); got != "gridloom (unknown)\nspec: 3GPP Release 17\n" {
 		t.Errorf("without build information: %q", got)
+	}
+}
+
+// A PNG figure gridloom wrote is refused with a message that says it does
+// not carry the plan and which files do; the SVG figure opens as its plan.
+func TestOpenFigures(t *testing.T) {
+	dir := t.TempDir()
+	const campus = "../../testdata/plans/campus.yaml"
+	png, svg, svgNoExt := filepath.Join(dir, "campus.png"), filepath.Join(dir, "campus.svg"), filepath.Join(dir, "figure")
+	for _, c := range [][]string{{"png", png}, {"svg", svg}, {"svg", svgNoExt}} {
+		if _, errOut, code := runCLI(t, "", "render", "-format", c[0], "-o", c[1], campus); code != 0 {
+			t.Fatalf("render -format %s: exit %d: %s", c[0], code, errOut)
+		}
+	}
+	_, errOut, code := runCLI(t, "", "check", png)
+	if code != 2 || !strings.Contains(errOut, "a PNG figure does not carry its plan") || !strings.Contains(errOut, "JSON or YAML file, or an SVG figure") || strings.Contains(errOut, "UTF-8") {
+		t.Errorf("check on a PNG figure: exit %d, %q", code, errOut)
+	}
+	want, _, _ := runCLI(t, "", "check", campus)
+	for _, f := range []string{svg, svgNoExt} {
+		out, errOut, code := runCLI(t, "", "check", f)
+		if code != 0 || !strings.Contains(out, "0 errors") {
+			t.Errorf("check %s: exit %d, %q %q", f, code, out, errOut)
+		}
+		// The same findings as the plan file, but for the summary line's file name.
+		if strings.ReplaceAll(out, f, campus) != want {
+			t.Errorf("check %s:\n%s\nwant the findings of the plan file:\n%s", f, out, want)
+		}
+	}
+	if err := os.WriteFile(filepath.Join(dir, "plain.svg"), []byte(`<svg xmlns="http://www.w3.org/2000/svg"/>`), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, errOut, code := runCLI(t, "", "check", filepath.Join(dir, "plain.svg")); code != 2 || !strings.Contains(errOut, "carries no gridloom plan") {
+		t.Errorf("an SVG without a plan: exit %d, %q", code, errOut)
 	}
 }

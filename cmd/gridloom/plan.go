@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"context"
 	"flag"
 	"fmt"
@@ -97,7 +98,14 @@ func readPlan(ctx context.Context, path string, stdin io.Reader) (grid.Plan, err
 	}
 	var p grid.Plan
 	var err error
-	switch strings.ToLower(filepath.Ext(path)) {
+	ext := strings.ToLower(filepath.Ext(path))
+	if ext == ".svg" || (ext != ".json" && ext != ".yaml" && ext != ".yml" && looksLikeXML(data)) {
+		// A figure gridloom exported carries its plan, as on the page.
+		if data, err = render.PlanFromSVG(data); err != nil {
+			return grid.Plan{}, &exitError{code: exitBadInput, msg: fmt.Sprintf("%s cannot be opened as a plan: %s.", displayName(path), strings.TrimSuffix(err.Error(), "."))}
+		}
+	}
+	switch ext {
 	case ".json":
 		p, err = planfile.DecodeJSON(data)
 	case ".yaml", ".yml":
@@ -109,6 +117,13 @@ func readPlan(ctx context.Context, path string, stdin io.Reader) (grid.Plan, err
 		return grid.Plan{}, &exitError{code: exitBadInput, msg: fmt.Sprintf("%s: %v", displayName(path), err)}
 	}
 	return p, nil
+}
+
+// looksLikeXML reports whether data opens as an XML document does: with
+// "<" after any byte order mark and white space. No plan file does.
+func looksLikeXML(data []byte) bool {
+	data = bytes.TrimLeft(bytes.TrimPrefix(data, []byte("\ufeff")), " \t\r\n")
+	return len(data) > 0 && data[0] == '<'
 }
 
 func readFileLimited(path string) ([]byte, error) {

@@ -2,6 +2,7 @@ package planfile
 
 import (
 	"errors"
+	"fmt"
 	"os"
 	"path/filepath"
 	"reflect"
@@ -236,4 +237,102 @@ func normalise(p grid.Plan) grid.Plan {
 		p.Carrier.CarrierBandwidth = nil
 	}
 	return p
+}
+
+// A tab in the indentation is reported on its own line. The parser names
+// the line of the token before the tab, one or more lines up.
+func TestYAMLTabLine(t *testing.T) {
+	for _, c := range []struct {
+		doc  string
+		line int
+	}{
+		{"name: x\ncarrier:\n  bandwidthMHz: 40\npartitions:\n  - name: a\n    scsKHz: 15\n    sizePrb: 10\n\t  startCrb: 0\n", 8},
+		{"a:\n  b: 1\n\n\n\tc: 2\n", 5}, // across blank lines
+		{"a:\n  - 1\n\t- 2\n", 3},       // in a list
+		{"name: x\n\tcarrier: 1\n", 2},  // named right already
+		{"a: |\n  text\n\tmore\n", 3},   // in a block scalar
+		{"name: x\ncarrier:\n\tbandwidthMHz: 40\n", 3},
+		{"a: [1,\n\t2]\nb:\n  c: 1\n \td: 2\n", 5}, // a tab inside brackets is allowed
+	} {
+		_, err := DecodeYAML([]byte(c.doc))
+		want := fmt.Sprintf("not valid YAML: line %d: ", c.line)
+		if err == nil || !strings.Contains(err.Error(), want) {
+			t.Errorf("%q: error %v, want it to say %q", c.doc, err, want)
+		}
+	}
+}
+
+// An unknown key close to a valid one names it; one far from all does not.
+func TestUnknownKeySuggestion(t *testing.T) {
+	part := func(key string) string {
+		return `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":15,"` + key + `":3}]}`
+	}
+	for _, c := range []struct {
+		doc, want string // want "" for no suggestion
+	}{
+		{part("sizPrb"), "sizePrb"},  // one letter left out
+		{part("sizePbr"), "sizePrb"}, // two letters swapped
+		{part("SizePRB"), "sizePrb"}, // letter case
+		{part("size"), "sizePrb"},    // the unit left off
+		{part("scs"), "scsKHz"},      // the unit left off
+		{part("startCrbs"), "startCrb"},
+		{part("colour"), ""}, // nothing like it
+		{part("x"), ""},      // too short to guess from
+		{part("mode"), ""},   // 3 edits from "layers" and "modulation" is not a prefix
+		{`{"carier":{}}`, "carrier"},
+		{`{"partition":[]}`, "partitions"},
+		{`{"environment":{"delaySpread":5}}`, "delaySpreadNs"},
+		{`{"carrier":{"bandwidthMHz":40,"offsetToPointA":0}}`, ""}, // an ssb key in the carrier
+	} {
+		_, err := Decode([]byte(c.doc))
+		if err == nil {
+			t.Fatalf("%s decoded", c.doc)
+		}
+		msg := err.Error()
+		switch {
+		case c.want == "" && strings.Contains(msg, "Did you mean"):
+			t.Errorf("%s: %q suggests a key, want none", c.doc, msg)
+		case c.want != "" && !strings.Contains(msg, "Did you mean "+c.want+"?"):
+			t.Errorf("%s: %q does not suggest %s", c.doc, msg, c.want)
+		}
+	}
+}
+
+func TestEditDistance(t *testing.T) {
+	for _, c := range []struct {
+		a, b string
+		d    int
+	}{{"", "", 0}, {"abc", "", 3}, {"kitten", "sitting", 3}, {"sizepbr", "sizeprb", 1}, {"ab", "ba", 1}, {"carier", "carrier", 1}} {
+		if got := editDistance(c.a, c.b); got != c.d {
+			t.Errorf("editDistance(%q, %q) = %d, want %d", c.a, c.b, got, c.d)
+		}
+	}
+}
+
+// An image, above all a PNG figure gridloom exported, is named as such,
+// with the files that do carry a plan, in every decoder.
+func TestImageIsNotAPlan(t *testing.T) {
+	png := "\x89PNG\r\n\x1a\n\x00\x00\x00\rIHDR\x00\x00\x02\x80" // RFC 2083 3.1 signature, then the IHDR chunk's start
+	for _, c := range []struct{ name, data, say string }{
+		{"PNG", png, "a PNG image, not a plan file: a PNG figure does not carry its plan."},
+		{"JPEG", "\xff\xd8\xff\xe0\x00\x10JFIF\x00", "a JPEG image"},
+		{"GIF", "GIF89a\x01\x00\x01\x00", "a GIF image"},
+		{"WebP", "RIFF\x24\x00\x00\x00WEBPVP8 ", "a WebP image"},
+		{"TIFF", "II*\x00\x08\x00\x00\x00", "a TIFF image"},
+		{"BMP", "BM\x36\x00\x0c\x00\x00\x00\x00\x00\x36\x00", "a BMP image"},
+		{"AVIF", "\x00\x00\x00\x1cftypavif", "an AVIF image"},
+	} {
+		for name, decode := range map[string]func([]byte) (grid.Plan, error){"Decode": Decode, "DecodeYAML": DecodeYAML, "DecodeJSON": DecodeJSON} {
+			_, err := decode([]byte(c.data))
+			if err == nil || !strings.Contains(err.Error(), c.say) || !strings.Contains(err.Error(), "JSON or YAML file, or an SVG figure") {
+				t.Errorf("%s of a %s: %v; want it to say %q and name the files that carry a plan", name, c.name, err, c.say)
+			}
+		}
+	}
+	// Text that merely starts like a signature is still read as a plan.
+	for _, doc := range []string{"BM: 1\n", "GIF: x\n", "II: 1\n"} {
+		if _, err := Decode([]byte(doc)); err == nil || strings.Contains(err.Error(), "image") {
+			t.Errorf("%q: %v; want an unknown-key error, not an image", doc, err)
+		}
+	}
 }
