@@ -51,27 +51,69 @@ func FuzzPipeline(f *testing.F) {
 			}
 			return
 		}
-		res := grid.Compute(p)
-		if path := nonFinite(reflect.ValueOf(res), "Result"); path != "" {
-			t.Fatalf("%s is not finite", path)
-		}
-		var buf bytes.Buffer
-		if err := writeJSON(&buf, res); err != nil {
-			t.Fatalf("JSON: %v", err)
-		}
-		plan, err := planfile.EncodeJSON(p)
-		if err != nil {
-			t.Fatalf("the plan as JSON: %v", err)
-		}
-		buf.Reset()
-		if err := render.Figure(&buf, res, render.Options{Plan: plan}); err != nil {
-			t.Fatalf("SVG: %v", err)
-		}
-		buf.Reset()
-		if err := render.SymbolCSV(&buf, res); err != nil {
-			t.Fatalf("CSV: %v", err)
-		}
+		checkPipeline(t, p)
 	})
+}
+
+// FuzzPipelineNumbers reaches the numbers byte mutations of a plan file
+// seldom make: any finite value in the environment, the numerology gap and
+// the centre of the campus demo plan, from 5e-324 to 1.8e308 and below
+// zero. The decoder refuses only NaN and infinities; the engine must take
+// every other value to a finite result or a finding.
+func FuzzPipelineNumbers(f *testing.F) {
+	data, err := os.ReadFile("../../testdata/plans/campus.yaml")
+	if err != nil {
+		f.Fatal(err)
+	}
+	base, err := planfile.Decode(data)
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Add(1e-300, 0.0, 0.0, 360.0, 3750.0, "")
+	f.Add(100.0, 1e-320, 0.0, 360.0, 3750.0, "")
+	f.Add(5e-324, 5e-324, 5e-324, 5e-324, 5e-324, "")
+	f.Add(0.0, 1000.0, 5e-324, 1e308, 3750.0, "long")
+	f.Add(1e5, 1000.0, 1e5, -1.0, 24250.08, "very-short")
+	f.Fuzz(func(t *testing.T, spreadNs, speedKmh, carrierMHz, gapKHz, centreMHz float64, profile string) {
+		for _, v := range []float64{spreadNs, speedKmh, carrierMHz, gapKHz, centreMHz} {
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return // the decoder refuses these before the engine sees them
+			}
+		}
+		p := base.Clone()
+		p.Environment = &grid.EnvironmentPlan{DelaySpreadNs: spreadNs, DelayProfile: profile, SpeedKmh: speedKmh, CarrierMHz: carrierMHz}
+		p.NumerologyGapKHz = &gapKHz
+		p.Carrier.CenterMHz = &centreMHz
+		checkPipeline(t, p)
+		p.Carrier.CenterMHz, p.Carrier.ARFCN = nil, nil // the Doppler from environment.carrierMHz
+		checkPipeline(t, p)
+	})
+}
+
+// checkPipeline computes p and writes it in every format the command line
+// writes, failing on a float that is not finite and on any error.
+func checkPipeline(t *testing.T, p grid.Plan) {
+	t.Helper()
+	res := grid.Compute(p)
+	if path := nonFinite(reflect.ValueOf(res), "Result"); path != "" {
+		t.Fatalf("%s is not finite", path)
+	}
+	var buf bytes.Buffer
+	if err := writeJSON(&buf, res); err != nil {
+		t.Fatalf("JSON: %v", err)
+	}
+	plan, err := planfile.EncodeJSON(p)
+	if err != nil {
+		t.Fatalf("the plan as JSON: %v", err)
+	}
+	buf.Reset()
+	if err := render.Figure(&buf, res, render.Options{Plan: plan}); err != nil {
+		t.Fatalf("SVG: %v", err)
+	}
+	buf.Reset()
+	if err := render.SymbolCSV(&buf, res); err != nil {
+		t.Fatalf("CSV: %v", err)
+	}
 }
 
 // nonFinite returns the path of the first float in v, exported or not,
