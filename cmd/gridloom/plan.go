@@ -67,6 +67,11 @@ func parseInterspersed(fs *flag.FlagSet, args []string) ([]string, error) {
 	}
 }
 
+// maxInput bounds what readPlan reads: a figure may carry a plan of
+// planfile.MaxSize in base64 beside its drawing; the decoders refuse a
+// plan file beyond planfile.MaxSize themselves, naming its size.
+const maxInput = render.MaxSVGBytes
+
 // readPlan reads and decodes the plan named by path, "-" for stdin. It
 // gives up when ctx ends: standard input (or a named pipe) may never
 // deliver, and Ctrl-C must still end the program.
@@ -79,7 +84,7 @@ func readPlan(ctx context.Context, path string, stdin io.Reader) (grid.Plan, err
 	go func() {
 		var r result
 		if path == "-" {
-			r.data, r.err = io.ReadAll(io.LimitReader(stdin, planfile.MaxSize+1))
+			r.data, r.err = io.ReadAll(io.LimitReader(stdin, maxInput+1))
 		} else {
 			r.data, r.err = readFileLimited(path)
 		}
@@ -132,7 +137,7 @@ func readFileLimited(path string) ([]byte, error) {
 		return nil, err
 	}
 	defer f.Close()
-	return io.ReadAll(io.LimitReader(f, planfile.MaxSize+1))
+	return io.ReadAll(io.LimitReader(f, maxInput+1))
 }
 
 func displayName(path string) string {

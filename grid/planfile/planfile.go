@@ -5,8 +5,9 @@
 // unknown keys, duplicate keys, values of the wrong type, numbers that are
 // not finite or not whole where a count is wanted, YAML whose aliases
 // expand past a bound, a second YAML document (which would otherwise be
-// dropped unread) and !!binary values (which would read as their base64), so the plan it returns is small and well-typed. It
-// does not judge values: grid.Compute does, with findings.
+// dropped unread) and !!binary values (which would read as their base64),
+// so the plan it returns is small and well-typed. It does not judge
+// values: grid.Compute does, with findings.
 package planfile
 
 import (
