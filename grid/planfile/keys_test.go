@@ -97,7 +97,7 @@ func TestKeysFromTags(t *testing.T) {
 		}
 	}
 	_, err := DecodeJSON([]byte(`{"carrier": {"bandwidth": 40}}`))
-	want := `carrier.bandwidth: unknown key "bandwidth"; the keys here are range, band, bandwidthMHz, centerMHz, arfcn, offsetToCarrier, carrierBandwidth.`
+	want := `carrier.bandwidth: unknown key "bandwidth"; the keys here are range, band, bandwidthMHz, centerMHz, arfcn, offsetToCarrier, carrierBandwidth. Did you mean bandwidthMHz?`
 	if err == nil || err.Error() != want {
 		t.Errorf("unknown key: %v\nwant %s", err, want)
 	}
