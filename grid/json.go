@@ -23,12 +23,24 @@ type JSONResult struct {
 
 // JSONSSB is the SS/PBCH configuration of a JSONResult. Slot and symbol
 // of each block count in the block's own spacing over the span.
+//
+// SSRefKHz is SS_REF relative to point A; SSRefMHz, AbsoluteFrequencySSB
+// (its NR-ARFCN) and GSCN (when it is on the synchronization raster) are
+// present only when the plan ties the carrier to a frequency.
 type JSONSSB struct {
-	Case       string         `json:"case"`
-	SCSKHz     int            `json:"scsKHz"`
-	Candidates int            `json:"candidates"`
-	PeriodMs   int            `json:"periodMs"`
-	Blocks     []JSONSSBBlock `json:"blocks"`
+	Case                 string         `json:"case"`
+	SCSKHz               int            `json:"scsKHz"`
+	Candidates           int            `json:"candidates"`
+	BitmapForm           string         `json:"bitmapForm"`
+	PeriodMs             int            `json:"periodMs"`
+	OffsetToPointA       int            `json:"offsetToPointA"`
+	KSSB                 int            `json:"kSsb"`
+	ScsCommonKHz         int            `json:"scsCommonKHz"`
+	SSRefKHz             float64        `json:"ssRefKHz"`
+	SSRefMHz             *float64       `json:"ssRefMHz,omitempty"`
+	AbsoluteFrequencySSB *int           `json:"absoluteFrequencySSB,omitempty"`
+	GSCN                 *int           `json:"gscn,omitempty"`
+	Blocks               []JSONSSBBlock `json:"blocks"`
 }
 
 // JSONSSBBlock is one SS/PBCH block of a JSONSSB.
@@ -184,7 +196,18 @@ func (r Result) JSON(symbols bool) JSONResult {
 		out.Partitions = append(out.Partitions, jp)
 	}
 	if s := r.SSB; s != nil {
-		js := &JSONSSB{Case: s.Case, SCSKHz: s.Numerology.SCSKHz(), Candidates: s.Candidates, PeriodMs: s.PeriodMs, Blocks: []JSONSSBBlock{}}
+		js := &JSONSSB{Case: s.Case, SCSKHz: s.Numerology.SCSKHz(), Candidates: s.Candidates, BitmapForm: s.BitmapForm,
+			PeriodMs: s.PeriodMs, OffsetToPointA: s.OffsetToPointA, KSSB: s.KSSB, ScsCommonKHz: s.ScsCommonKHz,
+			SSRefKHz: s.SSRef.KHz(), Blocks: []JSONSSBBlock{}}
+		if s.Absolute {
+			js.SSRefMHz = ptr(s.SSRefHz.MHz())
+			if s.OnARFCNRaster {
+				js.AbsoluteFrequencySSB = ptr(s.AbsoluteFrequencySSB)
+			}
+			if s.OnSyncRaster {
+				js.GSCN = ptr(s.GSCN)
+			}
+		}
 		for _, b := range s.Blocks {
 			js.Blocks = append(js.Blocks, JSONSSBBlock{Index: b.Index, Slot: b.Slot, Symbol: b.Symbol, StartTc: b.Start, EndTc: b.End, LowKHz: b.Low.KHz(), HighKHz: b.High.KHz()})
 		}

@@ -511,7 +511,7 @@ func buildForm(s state, notes map[string][]note) formView {
 	}
 	fv.SSB = section{
 		Group: group{ID: idSSB, Notes: take(idSSB)}, Title: "SS/PBCH blocks", ClearOp: "clear.ssb",
-		Hint: "offsetToPointA counts RBs of 15 kHz (FR1) or 60 kHz (FR2); k_SSB counts subcarriers. The bitmap is ssb-PositionsInBurst, empty for every candidate.",
+		Hint: "offsetToPointA counts RBs of 15 kHz (FR1) or 60 kHz (FR2); k_SSB counts subcarriers. A GSCN places the block on the synchronization raster and sets both. The bitmap is ssb-PositionsInBurst, empty for every candidate.",
 		Rows: []sectionRow{
 			{Label: "Blocks", Controls: []control{
 				text("ssb.scs", "SCS (kHz)", "4", "numeric", ""),
@@ -522,7 +522,8 @@ func buildForm(s state, notes map[string][]note) formView {
 			{Label: "Position", Controls: []control{
 				text("ssb.off", "offsetToPointA", "4", "numeric", ""),
 				text("ssb.k", "k_SSB", "4", "numeric", "0"),
-				text("ssb.common", "SCS common (FR2)", "4", "numeric", ""),
+				text("ssb.common", "SCS common", "4", "numeric", ""),
+				text("ssb.gscn", "GSCN", "6", "numeric", "or the offsets"),
 			}},
 		},
 	}

@@ -552,7 +552,7 @@ func (w *walker) tddPattern(v any, f string) grid.TDDPattern {
 }
 
 func (w *walker) ssb(v any) *grid.SSBPlan {
-	m := w.object(v, "ssb", "scsKHz", "case", "bitmap", "offsetToPointA", "kSsb", "scsCommonKHz", "periodMs")
+	m := w.object(v, "ssb", "scsKHz", "case", "bitmap", "offsetToPointA", "kSsb", "scsCommonKHz", "periodMs", "gscn")
 	if m == nil {
 		return nil
 	}
@@ -564,6 +564,7 @@ func (w *walker) ssb(v any) *grid.SSBPlan {
 		KSSB:           w.intOr0(m["kSsb"], "ssb.kSsb"),
 		ScsCommonKHz:   w.intOr0(m["scsCommonKHz"], "ssb.scsCommonKHz"),
 		PeriodMs:       w.intOr0(m["periodMs"], "ssb.periodMs"),
+		GSCN:           w.optInt(m["gscn"], "ssb.gscn"),
 	}
 }
 
