@@ -3,6 +3,7 @@ package grid
 import (
 	"fmt"
 	"slices"
+	"strconv"
 	"strings"
 
 	"gridloom/grid/gscn"
@@ -449,4 +450,59 @@ func lcmTc(a, b Tc) Tc {
 		x, y = y, x%y
 	}
 	return a / x * b
+}
+
+// CheckBand holds the block against the SS raster entries of an operating
+// band (TS 38.101-1 Table 5.4.3.3-1, TS 38.101-2 Table 5.4.3.3-1): the band
+// must list the block's spacing with its pattern, and SS_REF must be one of
+// the band's GSCNs, inside its range and on its step. It returns sync-raster
+// errors, none when the block fits the band. The band is named as the
+// tables do ("n78"); the plan has no band field yet, so Compute does not
+// call it.
+func (s SSB) CheckBand(band string) []Finding {
+	var fs findings
+	name := gscn.Normalize(band)
+	entries, ok := gscn.Entries(name)
+	if !ok {
+		fs.add(Error, CodeSyncRaster, "", "carrier.band", "Band %s has no SS raster entries (TS 38.101-1 and TS 38.101-2 Table 5.4.3.3-1): it is not a band, or a supplementary uplink band, which carries no SS/PBCH block.", name)
+		return fs
+	}
+	scs := s.Numerology.SCSKHz()
+	i := slices.IndexFunc(entries, func(e gscn.Entry) bool { return e.SCSKHz == scs })
+	if i < 0 {
+		var allowed []string
+		for _, e := range entries {
+			allowed = append(allowed, fmt.Sprintf("%d kHz (case %s)", e.SCSKHz, e.Case))
+		}
+		fs.add(Error, CodeSyncRaster, "", "ssb.scsKHz", "Band %s has no %d kHz SS/PBCH blocks; it allows %s (%s Table 5.4.3.3-1).", name, scs, JoinOr(allowed), bandSpec(name))
+		return fs
+	}
+	e := entries[i]
+	if s.Case != e.Case {
+		fs.add(Error, CodeSyncRaster, "", "ssb.case", "Band %s sends %d kHz SS/PBCH blocks in case %s, not case %s (%s Table 5.4.3.3-1).", name, scs, e.Case, s.Case, bandSpec(name))
+	}
+	if !s.Absolute || !s.OnSyncRaster {
+		return fs // off the raster is reported by Compute already
+	}
+	if !e.Contains(s.GSCN) {
+		gs := e.GSCNs()
+		j, _ := slices.BinarySearch(gs, s.GSCN)
+		var near []string
+		for _, k := range []int{j - 1, j} {
+			if k >= 0 && k < len(gs) {
+				f, _ := gscn.Frequency(gs[k])
+				near = append(near, fmt.Sprintf("%d (%s)", gs[k], fmtMHz(Hz(f))))
+			}
+		}
+		fs.add(Error, CodeSyncRaster, "", "ssb.gscn", "GSCN %d is not an SS raster entry of %s at %d kHz, which allows %s (%s Table 5.4.3.3-1); the nearest are %s.", s.GSCN, name, scs, e.Range(), bandSpec(name), strings.Join(near, " and "))
+	}
+	return fs
+}
+
+// bandSpec names the specification whose table lists a band.
+func bandSpec(band string) string {
+	if n, err := strconv.Atoi(strings.TrimPrefix(band, "n")); err == nil && n >= 257 {
+		return "TS 38.101-2"
+	}
+	return "TS 38.101-1"
 }
