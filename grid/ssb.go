@@ -200,23 +200,26 @@ func commonChoices(rng Range) []int {
 // placeBySSRef returns the offsetToPointA and k_SSB that put SS_REF at
 // ssRef (relative to point A), or a reason why none do.
 func placeBySSRef(rng Range, ssbKHz, commonKHz int, ssRef Hz) (offset, k int, why string) {
-	rbUnit, kUnit, _, multiple := ssbUnits(rng, commonKHz)
+	rbUnit, kUnit, kMax, multiple := ssbUnits(rng, commonKHz)
 	scs := Hz(ssbKHz) * 1000
 	d := ssRef - 120*scs // subcarrier 0 of the block
 	if d < 0 {
 		return 0, 0, fmt.Sprintf("the block would start %s below point A", fmtKHz(-d))
 	}
-	crb := 12 * rbUnit * Hz(multiple) // one common RB
-	n := d / crb
-	rest := d - n*crb
-	if rest%kUnit != 0 {
-		return 0, 0, fmt.Sprintf("its subcarrier 0 lies %s from point A, not a whole number of %s k_SSB steps from a common RB of %d kHz", fmtKHz(d), fmtKHz(kUnit), commonKHz)
+	crb := 12 * rbUnit * Hz(multiple) // one step of offsetToPointA that names a common RB
+	// The highest RB at or below the block first; where k_SSB's unit does
+	// not divide the RB (FR2-2, where offsetToPointA still counts 60 kHz
+	// RBs here), lower RBs with a larger k_SSB may reach it.
+	for n := d / crb; n >= 0 && d-n*crb <= Hz(kMax)*kUnit; n-- {
+		if rest := d - n*crb; rest%kUnit == 0 {
+			offset = int(n) * multiple
+			if offset > MaxOffset {
+				return 0, 0, fmt.Sprintf("offsetToPointA would be %d, above %d", offset, MaxOffset)
+			}
+			return offset, int(rest / kUnit), ""
+		}
 	}
-	offset = int(n) * multiple
-	if offset > MaxOffset {
-		return 0, 0, fmt.Sprintf("offsetToPointA would be %d, above %d", offset, MaxOffset)
-	}
-	return offset, int(rest / kUnit), ""
+	return 0, 0, fmt.Sprintf("its subcarrier 0 lies %s from point A, not a whole number of %s k_SSB steps (at most %d) from a common RB of %d kHz", fmtKHz(d), fmtKHz(kUnit), kMax, commonKHz)
 }
 
 func checkSSB(fs *findings, rng Range, s *SSBPlan, ch Channel, freq Hz, freqKnown, unpaired bool, span int) (SSB, bool) {
@@ -432,7 +435,12 @@ func (s SSB) uplinkCandidates(t TDD) []int {
 // start of the span, has direction RefDirs[j mod len(RefDirs)].
 func (t TDD) uplinkBetween(start, end Tc) bool {
 	n := t.Reference
-	k := int(start/TcPerSubframe) * n.SymbolsPerSubframe()
+	// Symbols of a subframe are equal but for 16κ Tc more at the start of
+	// each half subframe, so the proportional guess lands on the symbol
+	// that holds start or the one after it; one step back is enough.
+	per := n.SymbolsPerSubframe()
+	sf := start / TcPerSubframe
+	k := int(sf)*per + max(0, int((start-sf*TcPerSubframe)*Tc(per)/TcPerSubframe)-1)
 	for n.SymbolAt(k).End() <= start {
 		k++
 	}

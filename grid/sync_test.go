@@ -90,7 +90,7 @@ func TestSSBByGSCNAt3000MHz(t *testing.T) {
 	}
 	// 7498: N = 2499, M = 5, 2999.05 MHz; subcarrier 0 at 6790 kHz = 37·180
 	// + 130 kHz, not a whole number of 15 kHz: no k_SSB reaches it.
-	if r := Compute(base(7498)); !errorOn(r, CodeSSB, "ssb.gscn", "not a whole number of 15 kHz k_SSB steps") {
+	if r := Compute(base(7498)); !errorOn(r, CodeSSB, "ssb.gscn", "not a whole number of 15 kHz k_SSB steps (at most 11)") {
 		t.Errorf("GSCN 7498: want an unreachable error; got\n%s", describeFindings(r.Findings))
 	}
 	// Given with offsets that disagree, or without a carrier frequency, or
