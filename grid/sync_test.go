@@ -355,3 +355,55 @@ func TestSSBPositionsReplace(t *testing.T) {
 		})
 	}
 }
+
+// TS 38.508-1 (UE conformance, common test environments) publishes test
+// frequencies per band with point A, GSCN, absoluteFrequencySSB, k_SSB and
+// offsetToPointA worked out; the rows here are from its Tables
+// 4.3.1.1.1.78-1, 4.3.1.1.1.40-1 and 4.3.1.1.1.48-1 (SCS 15 kHz, so
+// subCarrierSpacingCommon 15 kHz, 30 kHz blocks), as quoted by a secondary
+// copy (blog.csdn.net, articles 132021482, 129203482 and 129300671; the
+// release of the quoted version is not stated there). Placed by GSCN,
+// Compute must derive the same offsetToPointA and k_SSB from the same point A.
+func TestSSBTestFrequencies(t *testing.T) {
+	for _, c := range []struct {
+		table               string
+		bw, nrb             int
+		centreMHz           float64
+		offsetToCarrier     int
+		pointAMHz           float64
+		g, arfcnSSB, k, off int
+	}{
+		{"n78 10 MHz low", 10, 52, 3305.01, 0, 3300.33, 7711, 620352, 6, 7},
+		{"n78 10 MHz mid", 10, 52, 3549.99, 102, 3526.95, 7881, 636672, 6, 108},
+		{"n78 10 MHz high", 10, 52, 3795, 504, 3699.6, 8051, 652992, 4, 509},
+		{"n78 15 MHz low", 15, 79, 3307.5, 0, 3300.39, 7711, 620352, 2, 7},
+		{"n78 20 MHz low", 20, 106, 3310.02, 0, 3300.48, 7711, 620352, 8, 6},
+		{"n40 10 MHz low", 10, 52, 2305, 0, 2300.32, 5764, 461090, 6, 8},
+		{"n40 15 MHz low", 15, 79, 2307.5, 0, 2300.39, 5762, 461050, 0, 7},
+		{"n48 10 MHz low", 10, 52, 3555, 0, 3550.32, 7884, 636960, 8, 2},
+	} {
+		p := plan(c.bw, part("data", 15, c.offsetToCarrier, c.nrb))
+		p.Carrier.CenterMHz = fptr(c.centreMHz)
+		p.Carrier.OffsetToCarrier = map[int]int{15: c.offsetToCarrier}
+		p.SSB = &SSBPlan{SCSKHz: 30, ScsCommonKHz: 15, GSCN: iptr(c.g)}
+		r := Compute(p)
+		s := r.SSB
+		switch {
+		case r.Channel.PointAHz != Hz(c.pointAMHz*1e6+0.5):
+			t.Errorf("%s: point A %s, the table has %.2f MHz", c.table, fmtMHz(r.Channel.PointAHz), c.pointAMHz)
+		case s == nil:
+			t.Errorf("%s: no SSB:\n%s", c.table, describeFindings(r.Findings))
+		case s.OffsetToPointA != c.off || s.KSSB != c.k || s.AbsoluteFrequencySSB != c.arfcnSSB:
+			t.Errorf("%s: offsetToPointA %d, k_SSB %d, absoluteFrequencySSB %d; the table has %d, %d, %d",
+				c.table, s.OffsetToPointA, s.KSSB, s.AbsoluteFrequencySSB, c.off, c.k, c.arfcnSSB)
+		case hasErrorCode(r, CodeSSB, CodeSyncRaster):
+			t.Errorf("%s: %s", c.table, describeFindings(r.Findings))
+		}
+		if s != nil {
+			band := strings.Fields(c.table)[0]
+			if fs := s.CheckBand(band); len(fs) > 0 {
+				t.Errorf("%s: %s", c.table, describeFindings(fs))
+			}
+		}
+	}
+}
