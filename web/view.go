@@ -876,10 +876,23 @@ func buildResults(s state, query string, figure string, figErr error) resultsVie
 	if b := doc.SSB; b != nil {
 		sv := &ssbView{Facts: []fact{
 			{"Case", fmt.Sprintf("%s at %d kHz", b.Case, b.SCSKHz)},
-			{"Candidates (L_max)", strconv.Itoa(b.Candidates)},
+			{"Candidates (L_max)", fmt.Sprintf("%d (ssb-PositionsInBurst %s)", b.Candidates, b.BitmapForm)},
 			{"Period", strconv.Itoa(b.PeriodMs) + " ms"},
 			{"Sent in the span", strconv.Itoa(len(b.Blocks))},
+			{"Placement", fmt.Sprintf("offsetToPointA %d, k_SSB %d, subCarrierSpacingCommon %d kHz", b.OffsetToPointA, b.KSSB, b.ScsCommonKHz)},
 		}}
+		if b.SSRefMHz != nil {
+			ref := exact(*b.SSRefMHz) + " MHz"
+			if b.AbsoluteFrequencySSB != nil {
+				ref += fmt.Sprintf(", absoluteFrequencySSB %d", *b.AbsoluteFrequencySSB)
+			}
+			if b.GSCN != nil {
+				ref += fmt.Sprintf(", GSCN %d", *b.GSCN)
+			} else {
+				ref += ", off the synchronization raster"
+			}
+			sv.Facts = append(sv.Facts, fact{"SS_REF", ref})
+		}
 		if len(b.Blocks) > 0 {
 			sv.Facts = append(sv.Facts, fact{"Frequency", fmt.Sprintf("%s to %s kHz from point A", exact(b.Blocks[0].LowKHz), exact(b.Blocks[0].HighKHz))})
 		}
