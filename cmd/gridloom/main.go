@@ -6,6 +6,7 @@
 //	gridloom render [-format svg|png|json|csv] [-o FILE] PLAN  draw or export a plan
 //	gridloom check [-format text|json] [-strict] PLAN          list the findings
 //	gridloom version                                           the version and the 3GPP release
+//	gridloom ssb [-band nBAND] [-format table|json] PLAN      where the SS/PBCH block fits on the sync raster
 //
 // PLAN is a JSON or YAML plan file, or "-" for standard input. Ctrl-C or
 // SIGTERM ends render and check at once and lets the server drain; a
@@ -96,6 +97,8 @@ Usage:
   gridloom [serve] [flags]          start the web app (default 127.0.0.1:8080)
   gridloom render [flags] PLAN      draw or export a plan: -format svg, png, json or csv
   gridloom check [flags] PLAN       list the plan's findings: -format text or json, -strict
+  gridloom ssb [flags] PLAN         list the GSCNs where the SS/PBCH block fits, with
+                                    offsetToPointA and k_SSB: -band, -format table or json
   gridloom version                  print the version and the 3GPP release it follows
   gridloom help                     print this text
 
@@ -125,10 +128,12 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 		return runCheck(ctx, args, stdin, stdout, stderr)
 	case "version":
 		return runVersion(args, stdout, stderr)
+	case "ssb":
+		return runSSB(ctx, args, stdin, stdout, stderr)
 	case "help":
 		fmt.Fprint(stdout, usage)
 		return nil
 	}
 	fmt.Fprint(stderr, usage)
-	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check, version or help", cmd)}
+	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check, ssb, version or help", cmd)}
 }
