@@ -33,18 +33,18 @@ type Document struct {
 // (its NR-ARFCN) and GSCN (when it is on the synchronization raster) are
 // present only when the plan ties the carrier to a frequency.
 type SSB struct {
-	Case                 string         `json:"case"`
-	SCSKHz               int            `json:"scsKHz"`
-	Candidates           int            `json:"candidates"`
-	BitmapForm           string         `json:"bitmapForm"`
-	PeriodMs             int            `json:"periodMs"`
-	OffsetToPointA       int            `json:"offsetToPointA"`
-	KSSB                 int            `json:"kSsb"`
-	ScsCommonKHz         int            `json:"scsCommonKHz"`
-	SSRefKHz             float64        `json:"ssRefKHz"`
-	SSRefMHz             *float64       `json:"ssRefMHz,omitempty"`
-	AbsoluteFrequencySSB *int           `json:"absoluteFrequencySSB,omitempty"`
-	GSCN                 *int           `json:"gscn,omitempty"`
+	Case                 string     `json:"case"`
+	SCSKHz               int        `json:"scsKHz"`
+	Candidates           int        `json:"candidates"`
+	BitmapForm           string     `json:"bitmapForm"`
+	PeriodMs             int        `json:"periodMs"`
+	OffsetToPointA       int        `json:"offsetToPointA"`
+	KSSB                 int        `json:"kSsb"`
+	ScsCommonKHz         int        `json:"scsCommonKHz"`
+	SSRefKHz             float64    `json:"ssRefKHz"`
+	SSRefMHz             *float64   `json:"ssRefMHz,omitempty"`
+	AbsoluteFrequencySSB *int       `json:"absoluteFrequencySSB,omitempty"`
+	GSCN                 *int       `json:"gscn,omitempty"`
 	Blocks               []SSBBlock `json:"blocks"`
 }
 
