@@ -6,8 +6,9 @@
 // one segment per line that is at least a few pixels from its neighbours.
 // Finer lines give way to coarser ones (PRB rows every few PRBs, slot
 // lines instead of symbol lines, 0.5 ms marks alone) and the legend says
-// which were drawn. TDD directions are drawn per run of like symbols, and
-// SS/PBCH blocks as one path.
+// which were drawn. TDD directions are drawn per run of like symbols,
+// SS/PBCH blocks as one path and the synchronization raster as one path
+// per kind of tick.
 //
 // The figure is built once as a display list that both the SVG writer and
 // the PNG rasteriser consume, so the two share one layout. Options choose
@@ -25,6 +26,11 @@
 // <g class="gl-legend-part" data-index="i">; every other mark has a class
 // of its own (gl-guard, gl-edges, gl-carriers, gl-align, gl-ssb, gl-note-…),
 // so a page can highlight parts of an inline figure with its stylesheet.
+// The synchronization raster's comb is <g class="gl-raster"> with the
+// band's points for a readout: data-band, data-scs-khz, data-gscn and
+// data-ss-ref-hz (space-separated, SS_REF from point A), data-fits (one
+// '1' or '0' per point) and, when the block is on the raster,
+// data-block-gscn.
 //
 // Options.Window fixes the axes, so that figures of two plans share their
 // scales (FitWindow and Window.Union make one that holds both), and
@@ -187,9 +193,13 @@ func build(r grid.Result, opt Options) (*doc, error) {
 	if r.SSB != nil && b.shows(LayerSSB) {
 		blocks = planSSB(*r.SSB, f)
 	}
+	var raster *syncDrawing
+	if r.SyncRaster != nil && b.shows(LayerRaster) {
+		raster = planSyncRaster(r, f, b.shows(LayerSSB), b.fromA)
+	}
 
 	rows := partRows(r, details, tdds)
-	keys := keyRows(r, b, blocks, f)
+	keys := keyRows(r, b, blocks, raster, f)
 	keyW := minKeyWidth
 	for _, k := range keys {
 		keyW = max(keyW, int(textWidth(k.text, 10, false))+40+1)
@@ -237,7 +247,10 @@ func build(r grid.Result, opt Options) (*doc, error) {
 
 	b.add(shape{d: pathOf(func(p *pathData) { p.rect(0, 0, float64(width), float64(height)) }), fill: solid(white)})
 	drawPlot(b, f, r, details, tdds, blocks)
-	drawAxes(b, f, r.Channel)
+	drawAxes(b, f, r.Channel, raster != nil)
+	if raster != nil {
+		drawSyncRaster(b, f, raster)
+	}
 	drawRail(b, f, r)
 	drawLegend(b, r, rows, keys, width, legendTop, keyW, partsH, keyBelow)
 	if len(caption) > 0 {
@@ -355,8 +368,10 @@ func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDr
 }
 
 // drawAxes draws the time axis below the plot and the frequency axis to its
-// left, each with a title naming its unit.
-func drawAxes(b *builder, f frame, ch grid.Channel) {
+// left, each with a title naming its unit. With room for the sync raster's
+// comb, the frequency axis stands rasterStrip px off the plot on a spine
+// of its own.
+func drawAxes(b *builder, f frame, ch grid.Channel, rasterRoom bool) {
 	var tickMarks pathData
 	b.open(group{class: "gl-axes", fontSize: 10})
 	tick := func(x, y float64, text string, a anchor) {
@@ -389,10 +404,15 @@ func drawAxes(b *builder, f frame, ch grid.Channel) {
 	}
 	lo, hi := toV(f.low), toV(f.high)
 	fstep := niceStep(36 / (float64(f.h) / (hi - lo)))
+	axisX := float64(f.x)
+	if rasterRoom {
+		axisX -= rasterStrip
+		tickMarks.vline(axisX, float64(f.y), f.bottom())
+	}
 	for _, v := range ticks(lo, hi, fstep) {
 		y := f.Y(fromV(v))
-		tickMarks.hline(y, float64(f.x)-5, float64(f.x))
-		tick(float64(f.x-8), float64(int(y+3.5)), fmtTick(v, fstep), anchorEnd)
+		tickMarks.hline(y, axisX-5, axisX)
+		tick(axisX-8, float64(int(y+3.5)), fmtTick(v, fstep), anchorEnd)
 	}
 	mid := float64(f.y + f.h/2)
 	b.text(label{x: 18, y: mid, runs: []run{{text: title}}, size: 12, anchor: anchorMiddle, rotate: true})
@@ -526,6 +546,9 @@ func summary(r grid.Result) string {
 	if r.Channel.Absolute {
 		fmt.Fprintf(&b, " centred on %s", fmtMHz(r.Channel.CenterHz))
 	}
+	if r.Channel.Band != "" {
+		fmt.Fprintf(&b, " in band %s", shownN(r.Channel.Band, 8))
+	}
 	if r.TDD != nil {
 		fmt.Fprintf(&b, ", TDD %s", tddName(r.TDD))
 	}
@@ -538,6 +561,9 @@ func summary(r grid.Result) string {
 	}
 	if r.SSB != nil {
 		fmt.Fprintf(&b, "; %d SS/PBCH block%s of case %s at %d kHz", len(r.SSB.Blocks), plural(len(r.SSB.Blocks)), r.SSB.Case, r.SSB.Numerology.SCSKHz())
+		if r.SSB.Absolute && r.SSB.OnSyncRaster {
+			fmt.Fprintf(&b, " on GSCN %d", r.SSB.GSCN)
+		}
 	}
 	b.WriteString(".")
 	return b.String()
@@ -657,7 +683,7 @@ type keyEntry struct {
 }
 
 // keyRows lists the key's rows for what the figure shows.
-func keyRows(r grid.Result, b *builder, blocks *ssbDrawing, f frame) []keyEntry {
+func keyRows(r grid.Result, b *builder, blocks *ssbDrawing, raster *syncDrawing, f frame) []keyEntry {
 	lk := b.lk
 	vline := func(dx float64, c rgb, a, w float64, pad float64) func(b *builder, x0, y0, x1, y1 float64) {
 		return func(b *builder, x0, y0, x1, y1 float64) {
@@ -734,6 +760,9 @@ func keyRows(r grid.Result, b *builder, blocks *ssbDrawing, f frame) []keyEntry 
 	}
 	if r.SSB != nil && blocks != nil {
 		keys = append(keys, ssbKey(*r.SSB, blocks, b))
+	}
+	if raster != nil {
+		keys = append(keys, syncKeys(r.SyncRaster, raster)...)
 	}
 	return keys
 }
