@@ -99,24 +99,23 @@ const (
 	LayerGuards                    // guardbands, unused spectrum, minimum guardbands on the rail
 	LayerLabels                    // names in the plot, TDD letters, SS/PBCH labels, notes beside the rail
 	LayerTDD                       // TDD direction bands and the wash over the other direction
-	LayerSSB                       // SS/PBCH blocks
-	LayerRaster                    // the band's synchronization raster beside the frequency axis
+	LayerSSB                       // SS/PBCH blocks and the band's synchronization raster
 	allLayers    Layer = 1<<iota - 1
 )
 
 // layerNames lists the layers in the order of their bits.
-var layerNames = []string{"lattice", "cp", "guards", "labels", "tdd", "ssb", "raster"}
+var layerNames = []string{"lattice", "cp", "guards", "labels", "tdd", "ssb"}
 
 // layerTitles says what each layer draws, in words for a form's
 // checkboxes, in the order of layerNames.
-var layerTitles = []string{"lattice lines", "cyclic prefixes", "guardbands", "labels", "TDD directions", "SS/PBCH blocks", "sync raster"}
+var layerTitles = []string{"lattice lines", "cyclic prefixes", "guardbands", "labels", "TDD directions", "SS/PBCH blocks and sync raster"}
 
 // LayerTitles returns a few words for each layer, in the order of
 // LayerNames, so that a page lists every layer render has without keeping
 // a list of its own that falls behind.
 func LayerTitles() []string { return append([]string(nil), layerTitles...) }
 
-// layerList names the layers for messages: "lattice, cp, … and raster".
+// layerList names the layers for messages: "lattice, cp, … and ssb".
 var layerList = strings.Join(layerNames[:len(layerNames)-1], ", ") + " and " + layerNames[len(layerNames)-1]
 
 // LayerNames returns the names ParseLayers reads, in drawing order.

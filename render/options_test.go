@@ -88,16 +88,14 @@ func TestParseLayers(t *testing.T) {
 
 // layerClasses are the classes each layer draws; hiding the layer must
 // remove every one of them and nothing of the other layers. TDD letters
-// and SS/PBCH labels belong to two layers each, and so does the wedge at
-// the block's GSCN on the sync raster.
+// and SS/PBCH labels belong to two layers each.
 var layerClasses = map[Layer][]string{
 	LayerLattice: {"gl-rows", "gl-symbols", "gl-align", "gl-align-heads"},
 	LayerCP:      {"gl-cp", "gl-longcp"},
 	LayerGuards:  {"gl-guard", "gl-unused", "gl-minguard"},
 	LayerLabels:  {"gl-name", "gl-note", "gl-tdd-letter", "gl-ssb-label"},
 	LayerTDD:     {"gl-tdd-d", "gl-tdd-f", "gl-tdd-u", "gl-tdd-off", "gl-tdd-edge", "gl-tdd-letter"},
-	LayerSSB:     {"gl-ssb", "gl-ssb-label", "gl-raster-block"},
-	LayerRaster:  {"gl-raster", "gl-raster-fit", "gl-raster-off", "gl-raster-block"},
+	LayerSSB:     {"gl-ssb", "gl-ssb-label", "gl-raster", "gl-raster-fit", "gl-raster-off", "gl-raster-block"},
 }
 
 // TestLayersHidden draws the campus plan, which shows every layer at the
@@ -176,7 +174,7 @@ func TestLayersKey(t *testing.T) {
 		{LayerGuards, "guardband"},
 		{LayerTDD, "TDD DDDSU"},
 		{LayerSSB, "SS/PBCH block"},
-		{LayerRaster, "sync raster"},
+		{LayerSSB, "sync raster"},
 	} {
 		if !strings.Contains(key(Options{}), tc.text) {
 			t.Fatalf("the full key does not say %q", tc.text)

@@ -194,8 +194,8 @@ func build(r grid.Result, opt Options) (*doc, error) {
 		blocks = planSSB(*r.SSB, f)
 	}
 	var raster *syncDrawing
-	if r.SyncRaster != nil && b.shows(LayerRaster) {
-		raster = planSyncRaster(r, f, b.shows(LayerSSB), b.fromA)
+	if r.SyncRaster != nil && b.shows(LayerSSB) {
+		raster = planSyncRaster(r, f, b.fromA)
 	}
 
 	rows := partRows(r, details, tdds)

@@ -8,7 +8,8 @@ import (
 	"gridloom/grid"
 )
 
-// The synchronization raster (grid.Result.SyncRaster) is drawn as a comb
+// The synchronization raster (grid.Result.SyncRaster) belongs to the ssb
+// layer, since it says where the block may go. It is drawn as a comb
 // in a strip between the frequency axis and the plot: one horizontal tick
 // per GSCN of the band inside the channel, hanging from the plot's left
 // edge, long where a block centred there fits the channel and the carrier,
@@ -39,9 +40,8 @@ type syncDrawing struct {
 }
 
 // planSyncRaster places the ticks of the raster points inside the plot's
-// frequency window, and with withBlock (the SS/PBCH layer shown) the wedge
-// of the block's GSCN.
-func planSyncRaster(r grid.Result, f frame, withBlock, fromA bool) *syncDrawing {
+// frequency window, and the wedge of the block's GSCN.
+func planSyncRaster(r grid.Result, f frame, fromA bool) *syncDrawing {
 	s := r.SyncRaster
 	d := &syncDrawing{}
 	x := float64(f.x) - 1 // the ticks end at the plot's frame
@@ -65,7 +65,7 @@ func planSyncRaster(r grid.Result, f frame, withBlock, fromA bool) *syncDrawing 
 		refs.WriteString(strconv.FormatInt(int64(p.SSRef), 10))
 		fits.WriteByte("01"[b2i(p.Fits)])
 	}
-	if b := r.SSB; withBlock && b != nil && b.Absolute && b.OnSyncRaster && b.SSRef >= f.low && b.SSRef <= f.high {
+	if b := r.SSB; b != nil && b.Absolute && b.OnSyncRaster && b.SSRef >= f.low && b.SSRef <= f.high {
 		y := f.Y(b.SSRef)
 		d.wedge.moveTo(x-rasterWedgeW, y-rasterWedgeH)
 		d.wedge.lineTo(x+1, y)
