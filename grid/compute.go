@@ -24,6 +24,9 @@ type Result struct {
 	// Spectrum is how the carriers and partitions divide the channel.
 	Spectrum Spectrum
 	Findings []Finding
+	// InitialAccess is CORESET#0, its monitoring occasions, the MIB fields
+	// and the initial BWPs, when the plan asks for them and CORESET#0 fits.
+	InitialAccess *InitialAccess
 }
 
 // HasErrors reports whether any finding is an Error.
@@ -249,6 +252,9 @@ func Compute(plan Plan) Result {
 			res.SSB = &s
 			checkSSBOverlaps(&fs, s, res.Partitions, tdd)
 		}
+	}
+	if p.InitialAccess != nil {
+		res.InitialAccess = checkInitialAccess(&fs, rng, p.InitialAccess, p.SSB, &res, tdd)
 	}
 	if p.Environment != nil {
 		if f, ok := checkFit(&fs, rng, p.Environment, res.Channel, res.Partitions); ok {

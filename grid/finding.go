@@ -40,6 +40,7 @@ const (
 	CodeSSB            = "ssb"             // an SS/PBCH configuration the standard does not allow, or blocks beyond the channel
 	CodeSSBOverlap     = "ssb-overlap"     // SS/PBCH blocks on a partition of another spacing
 	CodeFit            = "fit"             // a numerology that suits the radio channel poorly (rules of thumb)
+	CodeInitialAccess  = "initial-access"  // CORESET#0, Type0-PDCCH occasions or initial BWPs that do not fit (TS 38.213 12, 13)
 )
 
 // Finding is one result of checking a plan. Field is the path of the plan
