@@ -45,7 +45,7 @@ type InitialBWPPlan struct {
 	SizePRB              int    `json:"sizePrb,omitempty" yaml:"sizePrb,omitempty"`
 	LocationAndBandwidth *int   `json:"locationAndBandwidth,omitempty" yaml:"locationAndBandwidth,omitempty"`
 	// SubcarrierSpacingKHz is the BWP's subcarrierSpacing; 0 means
-	// subCarrierSpacingCommon.
+	// subCarrierSpacingCommon, which the initial downlink BWP must have.
 	SubcarrierSpacingKHz int `json:"subcarrierSpacingKHz,omitempty" yaml:"subcarrierSpacingKHz,omitempty"`
 	// CyclicPrefix is "normal" or "extended"; "" means normal.
 	CyclicPrefix string `json:"cyclicPrefix,omitempty" yaml:"cyclicPrefix,omitempty"`
@@ -313,7 +313,7 @@ func checkInitialAccess(fs *findings, rng Range, ia *InitialAccessPlan, sp *SSBP
 	dl := InitialBWP{Source: "coreset0", SCSKHz: common, CP: DefaultCP, StartCRB: cs.StartCRB, SizePRB: cs.NRB,
 		LocationAndBandwidth: -1, Low: cs.Low, High: cs.High}
 	if b := ia.InitialDownlinkBWP; b != nil {
-		if got, placed := resolveBWP(fs, iaField+".initialDownlinkBWP", b, common, res); placed {
+		if got, placed := resolveBWP(fs, iaField+".initialDownlinkBWP", b, common, true, res); placed {
 			dl = got
 		}
 	}
@@ -328,7 +328,7 @@ func checkInitialAccess(fs *findings, rng Range, ia *InitialAccessPlan, sp *SSBP
 	out.InitialDL = dl
 	switch b := ia.InitialUplinkBWP; {
 	case b != nil:
-		if ul, placed := resolveBWP(fs, iaField+".initialUplinkBWP", b, 0, res); placed {
+		if ul, placed := resolveBWP(fs, iaField+".initialUplinkBWP", b, common, false, res); placed {
 			ul.LocationAndBandwidth = bwpRIV(ul, res)
 			checkBWPInCarrier(fs, iaField+".initialUplinkBWP", "initial uplink BWP", ul, res)
 			if tdd != nil && ul.Low+ul.High != dl.Low+dl.High {
@@ -499,9 +499,14 @@ func checkOccasionsOnBlocks(fs *findings, out *InitialAccess, s *SSB, sp *SSBPla
 	}
 }
 
-// resolveBWP places an initial BWP the plan gives. scsMust, when not 0, is
-// the spacing the BWP must have (subCarrierSpacingCommon for the downlink).
-func resolveBWP(fs *findings, f string, b *InitialBWPPlan, scsMust int, res *Result) (InitialBWP, bool) {
+// resolveBWP places an initial BWP the plan gives. common is
+// subCarrierSpacingCommon, the spacing when the plan gives none; downlink
+// says the BWP must have it (TS 38.331 BWP subcarrierSpacing).
+func resolveBWP(fs *findings, f string, b *InitialBWPPlan, common int, downlink bool, res *Result) (InitialBWP, bool) {
+	scsMust := 0
+	if downlink {
+		scsMust = common
+	}
 	bad := func(field, format string, args ...any) {
 		fs.add(Error, CodeInitialAccess, "", field, format, args...)
 	}
@@ -523,11 +528,7 @@ func resolveBWP(fs *findings, f string, b *InitialBWPPlan, scsMust int, res *Res
 	}
 	scs := b.SubcarrierSpacingKHz
 	if scs == 0 {
-		scs = scsMust
-	}
-	if scs == 0 {
-		bad(f+".subcarrierSpacingKHz", "%s.subcarrierSpacingKHz is missing; give the spacing of the BWP, one of %s kHz.", f, JoinInts(res.Channel.Range.DataSCS()))
-		return InitialBWP{}, false
+		scs = common
 	}
 	if scsMust != 0 && scs != scsMust {
 		bad(f+".subcarrierSpacingKHz", "%s.subcarrierSpacingKHz is %d, but the initial downlink BWP has subCarrierSpacingCommon, %d kHz (TS 38.331 BWP subcarrierSpacing); leave it out or set it to %d.", f, scs, scsMust, scsMust)

@@ -5,6 +5,7 @@
 //	gridloom [serve] [-addr 127.0.0.1:8080] [-plan FILE]   the web app
 //	gridloom render [-format svg|json|csv] [-o FILE] PLAN  draw or export a plan
 //	gridloom check PLAN                                    list the findings
+//	gridloom initial [-format table|json] PLAN             the pdcch-ConfigSIB1 values that fit
 //
 // PLAN is a JSON or YAML plan file, or "-" for standard input.
 package main
@@ -55,6 +56,8 @@ Usage:
   gridloom [serve] [flags]          start the web app (default 127.0.0.1:8080)
   gridloom render [flags] PLAN      draw or export a plan: -format svg, json or csv
   gridloom check PLAN               list the plan's findings
+  gridloom initial [flags] PLAN     list the controlResourceSetZero and searchSpaceZero
+                                    that fit the SS/PBCH block: -format table or json
 
 PLAN is a JSON or YAML plan file, or - for standard input.
 Run "gridloom COMMAND -h" for the flags of a command.
@@ -73,10 +76,12 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 		return runRender(args, stdin, stdout, stderr)
 	case "check":
 		return runCheck(args, stdin, stdout, stderr)
+	case "initial":
+		return runInitial(args, stdin, stdout, stderr)
 	case "help":
 		fmt.Fprint(stdout, usage)
 		return nil
 	}
 	fmt.Fprint(stderr, usage)
-	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render or check", cmd)}
+	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check or initial", cmd)}
 }

@@ -1,0 +1,102 @@
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"strconv"
+	"text/tabwriter"
+
+	"gridloom/grid"
+)
+
+// initialJSON is the document of "gridloom initial -format json": CORESET#0
+// edges in kHz relative to point A, as in the render command's JSON, and
+// in absolute MHz when the plan ties the channel to a frequency.
+type initialJSON struct {
+	Table        string              `json:"table"`
+	SSBSCSKHz    int                 `json:"ssbScsKHz"`
+	ScsCommonKHz int                 `json:"scsCommonKHz"`
+	Options      []initialOptionJSON `json:"options"`
+	Why          string              `json:"why,omitempty"`
+}
+
+type initialOptionJSON struct {
+	OffsetToPointA         int      `json:"offsetToPointA"`
+	KSSB                   int      `json:"kSsb"`
+	ControlResourceSetZero int      `json:"controlResourceSetZero"`
+	SearchSpaceZero        int      `json:"searchSpaceZero"`
+	PDCCHConfigSIB1        int      `json:"pdcchConfigSIB1"`
+	Pattern                int      `json:"pattern"`
+	NRB                    int      `json:"nrb"`
+	Symbols                int      `json:"symbols"`
+	StartCRB               int      `json:"startCrb"`
+	LowKHz                 float64  `json:"lowKHz"`
+	HighKHz                float64  `json:"highKHz"`
+	ClearOfSSB             bool     `json:"clearOfSsb"`
+	SSBFromCentreKHz       float64  `json:"ssbFromCentreKHz"`
+	LowMHz                 *float64 `json:"lowMHz,omitempty"`
+	HighMHz                *float64 `json:"highMHz,omitempty"`
+}
+
+// runInitial lists the pdcch-ConfigSIB1 values (controlResourceSetZero and
+// searchSpaceZero) that fit the plan's SS/PBCH block, carrier and TDD
+// pattern, best first; each row is a plan's initialAccess block ready to use.
+func runInitial(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
+	fs := newFlags("initial", "[-format table|json] PLAN", stderr)
+	format := fs.String("format", "table", "output `format`: table or json")
+	if err := parseFlags(fs, args); err != nil {
+		return err
+	}
+	if *format != "table" && *format != "json" {
+		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use table or json", *format)}
+	}
+	path, err := onePlanArg(fs)
+	if err != nil {
+		return err
+	}
+	p, err := readPlan(path, stdin)
+	if err != nil {
+		return err
+	}
+	found, err := grid.FindInitialAccess(p)
+	if err != nil {
+		return &exitError{code: exitBadInput, msg: err.Error()}
+	}
+	ch := grid.Compute(p).Channel
+	if *format == "json" {
+		doc := initialJSON{Table: found.Table, SSBSCSKHz: found.SSBSCSKHz, ScsCommonKHz: found.ScsCommonKHz, Why: found.Why, Options: []initialOptionJSON{}}
+		for _, o := range found.Options {
+			j := initialOptionJSON{OffsetToPointA: o.OffsetToPointA, KSSB: o.KSSB, ControlResourceSetZero: o.ControlResourceSetZero,
+				SearchSpaceZero: o.SearchSpaceZero, PDCCHConfigSIB1: o.PDCCHConfigSIB1, Pattern: o.Pattern, NRB: o.NRB,
+				Symbols: o.Symbols, StartCRB: o.StartCRB, LowKHz: o.Low.KHz(), HighKHz: o.High.KHz(), ClearOfSSB: o.ClearOfSSB,
+				SSBFromCentreKHz: o.SSBFromCentre.KHz()}
+			if ch.Absolute {
+				lo, hi := ch.Abs(o.Low).MHz(), ch.Abs(o.High).MHz()
+				j.LowMHz, j.HighMHz = &lo, &hi
+			}
+			doc.Options = append(doc.Options, j)
+		}
+		enc := json.NewEncoder(stdout)
+		enc.SetIndent("", "  ")
+		return enc.Encode(doc)
+	}
+	fmt.Fprintf(stdout, "%s: %s for %d kHz SS/PBCH blocks with subCarrierSpacingCommon %d kHz (TS 38.213 Table %s), best first\n",
+		displayName(path), count(len(found.Options), "pdcch-ConfigSIB1", "pdcch-ConfigSIB1 values"), found.SSBSCSKHz, found.ScsCommonKHz, found.Table)
+	if len(found.Options) == 0 {
+		fmt.Fprintln(stdout, found.Why)
+		return nil
+	}
+	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', tabwriter.AlignRight)
+	fmt.Fprintln(tw, "offsetToPointA\tkSsb\tcontrolResourceSetZero\tsearchSpaceZero\tpdcch-ConfigSIB1\tpattern\tRBs\tsymbols\tCRBs\tlow kHz\thigh kHz\tclear of SSB\t")
+	khz := func(f grid.Hz) string { return strconv.FormatFloat(f.KHz(), 'f', -1, 64) }
+	for _, o := range found.Options {
+		clear := "no"
+		if o.ClearOfSSB {
+			clear = "yes"
+		}
+		fmt.Fprintf(tw, "%d\t%d\t%d\t%d\t%d\t%d\t%d\t%d\t%d–%d\t%s\t%s\t%s\t\n", o.OffsetToPointA, o.KSSB, o.ControlResourceSetZero, o.SearchSpaceZero,
+			o.PDCCHConfigSIB1, o.Pattern, o.NRB, o.Symbols, o.StartCRB, o.StartCRB+o.NRB-1, khz(o.Low), khz(o.High), clear)
+	}
+	return tw.Flush()
+}

@@ -1,0 +1,177 @@
+package grid
+
+import (
+	"cmp"
+	"errors"
+	"fmt"
+	"slices"
+	"strings"
+
+	"gridloom/grid/coreset0"
+)
+
+// InitialAccessOption is one pdcch-ConfigSIB1 that passes every
+// initial-access check for an SS/PBCH block position.
+type InitialAccessOption struct {
+	OffsetToPointA         int `json:"offsetToPointA"`
+	KSSB                   int `json:"kSsb"`
+	ControlResourceSetZero int `json:"controlResourceSetZero"`
+	SearchSpaceZero        int `json:"searchSpaceZero"`
+	PDCCHConfigSIB1        int `json:"pdcchConfigSIB1"`
+	// Table, Pattern, NRB, Symbols and StartCRB describe CORESET#0.
+	Table    string `json:"table"`
+	Pattern  int    `json:"pattern"`
+	NRB      int    `json:"nrb"`
+	Symbols  int    `json:"symbols"`
+	StartCRB int    `json:"startCrb"`
+	Low      Hz     `json:"lowHz"` // CORESET#0's outer edges relative to point A
+	High     Hz     `json:"highHz"`
+	// ClearOfSSB reports that CORESET#0 shares no spectrum with the
+	// SS/PBCH block, so neither has to be rate-matched around the other.
+	ClearOfSSB bool `json:"clearOfSsb"`
+	// SSBFromCentre is how far the block's centre lies from the channel's.
+	SSBFromCentre Hz `json:"ssbFromCentreHz"`
+}
+
+// InitialAccessSearch is what FindInitialAccess found.
+type InitialAccessSearch struct {
+	Table        string                `json:"table"` // the CORESET#0 table, "13-4"
+	SSBSCSKHz    int                   `json:"ssbScsKHz"`
+	ScsCommonKHz int                   `json:"scsCommonKHz"`
+	Options      []InitialAccessOption `json:"options"`
+	// Why says, when Options is empty, why no combination fits.
+	Why string `json:"why,omitempty"`
+}
+
+// FindInitialAccess lists every controlResourceSetZero and searchSpaceZero
+// that passes the initial-access checks for the plan's SS/PBCH block
+// (position, spacing, subCarrierSpacingCommon), carrier, TDD pattern and
+// initial BWPs, best first: CORESET#0 clear of the block in frequency, then
+// the widest CORESET#0, then the block nearest the channel centre, then the
+// lowest indexes. The plan's own initialAccess values are ignored, its
+// dmrsTypeAPosition and initial BWPs kept.
+func FindInitialAccess(plan Plan) (InitialAccessSearch, error) {
+	p := plan.withDefaults()
+	if p.SSB == nil {
+		return InitialAccessSearch{}, errors.New("the plan has no ssb block; CORESET#0 is placed from the SS/PBCH block, so add ssb (scsKHz, offsetToPointA, kSsb)")
+	}
+	base := p.InitialAccess
+	p.InitialAccess = nil
+	r := Compute(p)
+	if r.SSB == nil {
+		return InitialAccessSearch{}, fmt.Errorf("the plan's ssb block has errors: %s", firstErrors(r.Findings))
+	}
+	rng := r.Channel.Range
+	if rng == FR2_2 {
+		return InitialAccessSearch{}, errors.New("CORESET#0 in FR2-2 follows TS 38.213 Tables 13-10A, 13-12A and 13-15A, which gridloom does not carry yet")
+	}
+	common := commonSCS(rng, r.Plan.SSB)
+	band, _ := coresetBand(rng)
+	table, err := coreset0.SelectTable(r.SSB.Numerology.SCSKHz(), common, band)
+	if err != nil {
+		return InitialAccessSearch{}, err
+	}
+	out := InitialAccessSearch{Table: strings.TrimPrefix(table.String(), "Table "), SSBSCSKHz: r.SSB.Numerology.SCSKHz(), ScsCommonKHz: common}
+	out.Options, out.Why = optionsAt(rng, table, base, r.Plan.SSB, &r)
+	return out, nil
+}
+
+// optionsAt tries every pdcch-ConfigSIB1 for one block position.
+func optionsAt(rng Range, table coreset0.Table, base *InitialAccessPlan, sp *SSBPlan, r *Result) ([]InitialAccessOption, string) {
+	var opts []InitialAccessOption
+	reasons := map[string]bool{}
+	var order []string
+	ssbCentre := (r.SSB.Low + r.SSB.High) / 2
+	for cs0 := range 16 {
+		if table.Rows()[cs0].Reserved() {
+			continue
+		}
+		for ss0 := range 16 {
+			ia := base.clone()
+			if ia == nil {
+				ia = &InitialAccessPlan{}
+			}
+			ia.ControlResourceSetZero, ia.SearchSpaceZero = cs0, ss0
+			var fs findings
+			got := checkInitialAccess(&fs, rng, ia, sp, r, r.TDD)
+			if i := slices.IndexFunc(fs, func(f Finding) bool { return f.Severity == Error }); i >= 0 || got == nil {
+				if i >= 0 && !reasons[fs[i].Message] {
+					reasons[fs[i].Message] = true
+					order = append(order, fs[i].Message)
+				}
+				continue
+			}
+			c := got.CORESET0
+			opts = append(opts, InitialAccessOption{OffsetToPointA: sp.OffsetToPointA, KSSB: sp.KSSB,
+				ControlResourceSetZero: cs0, SearchSpaceZero: ss0, PDCCHConfigSIB1: got.MIB.PDCCHConfigSIB1,
+				Table: c.Table, Pattern: c.Pattern, NRB: c.NRB, Symbols: c.Symbols, StartCRB: c.StartCRB, Low: c.Low, High: c.High,
+				ClearOfSSB: min(c.High, r.SSB.High) <= max(c.Low, r.SSB.Low), SSBFromCentre: absHz(ssbCentre - r.Channel.Center)})
+		}
+	}
+	rankOptions(opts)
+	if len(opts) > 0 {
+		return opts, ""
+	}
+	return nil, whyNone(table, r, order)
+}
+
+// rankOptions sorts the options as an engineer prefers them.
+func rankOptions(opts []InitialAccessOption) {
+	slices.SortStableFunc(opts, func(a, b InitialAccessOption) int {
+		if a.ClearOfSSB != b.ClearOfSSB {
+			if a.ClearOfSSB {
+				return -1
+			}
+			return 1
+		}
+		return cmp.Or(cmp.Compare(b.NRB, a.NRB), cmp.Compare(a.SSBFromCentre, b.SSBFromCentre),
+			cmp.Compare(a.OffsetToPointA, b.OffsetToPointA), cmp.Compare(a.KSSB, b.KSSB),
+			cmp.Compare(a.ControlResourceSetZero, b.ControlResourceSetZero), cmp.Compare(a.SearchSpaceZero, b.SearchSpaceZero))
+	})
+}
+
+// whyNone explains an empty search: first the width that no row can fit,
+// otherwise the distinct reasons the rows were refused.
+func whyNone(table coreset0.Table, r *Result, reasons []string) string {
+	narrowest := 0
+	for _, row := range table.Rows() {
+		if !row.Reserved() && (narrowest == 0 || row.NumRBs < narrowest) {
+			narrowest = row.NumRBs
+		}
+	}
+	common := table.PDCCHSCSkHz()
+	width := Hz(narrowest) * 12 * Hz(common) * 1000
+	if c, ok := r.Carrier(common); ok && c.CarrierBandwidth < narrowest {
+		return fmt.Sprintf("The narrowest CORESET#0 of %s is %d RBs of %d kHz (%s), wider than the %d kHz carrier of %d PRBs (%s); choose a smaller subCarrierSpacingCommon or a wider channel.",
+			table, narrowest, common, fmtKHz(width), common, c.CarrierBandwidth, fmtKHz(c.High-c.Low))
+	}
+	if ch := r.Channel; width > ch.High-ch.Low {
+		return fmt.Sprintf("The narrowest CORESET#0 of %s is %d RBs of %d kHz (%s), wider than the %d MHz channel; choose a smaller subCarrierSpacingCommon or a wider channel.",
+			table, narrowest, common, fmtKHz(width), ch.BandwidthMHz)
+	}
+	if len(reasons) > 3 {
+		reasons = append(reasons[:3:3], fmt.Sprintf("and %d more", len(reasons)-3))
+	}
+	return "No row of " + table.String() + " passes the checks: " + strings.Join(reasons, " ")
+}
+
+func absHz(f Hz) Hz {
+	if f < 0 {
+		return -f
+	}
+	return f
+}
+
+// firstErrors joins the messages of the first error findings.
+func firstErrors(fs []Finding) string {
+	var msgs []string
+	for _, f := range fs {
+		if f.Severity == Error && len(msgs) < 3 {
+			msgs = append(msgs, f.Message)
+		}
+	}
+	if len(msgs) == 0 {
+		return "none reported"
+	}
+	return strings.Join(msgs, " ")
+}
