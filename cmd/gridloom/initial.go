@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -42,20 +43,21 @@ type initialOptionJSON struct {
 // runInitial lists the pdcch-ConfigSIB1 values (controlResourceSetZero and
 // searchSpaceZero) that fit the plan's SS/PBCH block, carrier and TDD
 // pattern, best first; each row is a plan's initialAccess block ready to use.
-func runInitial(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
+func runInitial(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	fs := newFlags("initial", "[-format table|json] PLAN", stderr)
 	format := fs.String("format", "table", "output `format`: table or json")
-	if err := parseFlags(fs, args); err != nil {
+	pos, err := parseInterspersed(fs, args)
+	if err != nil {
 		return err
 	}
 	if *format != "table" && *format != "json" {
 		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use table or json", *format)}
 	}
-	path, err := onePlanArg(fs)
+	path, err := onePlanArg(fs, pos)
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(path, stdin)
+	p, err := readPlan(ctx, path, stdin)
 	if err != nil {
 		return err
 	}
