@@ -6,6 +6,7 @@ import (
 	"sort"
 	"strings"
 
+	"gridloom/grid/band"
 	"gridloom/grid/coreset0"
 )
 
@@ -170,11 +171,38 @@ func coresetFR(rng Range) coreset0.FR {
 }
 
 // coresetBand is what the CORESET#0 table choice needs of the operating
-// band. Without a band in the plan, gridloom assumes a band whose minimum
-// channel bandwidth is 5 or 10 MHz (Tables 13-1 to 13-4), as most FR1
-// bands below 6 GHz have, and says so.
-func coresetBand(rng Range) (b coreset0.Band, assumed bool) {
-	return coreset0.Band{FR: coresetFR(rng), MinChannelBandwidthMHz: 10}, rng == FR1
+// band (TS 38.213 13): its minimum channel bandwidth, the smallest of TS
+// 38.101-1 Table 5.3.5-1 for the band; whether it uses the 40 MHz tables
+// whatever that minimum (n79 and n104, by the band note the coreset0 package
+// names); and whether it is operated with shared spectrum channel access
+// (n46, n96 and n102, TS 38.101-1 Table 5.2-1, from memory). Without a band,
+// or a band whose bandwidths are not transcribed, gridloom assumes a 5 or
+// 10 MHz minimum (Tables 13-1 to 13-4), as most FR1 bands have, and assumed
+// says so.
+func coresetBand(rng Range, ch Channel) (b coreset0.Band, assumed string) {
+	b = coreset0.Band{FR: coresetFR(rng), MinChannelBandwidthMHz: 10}
+	if rng != FR1 {
+		return b, ""
+	}
+	bd, ok := band.Lookup(ch.Band)
+	if !ok {
+		return b, "Without an operating band"
+	}
+	minBW := 0
+	for _, list := range bd.Bandwidths {
+		for _, mhz := range list {
+			if minBW == 0 || mhz < minBW {
+				minBW = mhz
+			}
+		}
+	}
+	b.Uses40MHzTables = bd.Name == "n79" || bd.Name == "n104"
+	b.SharedSpectrum = bd.Name == "n46" || bd.Name == "n96" || bd.Name == "n102"
+	if minBW == 0 {
+		return b, "Band " + bd.Name + "'s channel bandwidths are not transcribed, so"
+	}
+	b.MinChannelBandwidthMHz = minBW
+	return b, ""
 }
 
 // candidateFirsts returns the first symbols, in a half frame, of the L_max
@@ -250,14 +278,14 @@ func checkInitialAccess(fs *findings, rng Range, ia *InitialAccessPlan, sp *SSBP
 	fr := coresetFR(rng)
 	ssbKHz := res.SSB.Numerology.SCSKHz()
 	common := commonSCS(rng, sp)
-	band, assumed := coresetBand(rng)
-	table, err := coreset0.SelectTable(ssbKHz, common, band)
+	cb, assumed := coresetBand(rng, res.Channel)
+	table, err := coreset0.SelectTable(ssbKHz, common, cb)
 	if err != nil {
 		bad("ssb.scsCommonKHz", "%s", err)
 		return nil
 	}
-	if assumed {
-		fs.add(Info, CodeInitialAccess, "", "carrier.band", "Without an operating band, CORESET#0 is read from TS 38.213 %s, the table for bands whose minimum channel bandwidth is 5 or 10 MHz; a band with a 40 MHz minimum (n79, n104) uses Tables 13-5 and 13-6.", table)
+	if assumed != "" {
+		fs.add(Info, CodeInitialAccess, "", "carrier.band", "%s, CORESET#0 is read from TS 38.213 %s, the table for bands whose minimum channel bandwidth is 5 or 10 MHz; bands n79 and n104 use Tables 13-5 and 13-6, and shared spectrum Tables 13-1A and 13-4A.", assumed, table)
 	}
 	pos := coreset0.SSBPosition{FR: fr, CommonSCSkHz: common, OffsetToPointA: sp.OffsetToPointA, KSSB: sp.KSSB}
 	cfg, err := coreset0.Lookup(table, ia.ControlResourceSetZero, sp.KSSB)

@@ -345,3 +345,22 @@ func TestFindInitialAccessNoneAt5MHz30kHz(t *testing.T) {
 		}
 	}
 }
+
+// The band picks the table (TS 38.213 13): n79 uses the 40 MHz tables
+// (Table 13-6 for {30, 30} kHz), n46 is operated with shared spectrum
+// channel access (Table 13-4A), n78 has a 10 MHz minimum (Table 13-4).
+func TestInitialAccessTableFromBand(t *testing.T) {
+	for _, c := range []struct {
+		band   string
+		centre float64
+		table  string
+	}{{"n78", 3750, "13-4"}, {"n79", 4500, "13-6"}, {"n46", 5505, "13-4A"}} {
+		p := iaFR1(0, 0)
+		p.Carrier.Band = c.band
+		p.Carrier.CenterMHz = &c.centre
+		r := Compute(p)
+		if r.InitialAccess == nil || r.InitialAccess.CORESET0.Table != c.table {
+			t.Errorf("%s: %+v, want Table %s; findings %v", c.band, r.InitialAccess, c.table, iaFindings(r, Error))
+		}
+	}
+}

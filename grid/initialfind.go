@@ -66,8 +66,8 @@ func FindInitialAccess(plan Plan) (InitialAccessSearch, error) {
 		return InitialAccessSearch{}, errors.New("CORESET#0 in FR2-2 follows TS 38.213 Tables 13-10A, 13-12A and 13-15A, which gridloom does not carry yet")
 	}
 	common := commonSCS(rng, r.Plan.SSB)
-	band, _ := coresetBand(rng)
-	table, err := coreset0.SelectTable(r.SSB.Numerology.SCSKHz(), common, band)
+	cb, _ := coresetBand(rng, r.Channel)
+	table, err := coreset0.SelectTable(r.SSB.Numerology.SCSKHz(), common, cb)
 	if err != nil {
 		return InitialAccessSearch{}, err
 	}

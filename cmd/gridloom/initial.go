@@ -43,6 +43,7 @@ type initialOptionJSON struct {
 // runInitial lists the pdcch-ConfigSIB1 values (controlResourceSetZero and
 // searchSpaceZero) that fit the plan's SS/PBCH block, carrier and TDD
 // pattern, best first; each row is a plan's initialAccess block ready to use.
+// It exits 1 when none fits, like check on a plan with errors.
 func runInitial(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	fs := newFlags("initial", "[-format table|json] PLAN", stderr)
 	format := fs.String("format", "table", "output `format`: table or json")
@@ -81,13 +82,19 @@ func runInitial(ctx context.Context, args []string, stdin io.Reader, stdout, std
 		}
 		enc := json.NewEncoder(stdout)
 		enc.SetIndent("", "  ")
-		return enc.Encode(doc)
+		if err := enc.Encode(doc); err != nil {
+			return err
+		}
+		if len(doc.Options) == 0 {
+			return &exitError{code: exitPlanErrors}
+		}
+		return nil
 	}
 	fmt.Fprintf(stdout, "%s: %s for %d kHz SS/PBCH blocks with subCarrierSpacingCommon %d kHz (TS 38.213 Table %s), best first\n",
 		displayName(path), count(len(found.Options), "pdcch-ConfigSIB1", "pdcch-ConfigSIB1 values"), found.SSBSCSKHz, found.ScsCommonKHz, found.Table)
 	if len(found.Options) == 0 {
 		fmt.Fprintln(stdout, found.Why)
-		return nil
+		return &exitError{code: exitPlanErrors}
 	}
 	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprintln(tw, "offsetToPointA\tkSsb\tcontrolResourceSetZero\tsearchSpaceZero\tpdcch-ConfigSIB1\tpattern\tRBs\tsymbols\tCRBs\tlow kHz\thigh kHz\tclear of SSB\t")
