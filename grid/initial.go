@@ -1,6 +1,7 @@
 package grid
 
 import (
+	"cmp"
 	"fmt"
 	"slices"
 	"sort"
@@ -399,6 +400,7 @@ func occasions(fs *findings, out *InitialAccess, table coreset0.Table, cfg cores
 			Start: num.SymbolAt(k).Start, End: num.SymbolAt(k + cfg.NumSymbols - 1).End()})
 	}
 	sent := sentIndexes(sp.Bitmap, s.Candidates)
+	out.Occasions = make([]Type0Occasion, 0, 2*len(sent)*window/period)
 	field := iaField + ".searchSpaceZero"
 	if cfg.Pattern == 1 {
 		out.OccasionTable = "Table 13-11"
@@ -432,7 +434,9 @@ func occasions(fs *findings, out *InitialAccess, table coreset0.Table, cfg cores
 			}
 		}
 	}
-	sort.SliceStable(out.Occasions, func(a, b int) bool { return out.Occasions[a].Start < out.Occasions[b].Start })
+	slices.SortFunc(out.Occasions, func(a, b Type0Occasion) int {
+		return cmp.Or(cmp.Compare(a.Start, b.Start), cmp.Compare(a.SSBIndex, b.SSBIndex))
+	})
 }
 
 // checkOccasionDirections reports occasions on uplink or flexible symbols of
@@ -445,9 +449,14 @@ func checkOccasionDirections(fs *findings, out *InitialAccess, t TDD) {
 	var firstU, firstF *Type0Occasion
 	for k := range out.Occasions {
 		o := &out.Occasions[k]
-		// The reference symbol holding o.Start: search its subframe.
-		sf := int(o.Start / TcPerSubframe)
-		j := sf * perSF
+		// The reference symbol holding o.Start: symbols of a subframe differ
+		// in length by at most 16·κ, so the even share of the subframe
+		// lands on it or next to it.
+		sf := o.Start / TcPerSubframe
+		j := int(sf)*perSF + int((o.Start-sf*TcPerSubframe)*Tc(perSF)/TcPerSubframe)
+		for j > 0 && ref.SymbolAt(j).Start > o.Start {
+			j--
+		}
 		for ref.SymbolAt(j).End() <= o.Start {
 			j++
 		}

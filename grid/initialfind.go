@@ -79,7 +79,7 @@ func FindInitialAccess(plan Plan) (InitialAccessSearch, error) {
 // optionsAt tries every pdcch-ConfigSIB1 for one block position.
 func optionsAt(rng Range, table coreset0.Table, base *InitialAccessPlan, sp *SSBPlan, r *Result) ([]InitialAccessOption, string) {
 	var opts []InitialAccessOption
-	reasons := map[string]bool{}
+	reasons := map[string]bool{} // by message without its numbers: one of each kind
 	var order []string
 	ssbCentre := (r.SSB.Low + r.SSB.High) / 2
 	for cs0 := range 16 {
@@ -95,9 +95,12 @@ func optionsAt(rng Range, table coreset0.Table, base *InitialAccessPlan, sp *SSB
 			var fs findings
 			got := checkInitialAccess(&fs, rng, ia, sp, r, r.TDD)
 			if i := slices.IndexFunc(fs, func(f Finding) bool { return f.Severity == Error }); i >= 0 || got == nil {
-				if i >= 0 && !reasons[fs[i].Message] {
-					reasons[fs[i].Message] = true
+				if kind := strings.Map(noDigits, fs[min(i, len(fs)-1)].Message); i >= 0 && !reasons[kind] {
+					reasons[kind] = true
 					order = append(order, fs[i].Message)
+				}
+				if i < 0 || fs[i].Field != iaField+".searchSpaceZero" {
+					break // CORESET#0 itself does not fit: no searchSpaceZero helps
 				}
 				continue
 			}
@@ -153,6 +156,13 @@ func whyNone(table coreset0.Table, r *Result, reasons []string) string {
 		reasons = append(reasons[:3:3], fmt.Sprintf("and %d more", len(reasons)-3))
 	}
 	return "No row of " + table.String() + " passes the checks: " + strings.Join(reasons, " ")
+}
+
+func noDigits(r rune) rune {
+	if r >= '0' && r <= '9' {
+		return -1
+	}
+	return r
 }
 
 func absHz(f Hz) Hz {
