@@ -16,6 +16,7 @@ import (
 
 // Document is the JSON document of one grid.Result, as Build makes it.
 type Document struct {
+	Spec       string         `json:"spec"` // the 3GPP release followed, grid.Spec
 	Plan       grid.Plan      `json:"plan"`
 	Channel    Channel        `json:"channel"`
 	Carriers   []Carrier      `json:"carriers"`
@@ -154,6 +155,7 @@ type Partition struct {
 func Build(r grid.Result, symbols bool) Document {
 	ch := r.Channel
 	out := Document{
+		Spec: grid.Spec,
 		Plan: r.Plan,
 		Channel: Channel{Range: ch.Range.String(), BandwidthMHz: ch.BandwidthMHz,
 			LowKHz: ch.Low.KHz(), HighKHz: ch.High.KHz(), CenterKHz: ch.Center.KHz(), UsePercent: ch.UsePercent},
