@@ -6,6 +6,7 @@
 //	gridloom render [-format svg|png|json|csv] [-o FILE] PLAN  draw or export a plan
 //	gridloom check [-format text|json] [-strict] PLAN          list the findings
 //	gridloom version                                           the version and the 3GPP release
+//	gridloom ssb [-band nBAND] [-format table|json] PLAN      where the SS/PBCH block fits on the sync raster
 //	gridloom initial [-format table|json] PLAN                 the pdcch-ConfigSIB1 values that fit
 //
 // PLAN is a JSON or YAML plan file, or "-" for standard input. Ctrl-C or
@@ -97,6 +98,8 @@ Usage:
   gridloom [serve] [flags]          start the web app (default 127.0.0.1:8080)
   gridloom render [flags] PLAN      draw or export a plan: -format svg, png, json or csv
   gridloom check [flags] PLAN       list the plan's findings: -format text or json, -strict
+  gridloom ssb [flags] PLAN         list the GSCNs where the SS/PBCH block fits, with
+                                    offsetToPointA and k_SSB: -band, -format table or json
   gridloom version                  print the version and the 3GPP release it follows
   gridloom initial [flags] PLAN     list the controlResourceSetZero and searchSpaceZero
                                     that fit the SS/PBCH block: -format table or json
@@ -128,6 +131,8 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 		return runCheck(ctx, args, stdin, stdout, stderr)
 	case "version":
 		return runVersion(args, stdout, stderr)
+	case "ssb":
+		return runSSB(ctx, args, stdin, stdout, stderr)
 	case "initial":
 		return runInitial(ctx, args, stdin, stdout, stderr)
 	case "help":
@@ -135,5 +140,5 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 		return nil
 	}
 	fmt.Fprint(stderr, usage)
-	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check, initial, version or help", cmd)}
+	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check, ssb, initial, version or help", cmd)}
 }

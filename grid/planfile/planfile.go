@@ -755,6 +755,7 @@ func (w *walker) ssb(v any) *grid.SSBPlan {
 		KSSB:           w.intOr0(m["kSsb"], "ssb.kSsb"),
 		ScsCommonKHz:   w.intOr0(m["scsCommonKHz"], "ssb.scsCommonKHz"),
 		PeriodMs:       w.intOr0(m["periodMs"], "ssb.periodMs"),
+		GSCN:           w.optInt(m["gscn"], "ssb.gscn"),
 	}
 }
 
