@@ -151,18 +151,6 @@ type InitialBWP struct {
 	Low, High            Hz
 }
 
-// commonSCS is subCarrierSpacingCommon as the ssb block gives it: its
-// scsCommonKHz, else the block's spacing (FR1, FR2-2) or 120 kHz (FR2-1).
-func commonSCS(rng Range, s *SSBPlan) int {
-	switch {
-	case s.ScsCommonKHz != 0:
-		return s.ScsCommonKHz
-	case rng == FR2_1:
-		return 120
-	}
-	return s.SCSKHz
-}
-
 // coresetFR is the frequency range as package coreset0 names it.
 func coresetFR(rng Range) coreset0.FR {
 	if rng == FR1 {
@@ -278,7 +266,7 @@ func checkInitialAccess(fs *findings, rng Range, ia *InitialAccessPlan, sp *SSBP
 	}
 	fr := coresetFR(rng)
 	ssbKHz := res.SSB.Numerology.SCSKHz()
-	common := commonSCS(rng, sp)
+	common := res.SSB.ScsCommonKHz
 	cb, assumed := coresetBand(rng, res.Channel)
 	table, err := coreset0.SelectTable(ssbKHz, common, cb)
 	if err != nil {
@@ -288,8 +276,9 @@ func checkInitialAccess(fs *findings, rng Range, ia *InitialAccessPlan, sp *SSBP
 	if assumed != "" {
 		fs.add(Info, CodeInitialAccess, "", "carrier.band", "%s, CORESET#0 is read from TS 38.213 %s, the table for bands whose minimum channel bandwidth is 5 or 10 MHz; bands n79 and n104 use Tables 13-5 and 13-6, and shared spectrum Tables 13-1A and 13-4A.", assumed, table)
 	}
-	pos := coreset0.SSBPosition{FR: fr, CommonSCSkHz: common, OffsetToPointA: sp.OffsetToPointA, KSSB: sp.KSSB}
-	cfg, err := coreset0.Lookup(table, ia.ControlResourceSetZero, sp.KSSB)
+	kSSB := res.SSB.KSSB
+	pos := coreset0.SSBPosition{FR: fr, CommonSCSkHz: common, OffsetToPointA: res.SSB.OffsetToPointA, KSSB: kSSB}
+	cfg, err := coreset0.Lookup(table, ia.ControlResourceSetZero, kSSB)
 	if err != nil {
 		bad(iaField+".controlResourceSetZero", "%s", err)
 		return nil
@@ -330,7 +319,7 @@ func checkInitialAccess(fs *findings, rng Range, ia *InitialAccessPlan, sp *SSBP
 
 	// The MIB: every value below was range-checked above.
 	scc, _ := coreset0.SubCarrierSpacingCommonFor(fr, common)
-	low4, msb, _ := coreset0.SubcarrierOffsetBits(fr, sp.KSSB)
+	low4, msb, _ := coreset0.SubcarrierOffsetBits(fr, kSSB)
 	pdcch, _ := coreset0.PDCCHConfigSIB1(ia.ControlResourceSetZero, ia.SearchSpaceZero)
 	out.MIB = MIBFields{SubCarrierSpacingCommon: scc.String(), SSBSubcarrierOffset: int(low4),
 		DMRSTypeAPosition: dmrs.String(), PDCCHConfigSIB1: int(pdcch)}
@@ -424,7 +413,7 @@ func occasions(fs *findings, out *InitialAccess, table coreset0.Table, cfg cores
 		for start := 0; start < window; start += period {
 			frame, half := start/10, (start%10)/5
 			for _, i := range sent {
-				o, err := coreset0.Pattern23Occasion(table, out.CORESET0.Index, sp.KSSB, ss0, half, i)
+				o, err := coreset0.Pattern23Occasion(table, out.CORESET0.Index, s.KSSB, ss0, half, i)
 				if err != nil {
 					fs.add(Error, CodeInitialAccess, "", field, "%s", err)
 					out.Occasions = nil

@@ -56,7 +56,7 @@ func BenchmarkFindInitialAccess(b *testing.B) {
 		b.Run(name, func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {
-				if _, err := grid.FindInitialAccess(p); err != nil {
+				if _, err := grid.FindInitialAccess(p, ""); err != nil {
 					b.Fatal(err)
 				}
 			}

@@ -291,7 +291,7 @@ func TestInitialAccessPartitionAsInitialBWP(t *testing.T) {
 // the plan, and ranks CORESET#0 clear of the block and wide first.
 func TestFindInitialAccessRowsPass(t *testing.T) {
 	for _, plan := range []Plan{iaFR1(0, 0), iaFR2(120, 0, 0), iaFR2(60, 0, 0)} {
-		found, err := FindInitialAccess(plan)
+		found, err := FindInitialAccess(plan, "")
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -301,6 +301,9 @@ func TestFindInitialAccessRowsPass(t *testing.T) {
 		for k, o := range found.Options {
 			p := plan.Clone()
 			p.SSB.OffsetToPointA, p.SSB.KSSB = o.OffsetToPointA, o.KSSB
+			if o.GSCN != 0 {
+				p.SSB.GSCN = &o.GSCN
+			}
 			p.InitialAccess.ControlResourceSetZero, p.InitialAccess.SearchSpaceZero = o.ControlResourceSetZero, o.SearchSpaceZero
 			r := Compute(p)
 			if errs := iaFindings(r, Error); len(errs) > 0 || r.InitialAccess == nil {
@@ -308,7 +311,8 @@ func TestFindInitialAccessRowsPass(t *testing.T) {
 			}
 			if k > 0 {
 				prev := found.Options[k-1]
-				if (!prev.ClearOfSSB && o.ClearOfSSB) || (prev.ClearOfSSB == o.ClearOfSSB && prev.NRB < o.NRB) {
+				if (!prev.ClearOfSSB && o.ClearOfSSB) || (prev.ClearOfSSB == o.ClearOfSSB && prev.NRB < o.NRB) ||
+					(prev.ClearOfSSB == o.ClearOfSSB && prev.NRB == o.NRB && prev.SSBFromCentre > o.SSBFromCentre) {
 					t.Errorf("%s: row %d %+v ranked after %+v", plan.Name, k, o, prev)
 				}
 			}
@@ -317,7 +321,7 @@ func TestFindInitialAccessRowsPass(t *testing.T) {
 	// In the FR1 plan, 30 kHz slots 8 (block 3 with O = 2 ms: n0 = 4 + 3 +
 	// 1) fall in the uplink slot of the 5 ms DDDSU pattern, so index 2 of
 	// Table 13-11 is refused for every CORESET row.
-	found, _ := FindInitialAccess(iaFR1(0, 0))
+	found, _ := FindInitialAccess(iaFR1(0, 0), "")
 	for _, o := range found.Options {
 		if o.SearchSpaceZero == 2 {
 			t.Errorf("searchSpaceZero 2 listed: %+v", o)
@@ -332,7 +336,7 @@ func TestFindInitialAccessNoneAt5MHz30kHz(t *testing.T) {
 	p := Plan{Name: "narrow", Carrier: CarrierPlan{Range: "FR1", BandwidthMHz: 5},
 		SSB:        &SSBPlan{SCSKHz: 15, ScsCommonKHz: 30, OffsetToPointA: 0},
 		Partitions: []PartitionPlan{{Name: "all", SCSKHz: 30, SizePRB: 11}}}
-	found, err := FindInitialAccess(p)
+	found, err := FindInitialAccess(p, "")
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -10,9 +10,13 @@ import (
 	"gridloom/grid/coreset0"
 )
 
-// InitialAccessOption is one pdcch-ConfigSIB1 that passes every
-// initial-access check for an SS/PBCH block position.
+// InitialAccessOption is one SS/PBCH block position and pdcch-ConfigSIB1
+// that pass every initial-access check.
 type InitialAccessOption struct {
+	// GSCN is the block's synchronization raster point, 0 when the plan
+	// gives the carrier no frequency and the block stays where the plan
+	// puts it.
+	GSCN                   int `json:"gscn,omitempty"`
 	OffsetToPointA         int `json:"offsetToPointA"`
 	KSSB                   int `json:"kSsb"`
 	ControlResourceSetZero int `json:"controlResourceSetZero"`
@@ -35,25 +39,31 @@ type InitialAccessOption struct {
 
 // InitialAccessSearch is what FindInitialAccess found.
 type InitialAccessSearch struct {
-	Table        string                `json:"table"` // the CORESET#0 table, "13-4"
-	SSBSCSKHz    int                   `json:"ssbScsKHz"`
-	ScsCommonKHz int                   `json:"scsCommonKHz"`
-	Options      []InitialAccessOption `json:"options"`
+	Band         string `json:"band,omitempty"` // the band whose SS raster entries were searched
+	Table        string `json:"table"`          // the CORESET#0 table, "13-4"
+	SSBSCSKHz    int    `json:"ssbScsKHz"`
+	ScsCommonKHz int    `json:"scsCommonKHz"`
+	// Positions is how many SS/PBCH block positions were tried: the GSCNs
+	// where the block fits (see SSBPositions), or the plan's own one.
+	Positions int                   `json:"positions"`
+	Options   []InitialAccessOption `json:"options"`
 	// Why says, when Options is empty, why no combination fits.
 	Why string `json:"why,omitempty"`
 }
 
-// FindInitialAccess lists every controlResourceSetZero and searchSpaceZero
-// that passes the initial-access checks for the plan's SS/PBCH block
-// (position, spacing, subCarrierSpacingCommon), carrier, TDD pattern and
-// initial BWPs, best first: CORESET#0 clear of the block in frequency, then
-// the widest CORESET#0, then the block nearest the channel centre, then the
-// lowest indexes. The plan's own initialAccess values are ignored, its
+// FindInitialAccess lists every SS/PBCH block position, controlResourceSetZero
+// and searchSpaceZero that pass the initial-access checks for the plan's
+// carrier, block spacing, subCarrierSpacingCommon, TDD pattern and initial
+// BWPs. With the carrier's frequency known, the positions are the GSCNs
+// SSBPositions finds (in band, when not ""); without, the block stays where
+// the plan puts it. Best first: CORESET#0 clear of the block in frequency,
+// then the widest CORESET#0, then the block nearest the channel centre, then
+// the lowest numbers. The plan's own pdcch-ConfigSIB1 is ignored, its
 // dmrsTypeAPosition and initial BWPs kept.
-func FindInitialAccess(plan Plan) (InitialAccessSearch, error) {
+func FindInitialAccess(plan Plan, band string) (InitialAccessSearch, error) {
 	p := plan.withDefaults()
 	if p.SSB == nil {
-		return InitialAccessSearch{}, errors.New("the plan has no ssb block; CORESET#0 is placed from the SS/PBCH block, so add ssb (scsKHz, offsetToPointA, kSsb)")
+		return InitialAccessSearch{}, errors.New("the plan has no ssb block; CORESET#0 is placed from the SS/PBCH block, so add ssb (scsKHz, and gscn or offsetToPointA and kSsb)")
 	}
 	base := p.InitialAccess
 	p.InitialAccess = nil
@@ -65,22 +75,65 @@ func FindInitialAccess(plan Plan) (InitialAccessSearch, error) {
 	if rng == FR2_2 {
 		return InitialAccessSearch{}, errors.New("CORESET#0 in FR2-2 follows TS 38.213 Tables 13-10A, 13-12A and 13-15A, which gridloom does not carry yet")
 	}
-	common := commonSCS(rng, r.Plan.SSB)
+	common := r.SSB.ScsCommonKHz
 	cb, _ := coresetBand(rng, r.Channel)
 	table, err := coreset0.SelectTable(r.SSB.Numerology.SCSKHz(), common, cb)
 	if err != nil {
 		return InitialAccessSearch{}, err
 	}
 	out := InitialAccessSearch{Table: strings.TrimPrefix(table.String(), "Table "), SSBSCSKHz: r.SSB.Numerology.SCSKHz(), ScsCommonKHz: common}
-	out.Options, out.Why = optionsAt(rng, table, base, r.Plan.SSB, &r)
+	var reasons []string
+	seen := map[string]bool{}
+	try := func(r *Result, gscn int) {
+		opts, why := optionsAt(rng, table, base, p.SSB, r)
+		for i := range opts {
+			opts[i].GSCN = gscn
+		}
+		out.Options = append(out.Options, opts...)
+		for _, w := range why {
+			if k := strings.Map(noDigits, w); !seen[k] {
+				seen[k] = true
+				reasons = append(reasons, w)
+			}
+		}
+	}
+	if !r.Channel.Absolute {
+		out.Positions = 1
+		try(&r, 0)
+	} else {
+		search, err := SSBPositions(p, band)
+		if err != nil {
+			return InitialAccessSearch{}, err
+		}
+		out.Band = search.Band
+		out.Positions = len(search.Positions)
+		if len(search.Positions) == 0 {
+			out.Why = fmt.Sprintf("No GSCN puts the %d kHz SS/PBCH block within %s; widen the channel or name another band.", out.SSBSCSKHz, search.Within)
+			return out, nil
+		}
+		for _, pos := range search.Positions {
+			q := p.Clone()
+			g := pos.GSCN
+			q.SSB.GSCN, q.SSB.OffsetToPointA, q.SSB.KSSB = &g, pos.OffsetToPointA, pos.KSSB
+			rq := Compute(q)
+			if rq.SSB == nil {
+				continue
+			}
+			try(&rq, g)
+		}
+	}
+	rankOptions(out.Options)
+	if len(out.Options) == 0 {
+		out.Why = whyNone(table, &r, reasons)
+	}
 	return out, nil
 }
 
-// optionsAt tries every pdcch-ConfigSIB1 for one block position.
-func optionsAt(rng Range, table coreset0.Table, base *InitialAccessPlan, sp *SSBPlan, r *Result) ([]InitialAccessOption, string) {
+// optionsAt tries every pdcch-ConfigSIB1 for the block position of r and
+// returns what passes and, one of each kind, why the rest fail.
+func optionsAt(rng Range, table coreset0.Table, base *InitialAccessPlan, sp *SSBPlan, r *Result) ([]InitialAccessOption, []string) {
 	var opts []InitialAccessOption
-	reasons := map[string]bool{} // by message without its numbers: one of each kind
-	var order []string
+	var why []string
 	ssbCentre := (r.SSB.Low + r.SSB.High) / 2
 	for cs0 := range 16 {
 		if table.Rows()[cs0].Reserved() {
@@ -95,27 +148,23 @@ func optionsAt(rng Range, table coreset0.Table, base *InitialAccessPlan, sp *SSB
 			var fs findings
 			got := checkInitialAccess(&fs, rng, ia, sp, r, r.TDD)
 			if i := slices.IndexFunc(fs, func(f Finding) bool { return f.Severity == Error }); i >= 0 || got == nil {
-				if kind := strings.Map(noDigits, fs[min(i, len(fs)-1)].Message); i >= 0 && !reasons[kind] {
-					reasons[kind] = true
-					order = append(order, fs[i].Message)
+				if i < 0 {
+					break
 				}
-				if i < 0 || fs[i].Field != iaField+".searchSpaceZero" {
+				why = append(why, fs[i].Message)
+				if fs[i].Field != iaField+".searchSpaceZero" {
 					break // CORESET#0 itself does not fit: no searchSpaceZero helps
 				}
 				continue
 			}
 			c := got.CORESET0
-			opts = append(opts, InitialAccessOption{OffsetToPointA: sp.OffsetToPointA, KSSB: sp.KSSB,
+			opts = append(opts, InitialAccessOption{OffsetToPointA: r.SSB.OffsetToPointA, KSSB: r.SSB.KSSB,
 				ControlResourceSetZero: cs0, SearchSpaceZero: ss0, PDCCHConfigSIB1: got.MIB.PDCCHConfigSIB1,
 				Table: c.Table, Pattern: c.Pattern, NRB: c.NRB, Symbols: c.Symbols, StartCRB: c.StartCRB, Low: c.Low, High: c.High,
 				ClearOfSSB: min(c.High, r.SSB.High) <= max(c.Low, r.SSB.Low), SSBFromCentre: absHz(ssbCentre - r.Channel.Center)})
 		}
 	}
-	rankOptions(opts)
-	if len(opts) > 0 {
-		return opts, ""
-	}
-	return nil, whyNone(table, r, order)
+	return opts, why
 }
 
 // rankOptions sorts the options as an engineer prefers them.
@@ -128,7 +177,7 @@ func rankOptions(opts []InitialAccessOption) {
 			return 1
 		}
 		return cmp.Or(cmp.Compare(b.NRB, a.NRB), cmp.Compare(a.SSBFromCentre, b.SSBFromCentre),
-			cmp.Compare(a.OffsetToPointA, b.OffsetToPointA), cmp.Compare(a.KSSB, b.KSSB),
+			cmp.Compare(a.GSCN, b.GSCN), cmp.Compare(a.OffsetToPointA, b.OffsetToPointA), cmp.Compare(a.KSSB, b.KSSB),
 			cmp.Compare(a.ControlResourceSetZero, b.ControlResourceSetZero), cmp.Compare(a.SearchSpaceZero, b.SearchSpaceZero))
 	})
 }

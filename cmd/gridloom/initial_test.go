@@ -31,18 +31,26 @@ func TestRenderJSONGoldenInitialAccess(t *testing.T) {
 				Occasions []map[string]any `json:"occasions"`
 			} `json:"searchSpace0"`
 			MIB struct {
-				PDCCHConfigSIB1 int `json:"pdcchConfigSIB1"`
+				SSBSubcarrierOffset int `json:"ssbSubcarrierOffset"`
+				KSSBMsb             int `json:"kSsbMsb"`
+				PDCCHConfigSIB1     int `json:"pdcchConfigSIB1"`
 			} `json:"mib"`
 		} `json:"initialAccess"`
 	}
 	if err := json.Unmarshal([]byte(out), &doc); err != nil {
 		t.Fatal(err)
 	}
-	// Table 13-4 row 2: offset 2 below the 30 kHz CRB 10800/360 = 30 that
-	// holds the block's subcarrier 0; edge 28·360 − 15 kHz (TS 38.211 4.4.4.3).
+	// GSCN 8016 is SS_REF 3000 MHz + (8016 − 7499)·1.44 MHz = 3744.48 MHz
+	// (TS 38.101-1 Table 5.4.3.1-1), 13920 kHz above point A (3730.56 MHz,
+	// where the channel puts it). SS_REF is subcarrier 120 of the block
+	// (TS 38.101-1 5.4.3.1), so subcarrier 0 is 3600 kHz lower, at 10320 kHz
+	// = 56·180 + 16·15: offsetToPointA 56 and k_SSB 16, in the 30 kHz CRB
+	// ⌊10320/360⌋ = 28. Table 13-4 row 2 starts CORESET#0 2 CRBs lower,
+	// at CRB 26, edge 26·360 − 15 = 9345 kHz (TS 38.211 4.4.4.3). k_SSB 16 is
+	// ssb-SubcarrierOffset 0 with the PBCH bit ā_{A+5} = 1 (TS 38.212 7.1.1).
 	ia := doc.InitialAccess
-	if ia.CORESET0.Table != "13-4" || ia.CORESET0.StartCRB != 28 || ia.CORESET0.LowKHz != 10065 ||
-		len(ia.SearchSpace0.Occasions) != 8 || ia.MIB.PDCCHConfigSIB1 != 0x20 {
+	if ia.CORESET0.Table != "13-4" || ia.CORESET0.StartCRB != 26 || ia.CORESET0.LowKHz != 9345 ||
+		len(ia.SearchSpace0.Occasions) != 8 || ia.MIB.PDCCHConfigSIB1 != 0x20 || ia.MIB.SSBSubcarrierOffset != 0 || ia.MIB.KSSBMsb != 1 {
 		t.Errorf("initialAccess %+v", ia)
 	}
 }
@@ -56,6 +64,7 @@ func TestInitialCommandRowsApply(t *testing.T) {
 	}
 	var doc struct {
 		Options []struct {
+			GSCN                   int `json:"gscn"`
 			OffsetToPointA         int `json:"offsetToPointA"`
 			KSSB                   int `json:"kSsb"`
 			ControlResourceSetZero int `json:"controlResourceSetZero"`
@@ -78,7 +87,7 @@ func TestInitialCommandRowsApply(t *testing.T) {
 	}
 	for _, o := range doc.Options {
 		p := base.Clone()
-		p.SSB.OffsetToPointA, p.SSB.KSSB = o.OffsetToPointA, o.KSSB
+		p.SSB.GSCN, p.SSB.OffsetToPointA, p.SSB.KSSB = &o.GSCN, o.OffsetToPointA, o.KSSB
 		p.InitialAccess.ControlResourceSetZero, p.InitialAccess.SearchSpaceZero = o.ControlResourceSetZero, o.SearchSpaceZero
 		for _, f := range grid.Compute(p).Findings {
 			if f.Code == grid.CodeInitialAccess && f.Severity == grid.Error {
@@ -96,7 +105,7 @@ func TestInitialCommandRowsApply(t *testing.T) {
 // exits 1; a plan without an ssb block is bad input.
 func TestInitialCommandNone(t *testing.T) {
 	out, _, code := runCLI(t, "", "initial", "../../testdata/initial/narrow.yaml")
-	if code != 1 || !strings.Contains(out, "0 pdcch-ConfigSIB1 values") || !strings.Contains(out, "24 RBs of 30 kHz") {
+	if code != 1 || !strings.Contains(out, "0 combinations") || !strings.Contains(out, "24 RBs of 30 kHz") {
 		t.Errorf("exit %d:\n%s", code, out)
 	}
 	plan := filepath.Join(t.TempDir(), "plan.yaml")
