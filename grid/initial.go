@@ -76,8 +76,8 @@ type InitialAccess struct {
 	CORESET0 CORESET0
 	// SearchSpaceZero is the Type0-PDCCH row the occasions come from.
 	SearchSpaceZero int
-	// OccasionTable names the table the occasions were read from
-	// ("Table 13-11" … "Table 13-15").
+	// OccasionTable names the table of TS 38.213 the occasions were read
+	// from ("13-11" … "13-15").
 	OccasionTable string
 	// WindowMs is how far the occasions are listed: one SS/PBCH period, and
 	// at least 20 ms, since pattern 1 repeats every two frames.
@@ -392,9 +392,9 @@ func occasions(fs *findings, out *InitialAccess, table coreset0.Table, cfg cores
 	out.Occasions = make([]Type0Occasion, 0, 2*len(sent)*window/period)
 	field := iaField + ".searchSpaceZero"
 	if cfg.Pattern == 1 {
-		out.OccasionTable = "Table 13-11"
+		out.OccasionTable = "13-11"
 		if fr == coreset0.FR2 {
-			out.OccasionTable = "Table 13-12"
+			out.OccasionTable = "13-12"
 		}
 		for _, i := range sent {
 			o, err := coreset0.Pattern1Occasion(fr, ss0, mu, cfg.NumSymbols, i)
@@ -409,7 +409,8 @@ func occasions(fs *findings, out *InitialAccess, table coreset0.Table, cfg cores
 			}
 		}
 	} else {
-		_, out.OccasionTable, _ = coreset0.Pattern23Table(table)
+		_, name, _ := coreset0.Pattern23Table(table)
+		out.OccasionTable = strings.TrimPrefix(name, "Table ")
 		for start := 0; start < window; start += period {
 			frame, half := start/10, (start%10)/5
 			for _, i := range sent {

@@ -70,7 +70,7 @@ func TestInitialAccessFR1WorkedExample(t *testing.T) {
 	// TS 38.213 Table 13-11 index 0: O = 0, M = 1, first symbol 0, so block
 	// i is monitored in slots i and i + 1 of even frames (μ = 1, 20 slots a
 	// frame). Blocks 0 to 3 are sent: 8 occasions in the 20 ms window.
-	if ia.OccasionTable != "Table 13-11" || ia.WindowMs != 20 || len(ia.Occasions) != 8 {
+	if ia.OccasionTable != "13-11" || ia.WindowMs != 20 || len(ia.Occasions) != 8 {
 		t.Fatalf("occasions %s %d ms %d", ia.OccasionTable, ia.WindowMs, len(ia.Occasions))
 	}
 	// A 30 kHz slot is 0.5 ms = 983040 Tc; its first symbol is
@@ -145,7 +145,7 @@ func TestInitialAccessFR2Pattern3KSSBShift(t *testing.T) {
 		// 4.1): slots 0, 0, 1, 1 of 14 symbols.
 		want := []struct{ slot, first int }{{0, 4}, {0, 8}, {1, 2}, {1, 6}}
 		ia := r.InitialAccess
-		if ia.OccasionTable != "Table 13-15" || len(ia.Occasions) != 4 {
+		if ia.OccasionTable != "13-15" || len(ia.Occasions) != 4 {
 			t.Fatalf("k_SSB %d: %s, %d occasions", c.k, ia.OccasionTable, len(ia.Occasions))
 		}
 		for i, w := range want {
@@ -365,6 +365,57 @@ func TestInitialAccessTableFromBand(t *testing.T) {
 		r := Compute(p)
 		if r.InitialAccess == nil || r.InitialAccess.CORESET0.Table != c.table {
 			t.Errorf("%s: %+v, want Table %s; findings %v", c.band, r.InitialAccess, c.table, iaFindings(r, Error))
+		}
+	}
+}
+
+// Every CORESET#0 table is reached through Compute with the spacings and
+// band TS 38.213 13 names for it, and row 0 of each, read by hand from the
+// spec (pattern 1, N_RB, symbols, offset), lands offset CRBs below the
+// reference CRB: FR1 offsetToPointA 40 puts the block's subcarrier 0 at
+// 40·180 = 7200 kHz, CRB 40 of 15 kHz or 20 of 30 kHz; FR2-1
+// offsetToPointA 10 puts it at 10·720 = 7200 kHz, CRB 10 of 60 kHz or 5 of
+// 120 kHz.
+func TestInitialAccessEveryTable(t *testing.T) {
+	for _, c := range []struct {
+		rng, band                    string
+		ssb, common                  int
+		table                        string
+		nrb, symbols, offset, refCRB int
+	}{
+		{"FR1", "", 15, 15, "13-1", 24, 2, 0, 40},
+		{"FR1", "", 15, 30, "13-2", 24, 2, 5, 20},
+		{"FR1", "", 30, 15, "13-3", 48, 1, 2, 40},
+		{"FR1", "", 30, 30, "13-4", 24, 2, 0, 20},
+		{"FR1", "n79", 30, 15, "13-5", 48, 1, 4, 40},
+		{"FR1", "n79", 30, 30, "13-6", 24, 2, 0, 20},
+		{"FR1", "n46", 15, 15, "13-1A", 96, 1, 10, 40},
+		{"FR1", "n46", 30, 30, "13-4A", 48, 1, 0, 20},
+		{"FR2-1", "", 120, 60, "13-7", 48, 1, 0, 10},
+		{"FR2-1", "", 120, 120, "13-8", 24, 2, 0, 5},
+		{"FR2-1", "", 240, 60, "13-9", 96, 1, 0, 10},
+		{"FR2-1", "", 240, 120, "13-10", 48, 1, 0, 5},
+	} {
+		bw, offset, size := 40, 40, map[int]int{15: 216, 30: 106}[c.common] // N_RB, TS 38.101-1 Table 5.3.2-1
+		if c.rng == "FR2-1" {
+			bw, offset, size = 100, 10, map[int]int{60: 132, 120: 66}[c.common] // TS 38.101-2 Table 5.3.2-1
+		}
+		p := Plan{Name: c.table, Carrier: CarrierPlan{Range: c.rng, Band: c.band, BandwidthMHz: bw},
+			SSB:           &SSBPlan{SCSKHz: c.ssb, ScsCommonKHz: c.common, OffsetToPointA: offset},
+			Partitions:    []PartitionPlan{{Name: "all", SCSKHz: c.common, SizePRB: size}},
+			InitialAccess: &InitialAccessPlan{}}
+		r := Compute(p)
+		if r.InitialAccess == nil {
+			t.Errorf("Table %s: no initial access: %v", c.table, r.Findings)
+			continue
+		}
+		cs := r.InitialAccess.CORESET0
+		if cs.Table != c.table || cs.Pattern != 1 || cs.NRB != c.nrb || cs.Symbols != c.symbols || cs.OffsetRB != c.offset ||
+			cs.ReferenceCRB != c.refCRB || cs.StartCRB != c.refCRB-c.offset {
+			t.Errorf("Table %s: got %+v, want N_RB %d, %d symbols, offset %d from CRB %d", c.table, cs, c.nrb, c.symbols, c.offset, c.refCRB)
+		}
+		for _, f := range iaFindings(r, Error) {
+			t.Errorf("Table %s: %s", c.table, f)
 		}
 	}
 }
