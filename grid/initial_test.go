@@ -419,3 +419,43 @@ func TestInitialAccessEveryTable(t *testing.T) {
 		}
 	}
 }
+
+// Over every index (and a step beyond), both FR1 and FR2-1 block spacings
+// and every SS/PBCH period, Compute either places CORESET#0 or says why
+// with an error or info finding.
+func TestInitialAccessAlwaysExplained(t *testing.T) {
+	plans := []Plan{}
+	for _, period := range SSBPeriodsMs {
+		for _, ssb := range []int{15, 30} {
+			p := iaFR1(0, 0)
+			p.SSB.SCSKHz, p.SSB.PeriodMs = ssb, period
+			plans = append(plans, p)
+		}
+		for _, ssb := range []int{120, 240} {
+			p := iaFR2(120, 0, 0)
+			p.SSB.SCSKHz, p.SSB.PeriodMs, p.SSB.Bitmap = ssb, period, ""
+			plans = append(plans, p)
+		}
+	}
+	for _, base := range plans {
+		for cs0 := -1; cs0 <= 16; cs0++ {
+			for _, ss0 := range []int{-1, 0, 1, 5, 10, 13, 14, 15, 16} {
+				p := base.Clone()
+				p.InitialAccess.ControlResourceSetZero, p.InitialAccess.SearchSpaceZero = cs0, ss0
+				r := Compute(p)
+				explained := false // an error in initialAccess or ssb says why
+				for _, f := range r.Findings {
+					if f.Severity == Error && (f.Code == CodeInitialAccess || f.Code == CodeSSB) {
+						explained = true
+					}
+				}
+				if r.InitialAccess == nil && !explained {
+					t.Errorf("%s ssb %d kHz, period %d, %d/%d: no initial access and no finding why: %v", base.Carrier.Range, p.SSB.SCSKHz, p.SSB.PeriodMs, cs0, ss0, r.Findings)
+				}
+				if ia := r.InitialAccess; ia != nil && len(ia.Occasions) == 0 && len(iaFindings(r, Error)) == 0 {
+					t.Errorf("%s ssb %d kHz, period %d, %d/%d: no occasions and no error", base.Carrier.Range, p.SSB.SCSKHz, p.SSB.PeriodMs, cs0, ss0)
+				}
+			}
+		}
+	}
+}
