@@ -646,3 +646,28 @@ func checkBWPInCarrier(fs *findings, f, what string, b InitialBWP, res *Result) 
 			what, b.StartCRB, end-1, b.SCSKHz, b.SCSKHz, c.OffsetToCarrier, cEnd-1)
 	}
 }
+
+// OccasionGroup is a run of Type0-PDCCH occasions that share their symbols:
+// the blocks whose UEs monitor the same CORESET#0 symbols. A figure draws
+// one outline per group rather than one per occasion or resource element.
+type OccasionGroup struct {
+	Slot, FirstSymbol, Symbols int
+	Start, End                 Tc
+	SSBIndexes                 []int // ascending
+}
+
+// OccasionGroups merges the occasions that cover the same symbols, in time
+// order. With M = 1/2 or with n0 + 1 of one block being n0 of the next,
+// several blocks share a slot's CORESET#0 (TS 38.213 13).
+func (ia *InitialAccess) OccasionGroups() []OccasionGroup {
+	var out []OccasionGroup
+	for _, o := range ia.Occasions { // sorted by start, then block index
+		if n := len(out); n > 0 && out[n-1].Start == o.Start && out[n-1].End == o.End {
+			out[n-1].SSBIndexes = append(out[n-1].SSBIndexes, o.SSBIndex)
+			continue
+		}
+		out = append(out, OccasionGroup{Slot: o.Slot, FirstSymbol: o.FirstSymbol, Symbols: o.Symbols,
+			Start: o.Start, End: o.End, SSBIndexes: []int{o.SSBIndex}})
+	}
+	return out
+}

@@ -1,6 +1,7 @@
 package grid
 
 import (
+	"slices"
 	"strings"
 	"testing"
 )
@@ -456,6 +457,26 @@ func TestInitialAccessAlwaysExplained(t *testing.T) {
 					t.Errorf("%s ssb %d kHz, period %d, %d/%d: no occasions and no error", base.Carrier.Range, p.SSB.SCSKHz, p.SSB.PeriodMs, cs0, ss0)
 				}
 			}
+		}
+	}
+}
+
+// Table 13-11 index 0 (M = 1) monitors block i in slots i and i + 1, so
+// slot k > 0 holds blocks k − 1 and k: blocks 0 to 3 make 5 groups, slots
+// 0 to 4, of 1, 2, 2, 2 and 1 blocks.
+func TestOccasionGroups(t *testing.T) {
+	r := Compute(iaFR1(2, 0))
+	if r.InitialAccess == nil {
+		t.Fatal(r.Findings)
+	}
+	g := r.InitialAccess.OccasionGroups()
+	want := [][]int{{0}, {0, 1}, {1, 2}, {2, 3}, {3}}
+	if len(g) != len(want) {
+		t.Fatalf("%d groups %+v, want %d", len(g), g, len(want))
+	}
+	for k, w := range want {
+		if g[k].Slot != k || !slices.Equal(g[k].SSBIndexes, w) {
+			t.Errorf("group %d %+v, want slot %d blocks %v", k, g[k], k, w)
 		}
 	}
 }
