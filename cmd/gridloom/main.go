@@ -5,9 +5,9 @@
 //	gridloom [serve] [-addr 127.0.0.1:8080] [-plan FILE]       the web app
 //	gridloom render [-format svg|png|json|csv] [-o FILE] PLAN  draw or export a plan
 //	gridloom check [-format text|json] [-strict] PLAN          list the findings
+//	gridloom ssb [-band nBAND] [-format table|json] PLAN       where the SS/PBCH block fits on the sync raster
+//	gridloom initial [-band nBAND] [-format table|json] PLAN   the GSCNs and pdcch-ConfigSIB1 values that fit
 //	gridloom version                                           the version and the 3GPP release
-//	gridloom ssb [-band nBAND] [-format table|json] PLAN      where the SS/PBCH block fits on the sync raster
-//	gridloom initial [-format table|json] PLAN                 the pdcch-ConfigSIB1 values that fit
 //
 // PLAN is a JSON or YAML plan file, or "-" for standard input. Ctrl-C or
 // SIGTERM ends render and check at once and lets the server drain; a
@@ -100,9 +100,9 @@ Usage:
   gridloom check [flags] PLAN       list the plan's findings: -format text or json, -strict
   gridloom ssb [flags] PLAN         list the GSCNs where the SS/PBCH block fits, with
                                     offsetToPointA and k_SSB: -band, -format table or json
+  gridloom initial [flags] PLAN     list the GSCNs, controlResourceSetZero and searchSpaceZero
+                                    that fit CORESET#0: -band, -format table or json
   gridloom version                  print the version and the 3GPP release it follows
-  gridloom initial [flags] PLAN     list the controlResourceSetZero and searchSpaceZero
-                                    that fit the SS/PBCH block: -format table or json
   gridloom help                     print this text
 
 PLAN is a JSON or YAML plan file, or - for standard input. Flags may come
