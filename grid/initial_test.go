@@ -480,3 +480,24 @@ func TestOccasionGroups(t *testing.T) {
 		}
 	}
 }
+
+// With the carrier's frequency known the finder chooses the block's
+// position itself: a GSCN the plan gives that no offsets reach does not
+// stop it, and its rows are the same as for a plan without one.
+func TestFindInitialAccessIgnoresThePlansPosition(t *testing.T) {
+	plain := iaFR1(0, 0)
+	want, err := FindInitialAccess(plain, "")
+	if err != nil || len(want.Options) == 0 {
+		t.Fatalf("%v, %d rows", err, len(want.Options))
+	}
+	bad := plain.Clone()
+	g := 2 // N = 1, M = 1: SS_REF 1200 + 50 kHz (TS 38.101-1 Table 5.4.3.1-1), far below the carrier
+	bad.SSB.GSCN = &g
+	if r := Compute(bad); r.SSB != nil {
+		t.Fatalf("GSCN 2 accepted: %v", r.Findings)
+	}
+	got, err := FindInitialAccess(bad, "")
+	if err != nil || len(got.Options) != len(want.Options) || got.Positions != want.Positions {
+		t.Errorf("with a wrong GSCN: %v, %d rows at %d positions; without: %d at %d", err, len(got.Options), got.Positions, len(want.Options), want.Positions)
+	}
+}

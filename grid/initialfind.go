@@ -68,6 +68,12 @@ func FindInitialAccess(plan Plan, band string) (InitialAccessSearch, error) {
 	base := p.InitialAccess
 	p.InitialAccess = nil
 	r := Compute(p)
+	if r.Channel.Absolute && (p.SSB.GSCN != nil || p.SSB.OffsetToPointA != 0 || p.SSB.KSSB != 0) {
+		// The finder chooses the block's position on the raster: a position
+		// the plan gives, right or wrong, must not stop the search.
+		p.SSB.GSCN, p.SSB.OffsetToPointA, p.SSB.KSSB = nil, 0, 0
+		r = Compute(p)
+	}
 	if r.SSB == nil {
 		return InitialAccessSearch{}, fmt.Errorf("the plan's ssb block has errors: %s", firstErrors(r.Findings))
 	}
