@@ -46,9 +46,10 @@ type InitialBWPPlan struct {
 	StartCRB             *int   `json:"startCrb,omitempty" yaml:"startCrb,omitempty"`
 	SizePRB              int    `json:"sizePrb,omitempty" yaml:"sizePrb,omitempty"`
 	LocationAndBandwidth *int   `json:"locationAndBandwidth,omitempty" yaml:"locationAndBandwidth,omitempty"`
-	// SubcarrierSpacingKHz is the BWP's subcarrierSpacing; 0 means
-	// subCarrierSpacingCommon, which the initial downlink BWP must have.
-	SubcarrierSpacingKHz int `json:"subcarrierSpacingKHz,omitempty" yaml:"subcarrierSpacingKHz,omitempty"`
+	// SubcarrierSpacingKHz is the BWP's subcarrierSpacing in kHz (the key
+	// keeps TS 38.331's name); 0 means subCarrierSpacingCommon, which the
+	// initial downlink BWP must have.
+	SubcarrierSpacingKHz int `json:"subcarrierSpacing,omitempty" yaml:"subcarrierSpacing,omitempty"`
 	// CyclicPrefix is "normal" or "extended"; "" means normal.
 	CyclicPrefix string `json:"cyclicPrefix,omitempty" yaml:"cyclicPrefix,omitempty"`
 }
@@ -558,11 +559,11 @@ func resolveBWP(fs *findings, f string, b *InitialBWPPlan, common int, downlink 
 		scs = common
 	}
 	if scsMust != 0 && scs != scsMust {
-		bad(f+".subcarrierSpacingKHz", "%s.subcarrierSpacingKHz is %d, but the initial downlink BWP has subCarrierSpacingCommon, %d kHz (TS 38.331 BWP subcarrierSpacing); leave it out or set it to %d.", f, scs, scsMust, scsMust)
+		bad(f+".subcarrierSpacing", "%s.subcarrierSpacing is %d kHz, but the initial downlink BWP has subCarrierSpacingCommon, %d kHz (TS 38.331 BWP subcarrierSpacing); leave it out or set it to %d.", f, scs, scsMust, scsMust)
 	}
 	mu, muOK := MuForSCS(scs)
 	if !muOK || !slices.Contains(res.Channel.Range.DataSCS(), scs) {
-		bad(f+".subcarrierSpacingKHz", "%s.subcarrierSpacingKHz %d is not a data subcarrier spacing of %s; use %s kHz.", f, scs, res.Channel.Range, JoinInts(res.Channel.Range.DataSCS()))
+		bad(f+".subcarrierSpacing", "%s.subcarrierSpacing %d kHz is not a data subcarrier spacing of %s; use %s kHz.", f, scs, res.Channel.Range, JoinInts(res.Channel.Range.DataSCS()))
 		return InitialBWP{}, false
 	}
 	cp, cpOK := parseFold(b.CyclicPrefix, []string{"normal", "extended"}, ParseCP)
@@ -579,7 +580,7 @@ func resolveBWP(fs *findings, f string, b *InitialBWPPlan, common int, downlink 
 	b.CyclicPrefix = cp.String()
 	c, haveCarrier := res.Carrier(scs)
 	if !haveCarrier {
-		bad(f+".subcarrierSpacingKHz", "%s uses %d kHz, but no partition uses %d kHz, so the plan has no %d kHz carrier to hold it; add a partition at %d kHz.", f, scs, scs, scs, scs)
+		bad(f+".subcarrierSpacing", "%s uses %d kHz, but no partition uses %d kHz, so the plan has no %d kHz carrier to hold it; add a partition at %d kHz.", f, scs, scs, scs, scs)
 		return InitialBWP{}, false
 	}
 	start, size := c.OffsetToCarrier, b.SizePRB

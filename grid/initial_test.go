@@ -230,7 +230,7 @@ func TestInitialAccessFindings(t *testing.T) {
 		}, Error, "initialAccess.initialDownlinkBWP.partition", "uses 15 kHz"},
 		{"spacing not common", func(p *Plan) {
 			p.InitialAccess.InitialDownlinkBWP = &InitialBWPPlan{SubcarrierSpacingKHz: 15, StartCRB: i(40), SizePRB: 60}
-		}, Error, "initialAccess.initialDownlinkBWP.subcarrierSpacingKHz", "subCarrierSpacingCommon, 30 kHz"},
+		}, Error, "initialAccess.initialDownlinkBWP.subcarrierSpacing", "subCarrierSpacingCommon, 30 kHz"},
 		{"no carrier at the common spacing", func(p *Plan) {
 			p.Partitions = p.Partitions[:1]
 			p.Partitions[0].SizePRB = 200

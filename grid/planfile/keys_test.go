@@ -97,7 +97,7 @@ func TestKeysFromTags(t *testing.T) {
 		{keys.ssb, "scsKHz case bitmap offsetToPointA kSsb scsCommonKHz periodMs gscn"},
 		{keys.environment, "delaySpreadNs delayProfile speedKmh carrierMHz"},
 		{keys.initialAccess, "controlResourceSetZero searchSpaceZero dmrsTypeAPosition initialDownlinkBWP initialUplinkBWP"},
-		{keys.initialBWP, "partition startCrb sizePrb locationAndBandwidth subcarrierSpacingKHz cyclicPrefix"},
+		{keys.initialBWP, "partition startCrb sizePrb locationAndBandwidth subcarrierSpacing cyclicPrefix"},
 	} {
 		if got := strings.Join(c.got, " "); got != c.want {
 			t.Errorf("keys %q, want %q", got, c.want)

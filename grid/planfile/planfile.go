@@ -815,7 +815,7 @@ func (w *walker) initialBWP(v any, f string) *grid.InitialBWPPlan {
 		StartCRB:             w.optInt(m["startCrb"], f+".startCrb"),
 		SizePRB:              w.intOr0(m["sizePrb"], f+".sizePrb"),
 		LocationAndBandwidth: w.optInt(m["locationAndBandwidth"], f+".locationAndBandwidth"),
-		SubcarrierSpacingKHz: w.intOr0(m["subcarrierSpacingKHz"], f+".subcarrierSpacingKHz"),
+		SubcarrierSpacingKHz: w.intOr0(m["subcarrierSpacing"], f+".subcarrierSpacing"),
 		CyclicPrefix:         w.str(m["cyclicPrefix"], f+".cyclicPrefix"),
 	}
 }
