@@ -310,10 +310,15 @@ func TestFindInitialAccessRowsPass(t *testing.T) {
 			if errs := iaFindings(r, Error); len(errs) > 0 || r.InitialAccess == nil {
 				t.Errorf("%s row %d %+v: %v", plan.Name, k, o, errs)
 			}
+			if w := len(iaFindings(r, Warning)); w != o.Warnings {
+				t.Errorf("%s row %d: %d warnings applied, %d listed", plan.Name, k, w, o.Warnings)
+			}
 			if k > 0 {
 				prev := found.Options[k-1]
-				if (!prev.ClearOfSSB && o.ClearOfSSB) || (prev.ClearOfSSB == o.ClearOfSSB && prev.NRB < o.NRB) ||
-					(prev.ClearOfSSB == o.ClearOfSSB && prev.NRB == o.NRB && prev.SSBFromCentre > o.SSBFromCentre) {
+				sameClear, sameWarn := prev.ClearOfSSB == o.ClearOfSSB, prev.Warnings == o.Warnings
+				if (!prev.ClearOfSSB && o.ClearOfSSB) || (sameClear && prev.Warnings > o.Warnings) ||
+					(sameClear && sameWarn && prev.NRB < o.NRB) ||
+					(sameClear && sameWarn && prev.NRB == o.NRB && prev.SSBFromCentre > o.SSBFromCentre) {
 					t.Errorf("%s: row %d %+v ranked after %+v", plan.Name, k, o, prev)
 				}
 			}

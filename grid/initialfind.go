@@ -33,6 +33,9 @@ type InitialAccessOption struct {
 	// ClearOfSSB reports that CORESET#0 shares no spectrum with the
 	// SS/PBCH block, so neither has to be rate-matched around the other.
 	ClearOfSSB bool `json:"clearOfSsb"`
+	// Warnings counts the initial-access warnings the row draws (pattern 1
+	// occasions on the symbols of a block they overlap in frequency).
+	Warnings int `json:"warnings"`
 	// SSBFromCentre is how far the block's centre lies from the channel's.
 	SSBFromCentre Hz `json:"ssbFromCentreHz"`
 }
@@ -57,7 +60,7 @@ type InitialAccessSearch struct {
 // BWPs. With the carrier's frequency known, the positions are the GSCNs
 // SSBPositions finds (in band, when not ""); without, the block stays where
 // the plan puts it. Best first: CORESET#0 clear of the block in frequency,
-// then the widest CORESET#0, then the block nearest the channel centre, then
+// then rows without warnings, then the widest CORESET#0, then the block nearest the channel centre, then
 // the lowest numbers. The plan's own pdcch-ConfigSIB1 is ignored, its
 // dmrsTypeAPosition and initial BWPs kept.
 func FindInitialAccess(plan Plan, band string) (InitialAccessSearch, error) {
@@ -167,7 +170,8 @@ func optionsAt(rng Range, table coreset0.Table, base *InitialAccessPlan, sp *SSB
 			opts = append(opts, InitialAccessOption{OffsetToPointA: r.SSB.OffsetToPointA, KSSB: r.SSB.KSSB,
 				ControlResourceSetZero: cs0, SearchSpaceZero: ss0, PDCCHConfigSIB1: got.MIB.PDCCHConfigSIB1,
 				Table: c.Table, Pattern: c.Pattern, NRB: c.NRB, Symbols: c.Symbols, StartCRB: c.StartCRB, Low: c.Low, High: c.High,
-				ClearOfSSB: min(c.High, r.SSB.High) <= max(c.Low, r.SSB.Low), SSBFromCentre: absHz(ssbCentre - r.Channel.Center)})
+				ClearOfSSB: min(c.High, r.SSB.High) <= max(c.Low, r.SSB.Low), SSBFromCentre: absHz(ssbCentre - r.Channel.Center),
+				Warnings: countSeverity(fs, Warning)})
 		}
 	}
 	return opts, why
@@ -182,7 +186,7 @@ func rankOptions(opts []InitialAccessOption) {
 			}
 			return 1
 		}
-		return cmp.Or(cmp.Compare(b.NRB, a.NRB), cmp.Compare(a.SSBFromCentre, b.SSBFromCentre),
+		return cmp.Or(cmp.Compare(a.Warnings, b.Warnings), cmp.Compare(b.NRB, a.NRB), cmp.Compare(a.SSBFromCentre, b.SSBFromCentre),
 			cmp.Compare(a.GSCN, b.GSCN), cmp.Compare(a.OffsetToPointA, b.OffsetToPointA), cmp.Compare(a.KSSB, b.KSSB),
 			cmp.Compare(a.ControlResourceSetZero, b.ControlResourceSetZero), cmp.Compare(a.SearchSpaceZero, b.SearchSpaceZero))
 	})
@@ -211,6 +215,16 @@ func whyNone(table coreset0.Table, r *Result, reasons []string) string {
 		reasons = append(reasons[:3:3], fmt.Sprintf("and %d more", len(reasons)-3))
 	}
 	return "No row of " + table.String() + " passes the checks: " + strings.Join(reasons, " ")
+}
+
+func countSeverity(fs []Finding, sev Severity) int {
+	n := 0
+	for _, f := range fs {
+		if f.Severity == sev {
+			n++
+		}
+	}
+	return n
 }
 
 func noDigits(r rune) rune {

@@ -38,6 +38,7 @@ type initialOptionJSON struct {
 	LowKHz                 float64  `json:"lowKHz"`
 	HighKHz                float64  `json:"highKHz"`
 	ClearOfSSB             bool     `json:"clearOfSsb"`
+	Warnings               int      `json:"warnings"`
 	SSBFromCentreKHz       float64  `json:"ssbFromCentreKHz"`
 	LowMHz                 *float64 `json:"lowMHz,omitempty"`
 	HighMHz                *float64 `json:"highMHz,omitempty"`
@@ -79,7 +80,7 @@ func runInitial(ctx context.Context, args []string, stdin io.Reader, stdout, std
 		for _, o := range found.Options {
 			j := initialOptionJSON{GSCN: o.GSCN, OffsetToPointA: o.OffsetToPointA, KSSB: o.KSSB, ControlResourceSetZero: o.ControlResourceSetZero,
 				SearchSpaceZero: o.SearchSpaceZero, PDCCHConfigSIB1: o.PDCCHConfigSIB1, Pattern: o.Pattern, NRB: o.NRB,
-				Symbols: o.Symbols, StartCRB: o.StartCRB, LowKHz: o.Low.KHz(), HighKHz: o.High.KHz(), ClearOfSSB: o.ClearOfSSB,
+				Symbols: o.Symbols, StartCRB: o.StartCRB, LowKHz: o.Low.KHz(), HighKHz: o.High.KHz(), ClearOfSSB: o.ClearOfSSB, Warnings: o.Warnings,
 				SSBFromCentreKHz: o.SSBFromCentre.KHz()}
 			if ch.Absolute {
 				lo, hi := ch.Abs(o.Low).MHz(), ch.Abs(o.High).MHz()
