@@ -1,0 +1,134 @@
+package report
+
+import (
+	"math"
+	"strconv"
+
+	"gridloom/grid"
+)
+
+// PartitionTiming is the timing of one partition in a Document: T_proc in
+// Tc (exact) and µs, the least K1 and K2, the HARQ round trip over the
+// slots of the pattern, and the one-way user-plane latency per direction
+// with 14-symbol slots (latencyUs) and with 2-, 4- and 7-symbol mini-slots
+// (miniSlotLatencyUs). Every latency is an estimate of the air-interface
+// part only; Timing.LatencyAssumptions lists what it assumes.
+type PartitionTiming struct {
+	UECapability           int                `json:"ueCapability"`
+	DMRSAdditionalPosition string             `json:"dmrsAdditionalPosition"`
+	TProc1Tc               grid.Tc            `json:"tproc1Tc"`
+	TProc1Us               float64            `json:"tproc1Us"`
+	TProc2Tc               grid.Tc            `json:"tproc2Tc"`
+	TProc2Us               float64            `json:"tproc2Us"`
+	K1MinSlots             int                `json:"k1MinSlots"`
+	K2MinSlots             *int               `json:"k2MinSlots"` // null without a whole uplink slot
+	HARQRttUs              MinMeanMax         `json:"harqRttUs"`
+	ULHARQRttMaxUs         *float64           `json:"ulHarqRttMaxUs"` // null without a whole uplink slot
+	LatencyUs              Latency            `json:"latencyUs"`
+	MiniSlotLatencyUs      map[string]Latency `json:"miniSlotLatencyUs"`
+	GuardSymbols           int                `json:"guardSymbols,omitempty"`
+	TimingAdvanceTc        grid.Tc            `json:"timingAdvanceTc"`
+	TimingAdvanceKm        float64            `json:"timingAdvanceKm"`
+}
+
+// MinMeanMax is a spread in µs.
+type MinMeanMax struct {
+	Min  float64 `json:"min"`
+	Mean float64 `json:"mean"`
+	Max  float64 `json:"max"`
+}
+
+// Latency is the one-way latency of both directions; a direction is null
+// when the pattern gives it no run of symbols long enough.
+type Latency struct {
+	DL *OneWay `json:"dl"`
+	UL *OneWay `json:"ul"`
+}
+
+// OneWay is a one-way latency in µs: mean over arrival times and worst
+// case, without and with one HARQ retransmission (probability
+// grid.RetxProbability for the mean, a whole round trip for the worst).
+type OneWay struct {
+	Mean          float64 `json:"mean"`
+	Worst         float64 `json:"worst"`
+	MeanWithHARQ  float64 `json:"meanWithHarq"`
+	WorstWithHARQ float64 `json:"worstWithHarq"`
+}
+
+// Timing is the carrier's timing in a Document. bwpSwitchUs maps a
+// partition to every other it can switch to by DCI or timer and the delay
+// for a UE of delay type 1 (TS 38.133 Table 8.6.2-1); bwpSwitchType2Us the
+// same for type 2; bwpSwitchRrcUs the RRC-based switch (8.6.3).
+type Timing struct {
+	NTAOffsetTc         grid.Tc                       `json:"nTaOffsetTc"`
+	RxTxTc              grid.Tc                       `json:"rxTxTc"`
+	GuardTc             *grid.Tc                      `json:"guardTc,omitempty"`
+	GuardUs             *float64                      `json:"guardUs,omitempty"`
+	GuardSymbols        map[string]int                `json:"guardSymbols,omitempty"`
+	MaxCellRadiusKm     *float64                      `json:"maxCellRadiusKm,omitempty"`
+	BWPSwitchUs         map[string]map[string]float64 `json:"bwpSwitchUs"`
+	BWPSwitchType2Us    map[string]map[string]float64 `json:"bwpSwitchType2Us"`
+	BWPSwitchRRCUs      float64                       `json:"bwpSwitchRrcUs"`
+	HARQRetxProbability float64                       `json:"harqRetxProbability"`
+	LatencyAssumptions  []string                      `json:"latencyAssumptions"`
+}
+
+func us(t float64) float64 { return math.Round(t*1e9/float64(grid.TcPerSecond)) / 1e3 }
+
+func oneWay(o *grid.OneWay) *OneWay {
+	if o == nil {
+		return nil
+	}
+	return &OneWay{Mean: us(o.Mean), Worst: us(float64(o.Worst)), MeanWithHARQ: us(o.MeanWithHARQ), WorstWithHARQ: us(float64(o.WorstWithHARQ))}
+}
+
+func latency(l grid.Latencies) Latency { return Latency{DL: oneWay(l.DL), UL: oneWay(l.UL)} }
+
+func partitionTiming(t *grid.PartitionTiming) *PartitionTiming {
+	if t == nil {
+		return nil
+	}
+	out := &PartitionTiming{UECapability: t.Capability, DMRSAdditionalPosition: t.DMRS,
+		TProc1Tc: t.TProc1, TProc1Us: us(float64(t.TProc1)), TProc2Tc: t.TProc2, TProc2Us: us(float64(t.TProc2)),
+		K1MinSlots: t.K1Min,
+		HARQRttUs:  MinMeanMax{Min: us(float64(t.HARQMin)), Mean: us(t.HARQMean), Max: us(float64(t.HARQMax))},
+		LatencyUs:  latency(t.Slot), MiniSlotLatencyUs: map[string]Latency{}, GuardSymbols: t.GuardSymbols,
+		TimingAdvanceTc: t.TimingAdvance, TimingAdvanceKm: math.Round(t.TimingAdvanceRadiusM) / 1e3}
+	if t.K2Min >= 0 {
+		out.K2MinSlots = ptr(t.K2Min)
+	}
+	if t.ULHARQMax > 0 {
+		out.ULHARQRttMaxUs = ptr(us(float64(t.ULHARQMax)))
+	}
+	for n, l := range t.MiniSlot {
+		out.MiniSlotLatencyUs[strconv.Itoa(n)] = latency(l)
+	}
+	return out
+}
+
+func planTiming(t *grid.PlanTiming) *Timing {
+	if t == nil {
+		return nil
+	}
+	out := &Timing{NTAOffsetTc: t.NTAOffset, RxTxTc: t.RxTx, BWPSwitchRRCUs: us(float64(t.BWPSwitchRRC)),
+		BWPSwitchUs: map[string]map[string]float64{}, BWPSwitchType2Us: map[string]map[string]float64{},
+		HARQRetxProbability: grid.RetxProbability, LatencyAssumptions: grid.LatencyAssumptions}
+	if t.HasGuard {
+		out.GuardTc = ptr(t.Guard)
+		out.GuardUs = ptr(us(float64(t.Guard)))
+		out.MaxCellRadiusKm = ptr(math.Round(t.MaxCellRadiusM) / 1e3)
+		out.GuardSymbols = map[string]int{}
+		for scs, n := range t.GuardSymbols {
+			out.GuardSymbols[strconv.Itoa(scs)] = n
+		}
+	}
+	for _, s := range t.BWPSwitch {
+		if out.BWPSwitchUs[s.From] == nil {
+			out.BWPSwitchUs[s.From] = map[string]float64{}
+			out.BWPSwitchType2Us[s.From] = map[string]float64{}
+		}
+		out.BWPSwitchUs[s.From][s.To] = us(float64(s.Type1))
+		out.BWPSwitchType2Us[s.From][s.To] = us(float64(s.Type2))
+	}
+	return out
+}
