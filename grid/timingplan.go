@@ -113,10 +113,10 @@ type BWPSwitch struct {
 // PlanTiming is the timing of the whole carrier: N_TA,offset, the guard
 // period against the cell range, and the BWP switching delays.
 type PlanTiming struct {
-	NTAOffset Tc     // N_TA,offset·Tc (TS 38.133 Table 7.1.2-2)
-	RxTx      Tc     // N_Rx-Tx·Tc of TS 38.211 Table 4.3.2-3 for the range
-	HasGuard  bool   // the TDD pattern switches from downlink to uplink
-	Guard     Tc     // the shortest downlink-to-uplink guard, exact
+	NTAOffset Tc   // N_TA,offset·Tc (TS 38.133 Table 7.1.2-2)
+	RxTx      Tc   // N_Rx-Tx·Tc of TS 38.211 Table 4.3.2-3 for the range
+	HasGuard  bool // the TDD pattern switches from downlink to uplink
+	Guard     Tc   // the shortest downlink-to-uplink guard, exact
 	// GuardSymbols is the guard in symbols of each subcarrier spacing in use
 	// (kHz → symbols), at or above the TDD reference spacing.
 	GuardSymbols map[int]int
