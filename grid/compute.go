@@ -61,6 +61,18 @@ type Channel struct {
 	OnRaster       bool
 	PointAARFCN    int // NR-ARFCN of point A (absoluteFrequencyPointA), when PointAOnRaster
 	PointAOnRaster bool
+	// Band is the operating band the channel is checked against: the
+	// plan's carrier.band, or the first of BandCandidates it passes; ""
+	// when neither applies. Duplex is that band's duplex mode.
+	Band           string
+	BandCandidates []string // bands whose downlink range holds the channel, when Absolute and no band is named
+	Duplex         string
+	RasterKHz      int // ΔF_Raster of the band's channel raster that holds the centre (or applies), when Absolute
+	// ULCenterHz and ULARFCN are the paired uplink carrier of an FDD band
+	// at its duplex spacing, when HasUL.
+	HasUL      bool
+	ULCenterHz Hz
+	ULARFCN    int
 	// UsePercent is the share of the channel bandwidth that partitions occupy.
 	UsePercent float64
 }
@@ -165,8 +177,8 @@ func Compute(plan Plan) Result {
 	if n := utf8.RuneCountInString(p.Name); n > MaxNameLen {
 		fs.add(Error, CodeLimit, "", "name", "The plan name is %d characters long; at most %d are allowed.", n, MaxNameLen)
 	}
-	rng, ok := parseFold(p.Carrier.Range, RangeNames(), ParseRange)
-	if !ok {
+	rng, rangeOK := parseFold(p.Carrier.Range, RangeNames(), ParseRange)
+	if !rangeOK {
 		fs.add(Error, CodeRange, "", "carrier.range", "carrier.range %q is not a frequency range; use %s.", p.Carrier.Range, JoinOr(RangeNames()))
 	}
 	p.Carrier.Range = rng.String()
@@ -253,6 +265,9 @@ func Compute(plan Plan) Result {
 	checkEdgeGuards(&fs, rng, bw, res.Channel, res.Partitions)
 	checkNumerologyGaps(&fs, p.NumerologyGapKHz, res.Partitions)
 	placeAbsolute(&fs, rng, &res.Channel, p.Carrier)
+	if rangeOK && (p.Carrier.Band != "" || res.Channel.Absolute) {
+		checkBand(&fs, rng, &res.Channel, &p.Carrier, p.Partitions, inUse, bwKnown)
+	}
 	if p.SSB != nil && bwKnown {
 		if s, ok := checkSSB(&fs, rng, p.SSB, res.Channel, res.Channel.CenterHz, res.Channel.Absolute, tdd != nil, span); ok {
 			res.SSB = &s

@@ -43,6 +43,7 @@ var simpleFields = []simpleField{
 	{"name", "name", func(f *Form) *string { return &f.Name }},
 	{"span", "spanMs", func(f *Form) *string { return &f.Span }},
 	{"range", "carrier.range", func(f *Form) *string { return &f.Range }},
+	{"band", "carrier.band", func(f *Form) *string { return &f.Band }},
 	{"bw", "carrier.bandwidthMHz", func(f *Form) *string { return &f.Bandwidth }},
 	{"fc", "carrier.centerMHz", func(f *Form) *string { return &f.Center }},
 	{"arfcn", "carrier.arfcn", func(f *Form) *string { return &f.ARFCN }},
@@ -100,13 +101,13 @@ const maxPartIndex = 4*grid.MaxPartitions - 1
 // keys has a value. Other keys are ignored, so "op" and "download" can ride
 // along.
 type Form struct {
-	Name, Span, Range, Bandwidth, Center, ARFCN, Gap string
-	Offset                                           map[int]string // subcarrier spacing (kHz) → offsetToCarrier as typed
-	CarrierBW                                        map[int]string // subcarrier spacing (kHz) → carrierBandwidth as typed
-	TDD                                              TDDForm
-	SSB                                              SSBForm
-	Env                                              EnvForm
-	Parts                                            []PartForm
+	Name, Span, Range, Band, Bandwidth, Center, ARFCN, Gap string
+	Offset                                                 map[int]string // subcarrier spacing (kHz) → offsetToCarrier as typed
+	CarrierBW                                              map[int]string // subcarrier spacing (kHz) → carrierBandwidth as typed
+	TDD                                                    TDDForm
+	SSB                                                    SSBForm
+	Env                                                    EnvForm
+	Parts                                                  []PartForm
 }
 
 // TDDForm is the TDD pattern of a Form: the reference spacing and up to two
@@ -321,6 +322,7 @@ func (f Form) Plan() (grid.Plan, Messages) {
 		SpanMs: r.count(f.Span, "spanMs", "Span (ms)", fmt.Sprintf("a whole number of milliseconds from 1 to %d", grid.MaxSpanMs)),
 		Carrier: grid.CarrierPlan{
 			Range: f.Range,
+			Band:  f.Band,
 			BandwidthMHz: r.count(f.Bandwidth, "carrier.bandwidthMHz", "Channel bandwidth",
 				"a channel bandwidth in whole MHz, such as "+grid.JoinInts(rangeOf(f.Range).AllBandwidths())),
 			CenterMHz: r.optFloat(f.Center, "carrier.centerMHz", "Centre frequency", "a frequency in MHz such as 3750 or 3750.12, or nothing"),
@@ -491,6 +493,7 @@ func FormOf(p grid.Plan) Form {
 		Name:      p.Name,
 		Span:      itoa0(p.SpanMs),
 		Range:     p.Carrier.Range,
+		Band:      p.Carrier.Band,
 		Bandwidth: itoa0(p.Carrier.BandwidthMHz),
 		Center:    ftoaPtr(p.Carrier.CenterMHz),
 		ARFCN:     itoaPtr(p.Carrier.ARFCN),

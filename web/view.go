@@ -428,6 +428,7 @@ func buildForm(s state, notes map[string][]note) formView {
 	scsInUse := s.scsInUse()
 	fv.Carrier = []control{
 		choice("range", "Frequency range", "6", pick(plain(grid.RangeNames()), orDefault(f.Range, grid.DefaultRange), nil)),
+		text("band", "Operating band", "6", "", placeholderBand(s.res)),
 		choice("bw", "Channel bandwidth (MHz)", "6", bandwidthOptions(rng, scsInUse, f.Bandwidth)),
 		text("fc", "Centre (MHz)", "6", "decimal", placeholderCenter(s.res)),
 		text("arfcn", "NR-ARFCN", "6", "numeric", placeholderARFCN(s.res)),
@@ -738,6 +739,15 @@ func placeholderCenter(res grid.Result) string {
 		return strconv.FormatFloat(res.Channel.CenterHz.MHz(), 'f', -1, 64)
 	}
 	return "none"
+}
+
+// placeholderBand shows the band Compute checked the channel against when
+// the plan names none.
+func placeholderBand(res grid.Result) string {
+	if res.Channel.Band != "" {
+		return res.Channel.Band
+	}
+	return "any"
 }
 
 func placeholderARFCN(res grid.Result) string {

@@ -15,7 +15,7 @@ func full() grid.Plan {
 	i := func(v int) *int { return &v }
 	f := func(v float64) *float64 { return &v }
 	return grid.Plan{Name: "all", SpanMs: 2,
-		Carrier: grid.CarrierPlan{Range: "FR1", BandwidthMHz: 40, CenterMHz: f(3750), ARFCN: i(650000),
+		Carrier: grid.CarrierPlan{Range: "FR1", Band: "n78", BandwidthMHz: 40, CenterMHz: f(3750), ARFCN: i(650000),
 			OffsetToCarrier: map[int]int{15: 1}, CarrierBandwidth: map[int]int{15: 200}, NTAOffset: "n39936"},
 		Partitions: []grid.PartitionPlan{{Name: "p", SCSKHz: 15, CP: "normal", StartCRB: i(1), SizePRB: 10,
 			LocationAndBandwidth: i(9), Direction: "UL", Layers: 2, Modulation: "256QAM", UECapability: 2, DMRSAdditionalPosition: "pos0"}},
@@ -85,7 +85,7 @@ func TestKeysFromTags(t *testing.T) {
 		want string
 	}{
 		{keys.plan, "name spanMs carrier partitions numerologyGapKHz tdd ssb environment"},
-		{keys.carrier, "range bandwidthMHz centerMHz arfcn offsetToCarrier carrierBandwidth nTaOffset"},
+		{keys.carrier, "range band bandwidthMHz centerMHz arfcn offsetToCarrier carrierBandwidth nTaOffset"},
 		{keys.partition, "name scsKHz cp startCrb sizePrb locationAndBandwidth direction layers modulation ueCapability dmrsAdditionalPosition"},
 		{keys.tdd, "referenceScsKHz pattern1 pattern2"},
 		{keys.tddPattern, "periodMs downlinkSlots downlinkSymbols uplinkSlots uplinkSymbols"},
@@ -97,7 +97,7 @@ func TestKeysFromTags(t *testing.T) {
 		}
 	}
 	_, err := DecodeJSON([]byte(`{"carrier": {"bandwidth": 40}}`))
-	want := `carrier.bandwidth: unknown key "bandwidth"; the keys here are range, bandwidthMHz, centerMHz, arfcn, offsetToCarrier, carrierBandwidth, nTaOffset.`
+	want := `carrier.bandwidth: unknown key "bandwidth"; the keys here are range, band, bandwidthMHz, centerMHz, arfcn, offsetToCarrier, carrierBandwidth, nTaOffset.`
 	if err == nil || err.Error() != want {
 		t.Errorf("unknown key: %v\nwant %s", err, want)
 	}

@@ -520,6 +520,7 @@ func (w *walker) carrier(v any) grid.CarrierPlan {
 	}
 	c := grid.CarrierPlan{
 		Range:            w.str(m["range"], "carrier.range"),
+		Band:             w.str(m["band"], "carrier.band"),
 		BandwidthMHz:     w.intOr0(m["bandwidthMHz"], "carrier.bandwidthMHz"),
 		CenterMHz:        w.optFloat(m["centerMHz"], "carrier.centerMHz"),
 		ARFCN:            w.optInt(m["arfcn"], "carrier.arfcn"),

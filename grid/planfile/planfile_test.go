@@ -17,6 +17,7 @@ name: Test campus
 spanMs: 2
 carrier:
   range: FR1
+  band: n78
   bandwidthMHz: 40
   centerMHz: 3750.0
   offsetToCarrier: {15: 0, "30": 1}
@@ -35,7 +36,7 @@ partitions:
 
 const campusJSON = `{
   "name": "Test campus", "spanMs": 2,
-  "carrier": {"range": "FR1", "bandwidthMHz": 40, "centerMHz": 3750.0, "offsetToCarrier": {"15": 0, "30": 1}},
+  "carrier": {"range": "FR1", "band": "n78", "bandwidthMHz": 40, "centerMHz": 3750.0, "offsetToCarrier": {"15": 0, "30": 1}},
   "partitions": [
     {"name": "sensors", "scsKHz": 15, "startCrb": 0, "sizePrb": 48},
     {"name": "video", "scsKHz": 30, "locationAndBandwidth": 13500, "direction": "DL", "layers": 2, "modulation": "256QAM"}
@@ -54,7 +55,7 @@ func TestJSONAndYAMLAgree(t *testing.T) {
 	if !reflect.DeepEqual(fromYAML, fromJSON) {
 		t.Errorf("YAML and JSON of one plan differ:\nYAML %+v\nJSON %+v", fromYAML, fromJSON)
 	}
-	if fromJSON.Carrier.OffsetToCarrier[30] != 1 || *fromJSON.Partitions[1].LocationAndBandwidth != 13500 {
+	if fromJSON.Carrier.OffsetToCarrier[30] != 1 || fromJSON.Carrier.Band != "n78" || *fromJSON.Partitions[1].LocationAndBandwidth != 13500 {
 		t.Errorf("decoded %+v", fromJSON)
 	}
 	if got, _ := Decode([]byte(campusJSON)); !reflect.DeepEqual(got, fromJSON) {

@@ -75,10 +75,20 @@ type Channel struct {
 	ARFCN        *int     `json:"arfcn,omitempty"`
 	PointAMHz    *float64 `json:"pointAMHz,omitempty"`
 	PointAARFCN  *int     `json:"pointAArfcn,omitempty"`
-	LowKHz       float64  `json:"lowKHz"`
-	HighKHz      float64  `json:"highKHz"`
-	CenterKHz    float64  `json:"centerKHz"`
-	UsePercent   float64  `json:"usePercent"`
+	// Band is the operating band the channel is checked against;
+	// BandCandidates the bands whose downlink range holds it, listed when
+	// the plan names no band. RasterKHz is the band's ΔF_Raster at the
+	// centre. ULCenterMHz and ULARFCN are the paired uplink of an FDD band.
+	Band           string   `json:"band,omitempty"`
+	BandCandidates []string `json:"bandCandidates,omitempty"`
+	Duplex         string   `json:"duplex,omitempty"`
+	RasterKHz      int      `json:"rasterKHz,omitempty"`
+	ULCenterMHz    *float64 `json:"ulCenterMHz,omitempty"`
+	ULARFCN        *int     `json:"ulArfcn,omitempty"`
+	LowKHz         float64  `json:"lowKHz"`
+	HighKHz        float64  `json:"highKHz"`
+	CenterKHz      float64  `json:"centerKHz"`
+	UsePercent     float64  `json:"usePercent"`
 }
 
 // Carrier is one SCS-specific carrier of a Document.
@@ -158,7 +168,13 @@ func Build(r grid.Result, symbols bool) Document {
 		if ch.PointAOnRaster {
 			out.Channel.PointAARFCN = ptr(ch.PointAARFCN)
 		}
+		if ch.HasUL {
+			out.Channel.ULCenterMHz = ptr(ch.ULCenterHz.MHz())
+			out.Channel.ULARFCN = ptr(ch.ULARFCN)
+		}
 	}
+	out.Channel.Band, out.Channel.BandCandidates = ch.Band, ch.BandCandidates
+	out.Channel.Duplex, out.Channel.RasterKHz = ch.Duplex, ch.RasterKHz
 	for _, c := range r.Carriers {
 		out.Carriers = append(out.Carriers, Carrier{SCSKHz: c.SCSKHz, NRB: c.NRB, CarrierBandwidth: c.CarrierBandwidth,
 			OffsetToCarrier: c.OffsetToCarrier, OffsetChosen: c.Chosen, LowKHz: c.Low.KHz(), HighKHz: c.High.KHz(),

@@ -56,3 +56,18 @@ func TestSymbols(t *testing.T) {
 		t.Errorf("first symbol under a DDDSU pattern is %q, want D", p.Symbols[0].Direction)
 	}
 }
+
+// The channel's band fields reach the document under the names the README
+// gives them: an FDD carrier in n3 reports its paired uplink.
+func TestChannelBand(t *testing.T) {
+	// TS 38.101-1 Table 5.2-1: n3 is FDD, UL 1710–1785 MHz, DL 1805–1880 MHz,
+	// so the duplex spacing is 95 MHz and a 1842.5 MHz downlink centre pairs
+	// with 1747.5 MHz; NR-ARFCN 349500 = 1747.5 MHz / 5 kHz (TS 38.104 5.4.2.1).
+	fc := 1842.5
+	r := grid.Compute(grid.Plan{Name: "n3", Carrier: grid.CarrierPlan{Band: "n3", BandwidthMHz: 20, CenterMHz: &fc},
+		Partitions: []grid.PartitionPlan{{Name: "a", SCSKHz: 15, SizePRB: 106}}})
+	c := Build(r, false).Channel
+	if c.Band != "n3" || c.Duplex != "FDD" || c.ULARFCN == nil || *c.ULARFCN != 349500 || c.ULCenterMHz == nil || *c.ULCenterMHz != 1747.5 {
+		t.Errorf("channel %+v; want band n3, FDD, uplink 1747.5 MHz at NR-ARFCN 349500", c)
+	}
+}
