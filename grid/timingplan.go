@@ -9,11 +9,6 @@ import (
 	"gridloom/grid/timing"
 )
 
-// CodeTiming marks a timing key the standard does not define
-// (ueCapability, dmrsAdditionalPosition, carrier.nTaOffset), or a
-// capability 2 request that falls back to capability 1.
-const CodeTiming = "timing"
-
 // DMRSPositions are the values of dmrs-AdditionalPosition (TS 38.331
 // DMRS-DownlinkConfig). The enumeration signals pos0, pos1 and pos3; pos2
 // is what a UE applies when the field is absent, and the plan may name it.
