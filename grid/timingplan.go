@@ -82,8 +82,11 @@ type PartitionTiming struct {
 	// HARQ round trip of the downlink, over the slots of one cycle.
 	HARQMin, HARQMax Tc
 	HARQMean         float64
-	// ULHARQMax is the largest uplink round trip; 0 without a whole uplink slot.
-	ULHARQMax Tc
+	// The uplink HARQ round trip over the whole uplink slots of one cycle
+	// (timing.ULHARQRoundTrips); HasULHARQ is false without one.
+	HasULHARQ            bool
+	ULHARQMin, ULHARQMax Tc
+	ULHARQMean           float64
 	// Slot is the latency with 14-symbol slots; MiniSlot with 2, 4 and 7
 	// symbols, indexed by the length.
 	Slot     Latencies
@@ -277,6 +280,16 @@ func computeTiming(fs *findings, rng Range, in timingIn, res *Result) {
 			pt.GuardSymbols[t.Reference.SCSKHz()] = n
 		}
 	}
+	type timingKey struct {
+		mu   int
+		c    timing.Capability
+		dmrs string
+	}
+	type timingDone struct {
+		tm  PartitionTiming
+		err error
+	}
+	done := map[timingKey]timingDone{}
 	for i := range res.Partitions {
 		l := &res.Partitions[i]
 		mu := l.Numerology.Mu
@@ -292,8 +305,15 @@ func computeTiming(fs *findings, rng Range, in timingIn, res *Result) {
 				c = timing.Cap1
 			}
 		}
-		p, _ := timingPattern(res.TDD, mu, adv)
-		tm, err := partitionTiming(p, c, in.dmrs[l.Index])
+		// Partitions of one numerology, capability and DM-RS case share their
+		// timing: the pattern and the advance are the carrier's.
+		key := timingKey{mu, c, in.dmrs[l.Index]}
+		tm, err := done[key].tm, done[key].err
+		if _, ok := done[key]; !ok {
+			p, _ := timingPattern(res.TDD, mu, adv)
+			tm, err = partitionTiming(p, c, key.dmrs)
+			done[key] = timingDone{tm, err}
+		}
 		if err != nil {
 			fs.add(Warning, CodeTiming, l.Name, fmt.Sprintf("partitions[%d].scsKHz", l.Index), "Partition %q has no HARQ or latency estimate: %v", l.Name, err)
 			continue
@@ -382,16 +402,12 @@ func partitionTiming(p timing.Pattern, c timing.Capability, dmrs string) (Partit
 	for _, r := range rt.PerSlot {
 		out.K1Min = min(out.K1Min, r.Ack.K1)
 	}
-	for s := range p.CycleSlots() {
-		if !p.IsDL(s*timing.SymbolsPerSlot) || !p.IsDL(s*timing.SymbolsPerSlot+1) {
-			continue
-		}
-		if g, err := timing.EarliestK2(p, s, 1, timing.SymbolsPerSlot, t2); err == nil && (out.K2Min < 0 || g.K2 < out.K2Min) {
-			out.K2Min = g.K2
-		}
+	if k2, err := timing.LeastK2(p, timing.SymbolsPerSlot, t2); err == nil {
+		out.K2Min = k2
 	}
-	if ul, ok := ulRoundTrip(p, t2, proc); ok {
-		out.ULHARQMax = Tc(ul)
+	if ul, err := timing.ULHARQRoundTrips(p, t2, proc); err == nil {
+		out.HasULHARQ = true
+		out.ULHARQMin, out.ULHARQMax, out.ULHARQMean = Tc(ul.Min), Tc(ul.Max), ul.Mean
 	}
 	for _, n := range []int{timing.SymbolsPerSlot, 2, 4, 7} {
 		ls := Latencies{
@@ -422,46 +438,4 @@ func oneWay(p timing.Pattern, d timing.Direction, n int, proc, rtt timing.Tc) *O
 		return nil
 	}
 	return &OneWay{Mean: l.Mean, Worst: Tc(l.Worst), MeanWithHARQ: l.WithHARQ, WorstWithHARQ: Tc(l.Worst + rtt)}
-}
-
-// ulRoundTrip is the largest uplink HARQ round trip over the whole uplink
-// slots of one cycle: a PUSCH filling slot s ends; the gNB decodes it for
-// proc, grants a retransmission with a PDCCH in symbols 0–1 of the first
-// slot that starts with two downlink symbols after that, and the new
-// PUSCH goes at the earliest K2 (T_proc,2 later). The round trip runs from
-// the first PUSCH's slot start to the retransmission's slot start, on the
-// gNB's lattice.
-func ulRoundTrip(p timing.Pattern, tproc2, proc timing.Tc) (timing.Tc, bool) {
-	const n = timing.SymbolsPerSlot
-	var worst timing.Tc
-	found := false
-	for s := range p.CycleSlots() {
-		full := true
-		for j := range n {
-			full = full && p.IsUL(s*n+j)
-		}
-		if !full {
-			continue
-		}
-		start, _ := timing.SymbolStart(p.Mu, s*n)
-		ls, ll := timing.SymbolStart(p.Mu, s*n+n-1)
-		ready := ls + ll + proc
-		limit := s + 2*p.CycleSlots() + int(proc/timing.SlotTc(p.Mu)) + 2
-		for r := s + 1; r < limit; r++ {
-			if !p.IsDL(r*n) || !p.IsDL(r*n+1) {
-				continue
-			}
-			if st, _ := timing.SymbolStart(p.Mu, r*n); st < ready {
-				continue
-			}
-			g, err := timing.EarliestK2(p, r, 1, n, tproc2)
-			if err != nil {
-				return 0, false
-			}
-			retx, _ := timing.SymbolStart(p.Mu, g.Symbol)
-			worst, found = max(worst, retx-start), true
-			break
-		}
-	}
-	return worst, found
 }

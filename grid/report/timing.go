@@ -23,7 +23,7 @@ type PartitionTiming struct {
 	K1MinSlots             int                `json:"k1MinSlots"`
 	K2MinSlots             *int               `json:"k2MinSlots"` // null without a whole uplink slot
 	HARQRttUs              MinMeanMax         `json:"harqRttUs"`
-	ULHARQRttMaxUs         *float64           `json:"ulHarqRttMaxUs"` // null without a whole uplink slot
+	ULHARQRttUs            *MinMeanMax        `json:"ulHarqRttUs"` // null without a whole uplink slot
 	LatencyUs              Latency            `json:"latencyUs"`
 	MiniSlotLatencyUs      map[string]Latency `json:"miniSlotLatencyUs"`
 	GuardSymbols           int                `json:"guardSymbols,omitempty"`
@@ -97,8 +97,8 @@ func partitionTiming(t *grid.PartitionTiming) *PartitionTiming {
 	if t.K2Min >= 0 {
 		out.K2MinSlots = ptr(t.K2Min)
 	}
-	if t.ULHARQMax > 0 {
-		out.ULHARQRttMaxUs = ptr(us(float64(t.ULHARQMax)))
+	if t.HasULHARQ {
+		out.ULHARQRttUs = &MinMeanMax{Min: us(float64(t.ULHARQMin)), Mean: us(t.ULHARQMean), Max: us(float64(t.ULHARQMax))}
 	}
 	for n, l := range t.MiniSlot {
 		out.MiniSlotLatencyUs[strconv.Itoa(n)] = latency(l)
