@@ -5,6 +5,7 @@
 //	gridloom [serve] [-addr 127.0.0.1:8080] [-plan FILE]   the web app
 //	gridloom render [-format svg|json|csv] [-o FILE] PLAN  draw or export a plan
 //	gridloom check PLAN                                    list the findings
+//	gridloom timing PLAN                                   the timing tables
 //
 // PLAN is a JSON or YAML plan file, or "-" for standard input.
 package main
@@ -55,6 +56,7 @@ Usage:
   gridloom [serve] [flags]          start the web app (default 127.0.0.1:8080)
   gridloom render [flags] PLAN      draw or export a plan: -format svg, json or csv
   gridloom check PLAN               list the plan's findings
+  gridloom timing PLAN              processing times, HARQ, latency, guard range, BWP switching
 
 PLAN is a JSON or YAML plan file, or - for standard input.
 Run "gridloom COMMAND -h" for the flags of a command.
@@ -73,10 +75,12 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 		return runRender(args, stdin, stdout, stderr)
 	case "check":
 		return runCheck(args, stdin, stdout, stderr)
+	case "timing":
+		return runTiming(args, stdin, stdout, stderr)
 	case "help":
 		fmt.Fprint(stdout, usage)
 		return nil
 	}
 	fmt.Fprint(stderr, usage)
-	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render or check", cmd)}
+	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check or timing", cmd)}
 }

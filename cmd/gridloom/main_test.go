@@ -151,6 +151,9 @@ func TestCheckExitCodes(t *testing.T) {
 		{"cell range", `{"carrier":{"bandwidthMHz":40},"environment":{"cellRadiusKm":10},
 			"tdd":{"referenceScsKHz":30,"pattern1":{"periodMs":2.5,"downlinkSlots":3,"downlinkSymbols":10,"uplinkSlots":1,"uplinkSymbols":2}},
 			"partitions":[{"name":"a","scsKHz":30,"sizePrb":24}]}`, []string{"check", "-"}, 0, "warning range (environment.cellRadiusKm): environment.cellRadiusKm 10 km is beyond the 6.79 km the TDD guard allows"},
+		// The campus guard: two 15 kHz symbols, 280576 Tc, less 25600 + 25600
+		// Tc, is 116.67 µs: c·t/2 = 17.49 km (TS 38.211 4.3.1).
+		{"timing tables", "", []string{"timing", "../../grid/demo/campus.yaml"}, 0, "the largest cell radius is 17.49 km"},
 		{"unreadable", "", []string{"check", "../../grid/demo/no-such-plan.yaml"}, 2, "no-such-plan"},
 		{"undecodable", `{"carrier":`, []string{"check", "-"}, 2, "not valid JSON"},
 		{"no plan argument", "", []string{"check"}, 2, "exactly one plan"},
@@ -196,7 +199,7 @@ func TestBrokenPlansExitOne(t *testing.T) {
 }
 
 func TestHelpOnEverySubcommand(t *testing.T) {
-	for _, cmd := range []string{"render", "check"} {
+	for _, cmd := range []string{"render", "check", "timing"} {
 		_, errOut, code := runCLI(t, "", cmd, "-h")
 		if code != 0 || !strings.Contains(errOut, "Usage: gridloom "+cmd) {
 			t.Errorf("%s -h: exit %d, output %q", cmd, code, errOut)
