@@ -280,8 +280,8 @@ func Compute(plan Plan) Result {
 			res.Fit = f
 		}
 	}
-	computeTiming(&fs, rng, tin, &res)
-	if e := p.Environment; e != nil && (res.Fit != nil || !wantsFit(e)) {
+	computeTiming(&fs, rng, tin, p.TDD != nil && tdd == nil, &res)
+	if e := p.Environment; e != nil && res.Timing != nil && (res.Fit != nil || !wantsFit(e)) {
 		res.Advice = computeAdvice(rng, e, tin, res.Fit, &res)
 	}
 	res.Spectrum = spectrumOf(res.Channel, res.Carriers, res.Partitions)

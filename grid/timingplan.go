@@ -79,6 +79,11 @@ type PartitionTiming struct {
 	// pattern's downlink slots; K2Min the least PDCCH-to-PUSCH offset for a
 	// 14-symbol PUSCH (−1 when the pattern has no whole uplink slot).
 	K1Min, K2Min int
+	// K1Lattice and K2Lattice are the same for a PDSCH or PUSCH filling its
+	// slot on the numerology's own lattice, every symbol usable both ways
+	// (as FDD), to set beside the pattern's. Equal to K1Min and K2Min
+	// without TDD.
+	K1Lattice, K2Lattice int
 	// HARQ round trip of the downlink, over the slots of one cycle.
 	HARQMin, HARQMax Tc
 	HARQMean         float64
@@ -269,7 +274,10 @@ func shortestGuard(p timing.Pattern) (guard Tc, symbols int, ok bool) {
 // computeTiming fills the per-partition and the carrier's timing, and
 // warns (code range) when the stated cell radius is beyond the guard or the
 // timing advance.
-func computeTiming(fs *findings, rng Range, in timingIn, res *Result) {
+func computeTiming(fs *findings, rng Range, in timingIn, tddRefused bool, res *Result) {
+	if tddRefused {
+		return // a TDD pattern the plan gives but Compute refused: FDD figures would mislead
+	}
 	pt := &PlanTiming{NTAOffset: in.off, RxTx: Tc(timing.RxTxTransition(rng.FR2())), GuardSymbols: map[int]int{}}
 	adv := in.off + roundTripTc(in.radius)
 	if t := res.TDD; t != nil {
@@ -404,6 +412,19 @@ func partitionTiming(p timing.Pattern, c timing.Capability, dmrs string) (Partit
 	}
 	if k2, err := timing.LeastK2(p, timing.SymbolsPerSlot, t2); err == nil {
 		out.K2Min = k2
+	}
+	out.K1Lattice, out.K2Lattice = out.K1Min, out.K2Min
+	if !p.FDD() {
+		fdd := timing.Pattern{Mu: mu, ULAdvance: p.ULAdvance}
+		if rt, err := timing.HARQRoundTrips(fdd, t1, proc); err == nil {
+			out.K1Lattice = rt.PerSlot[0].Ack.K1
+			for _, r := range rt.PerSlot {
+				out.K1Lattice = min(out.K1Lattice, r.Ack.K1)
+			}
+		}
+		if k2, err := timing.LeastK2(fdd, timing.SymbolsPerSlot, t2); err == nil {
+			out.K2Lattice = k2
+		}
 	}
 	if ul, err := timing.ULHARQRoundTrips(p, t2, proc); err == nil {
 		out.HasULHARQ = true

@@ -106,6 +106,24 @@ func TestLatencyDDDSU30kHz(t *testing.T) {
 	if tm.GuardSymbols != 2 {
 		t.Errorf("guard %d symbols, want 2", tm.GuardSymbols)
 	}
+	// On its own lattice (every symbol both ways) a PDSCH filling slot 0
+	// ends at 0.5 ms; the last symbol of slot 1 starts at 0.5 ms + 1024 +
+	// 13·70144 Tc = 0.5 ms + 912896 Tc, advanced by 25600 Tc to 0.5 ms +
+	// 887296 Tc, before the 911872 Tc it must wait: K1 = 2. The
+	// pattern's special slot, whose PDSCH ends earlier, does better (1).
+	// K2: the PDCCH ends 141312 Tc in; a slot-long PUSCH may start
+	// 1053184 Tc after the slot starts, beyond slot 1 (983040 − 25600):
+	// K2 = 2, as on the pattern.
+	if tm.K1Lattice != 2 || tm.K2Lattice != 2 || tm.K2Min != 2 {
+		t.Errorf("K1 %d and K2 %d on the lattice, K2 %d on the pattern; want 2, 2, 2", tm.K1Lattice, tm.K2Lattice, tm.K2Min)
+	}
+	// A TDD pattern Compute refuses leaves no timing rather than FDD figures.
+	p := dddsu30()
+	p.TDD.Pattern1.PeriodMs = 3.5
+	p.Environment = &EnvironmentPlan{CellRadiusKm: 1}
+	if r := Compute(p); r.Timing != nil || r.Advice != nil || r.Partitions[0].Timing != nil {
+		t.Errorf("refused TDD: timing %v, advice %v", r.Timing, r.Advice)
+	}
 }
 
 // A 2-symbol mini-slot at 120 kHz on FDD, by hand. Processing: N1 = 20

@@ -209,7 +209,7 @@ func Build(r grid.Result, symbols bool) Document {
 				}
 			}
 		}
-		jp.Timing = partitionTiming(l.Timing)
+		jp.Timing = partitionTiming(l.Timing, r.TDD != nil)
 		out.Partitions = append(out.Partitions, jp)
 	}
 	out.Timing = planTiming(r.Timing)

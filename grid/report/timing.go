@@ -14,21 +14,27 @@ import (
 // (miniSlotLatencyUs). Every latency is an estimate of the air-interface
 // part only; Timing.LatencyAssumptions lists what it assumes.
 type PartitionTiming struct {
-	UECapability           int                `json:"ueCapability"`
-	DMRSAdditionalPosition string             `json:"dmrsAdditionalPosition"`
-	TProc1Tc               grid.Tc            `json:"tproc1Tc"`
-	TProc1Us               float64            `json:"tproc1Us"`
-	TProc2Tc               grid.Tc            `json:"tproc2Tc"`
-	TProc2Us               float64            `json:"tproc2Us"`
-	K1MinSlots             int                `json:"k1MinSlots"`
-	K2MinSlots             *int               `json:"k2MinSlots"` // null without a whole uplink slot
-	HARQRttUs              MinMeanMax         `json:"harqRttUs"`
-	ULHARQRttUs            *MinMeanMax        `json:"ulHarqRttUs"` // null without a whole uplink slot
-	LatencyUs              Latency            `json:"latencyUs"`
-	MiniSlotLatencyUs      map[string]Latency `json:"miniSlotLatencyUs"`
-	GuardSymbols           int                `json:"guardSymbols,omitempty"`
-	TimingAdvanceTc        grid.Tc            `json:"timingAdvanceTc"`
-	TimingAdvanceKm        float64            `json:"timingAdvanceKm"`
+	UECapability           int     `json:"ueCapability"`
+	DMRSAdditionalPosition string  `json:"dmrsAdditionalPosition"`
+	TProc1Tc               grid.Tc `json:"tproc1Tc"`
+	TProc1Us               float64 `json:"tproc1Us"`
+	TProc2Tc               grid.Tc `json:"tproc2Tc"`
+	TProc2Us               float64 `json:"tproc2Us"`
+	K1MinSlots             int     `json:"k1MinSlots"`
+	K2MinSlots             *int    `json:"k2MinSlots"` // null without a whole uplink slot
+	// K1LatticeSlots and K2LatticeSlots are the least K1 and K2 of a PDSCH
+	// or PUSCH filling its slot on the numerology's own lattice, as if every
+	// symbol went both ways; present under a TDD pattern, to set beside
+	// the pattern's.
+	K1LatticeSlots    *int               `json:"k1LatticeSlots,omitempty"`
+	K2LatticeSlots    *int               `json:"k2LatticeSlots,omitempty"`
+	HARQRttUs         MinMeanMax         `json:"harqRttUs"`
+	ULHARQRttUs       *MinMeanMax        `json:"ulHarqRttUs"` // null without a whole uplink slot
+	LatencyUs         Latency            `json:"latencyUs"`
+	MiniSlotLatencyUs map[string]Latency `json:"miniSlotLatencyUs"`
+	GuardSymbols      int                `json:"guardSymbols,omitempty"`
+	TimingAdvanceTc   grid.Tc            `json:"timingAdvanceTc"`
+	TimingAdvanceKm   float64            `json:"timingAdvanceKm"`
 }
 
 // MinMeanMax is a spread in µs.
@@ -84,7 +90,7 @@ func oneWay(o *grid.OneWay) *OneWay {
 
 func latency(l grid.Latencies) Latency { return Latency{DL: oneWay(l.DL), UL: oneWay(l.UL)} }
 
-func partitionTiming(t *grid.PartitionTiming) *PartitionTiming {
+func partitionTiming(t *grid.PartitionTiming, tdd bool) *PartitionTiming {
 	if t == nil {
 		return nil
 	}
@@ -96,6 +102,9 @@ func partitionTiming(t *grid.PartitionTiming) *PartitionTiming {
 		TimingAdvanceTc: t.TimingAdvance, TimingAdvanceKm: math.Round(t.TimingAdvanceRadiusM) / 1e3}
 	if t.K2Min >= 0 {
 		out.K2MinSlots = ptr(t.K2Min)
+	}
+	if tdd {
+		out.K1LatticeSlots, out.K2LatticeSlots = ptr(t.K1Lattice), ptr(t.K2Lattice)
 	}
 	if t.HasULHARQ {
 		out.ULHARQRttUs = &MinMeanMax{Min: us(float64(t.ULHARQMin)), Mean: us(t.ULHARQMean), Max: us(float64(t.ULHARQMax))}
