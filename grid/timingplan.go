@@ -162,6 +162,13 @@ func checkTimingKeys(fs *findings, rng Range, p *Plan) timingIn {
 		default:
 			p.Carrier.NTAOffset = name
 			off, _ = timing.NTAOffset(ntaOffsetCase[name])
+			// TS 38.133 Table 7.1.2-2 ties n0 to FDD and n39936 to TDD bands.
+			switch {
+			case name == "n0" && p.TDD != nil:
+				fs.add(Warning, CodeTiming, "", "carrier.nTaOffset", "carrier.nTaOffset n0 is the value for an FR1 FDD band with LTE-NR coexistence (TS 38.133 Table 7.1.2-2), but the plan has a TDD pattern; a TDD band takes n25600, or n39936 with LTE-NR coexistence.")
+			case name == "n39936" && p.TDD == nil:
+				fs.add(Warning, CodeTiming, "", "carrier.nTaOffset", "carrier.nTaOffset n39936 is the value for an FR1 TDD band with LTE-NR coexistence (TS 38.133 Table 7.1.2-2), but the plan has no TDD pattern; an FDD band takes n25600, or n0 with LTE-NR coexistence.")
+			}
 		}
 	} else if !rng.FR2() {
 		p.Carrier.NTAOffset = "n25600"

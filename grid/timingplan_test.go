@@ -227,6 +227,7 @@ func TestTimingKeys(t *testing.T) {
 		{func(p *Plan) { p.Partitions[0].DMRSAdditionalPosition = "pos4" }, Error, "partitions[0].dmrsAdditionalPosition", "pos0, pos1, pos2 or pos3"},
 		{func(p *Plan) { p.Carrier.NTAOffset = "n13792" }, Error, "carrier.nTaOffset", "n0, n25600 or n39936"},
 		{func(p *Plan) { p.Partitions[0].UECapability = 2 }, Warning, "partitions[0].ueCapability", "capability 1 applies"},
+		{func(p *Plan) { p.Carrier.NTAOffset = "n39936" }, Warning, "carrier.nTaOffset", "no TDD pattern"},
 		{func(p *Plan) { p.Environment = &EnvironmentPlan{CellRadiusKm: -1} }, Error, "environment.cellRadiusKm", "0 (not stated) to 1000 km"},
 		{func(p *Plan) { p.Environment = &EnvironmentPlan{LatencyTargetMs: math.NaN()} }, Error, "environment.latencyTargetMs", "0 (none) to 1000 ms"},
 	} {
