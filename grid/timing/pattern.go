@@ -143,9 +143,8 @@ func (p Pattern) IsUL(k int) bool { return p.Dir == nil || p.Dir[k%len(p.Dir)] =
 func (p Pattern) dlStart(k int) Tc { s, _ := SymbolStart(p.Mu, k); return s }
 func (p Pattern) dlEnd(k int) Tc   { s, l := SymbolStart(p.Mu, k); return s + l }
 
-// ulStart and ulEnd are the edges of symbol k as the UE transmits it.
+// ulStart is the start of symbol k as the UE transmits it.
 func (p Pattern) ulStart(k int) Tc { return p.dlStart(k) - p.ULAdvance }
-func (p Pattern) ulEnd(k int) Tc   { return p.dlEnd(k) - p.ULAdvance }
 
 // ExpandSlots turns a direction per slot into a direction per symbol:
 // 'D', 'U' and 'F' fill a slot's 14 symbols, 'S' takes special, which gives
