@@ -41,7 +41,8 @@ const (
 const RetxProbability = 0.1
 
 // LatencyAssumptions are the assumptions of the user-plane latency
-// estimate, in the order the README lists them, for every view to show.
+// estimate, one sentence each, for every view to show beside the numbers
+// (the README says the same in its own words).
 var LatencyAssumptions = []string{
 	"An estimate of the air-interface part only, in the structure of the IMT-2020 evaluation (ITU-R M.2412, TR 37.910 §5.7.1): no core network, no queueing behind other users, no scheduling request (uplink data uses a configured grant).",
 	"Processing on each side (gNB and UE, before and after the transmission) is half of N1 of the partition's capability (pos0), TS 38.214 Table 5.3-1/5.3-2; no specification fixes it.",
