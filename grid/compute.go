@@ -272,6 +272,9 @@ func Compute(plan Plan) Result {
 		if s, ok := checkSSB(&fs, rng, p.SSB, res.Channel, res.Channel.CenterHz, res.Channel.Absolute, tdd != nil, span); ok {
 			res.SSB = &s
 			checkSSBOverlaps(&fs, s, res.Partitions, tdd)
+			if res.Channel.Band != "" {
+				fs = append(fs, s.CheckBand(res.Channel.Band)...)
+			}
 		}
 	}
 	tin := checkTimingKeys(&fs, rng, &p)

@@ -100,7 +100,11 @@ func (p Plan) Clone() Plan {
 	q.Carrier.CenterMHz = clonePtr(p.Carrier.CenterMHz)
 	q.Carrier.ARFCN = clonePtr(p.Carrier.ARFCN)
 	q.NumerologyGapKHz = clonePtr(p.NumerologyGapKHz)
-	q.SSB = clonePtr(p.SSB)
+	if p.SSB != nil {
+		s := *p.SSB
+		s.GSCN = clonePtr(p.SSB.GSCN)
+		q.SSB = &s
+	}
 	q.Environment = clonePtr(p.Environment)
 	if p.TDD != nil {
 		t := *p.TDD

@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"gridloom/grid"
+	"gridloom/grid/gscn"
 )
 
 // Query keys that code refers to by name; simpleFields lists the rest.
@@ -66,6 +67,7 @@ var simpleFields = []simpleField{
 	{"ssb.k", "ssb.kSsb", func(f *Form) *string { return &f.SSB.K }},
 	{"ssb.common", "ssb.scsCommonKHz", func(f *Form) *string { return &f.SSB.Common }},
 	{"ssb.period", "ssb.periodMs", func(f *Form) *string { return &f.SSB.Period }},
+	{"ssb.gscn", "ssb.gscn", func(f *Form) *string { return &f.SSB.GSCN }},
 	{"env.ds", "environment.delaySpreadNs", func(f *Form) *string { return &f.Env.DelayNs }},
 	{"env.profile", "environment.delayProfile", func(f *Form) *string { return &f.Env.Profile }},
 	{"env.speed", "environment.speedKmh", func(f *Form) *string { return &f.Env.Speed }},
@@ -91,7 +93,7 @@ const maxPartIndex = 4*grid.MaxPartitions - 1
 //	off.SCS cbw.SCS                              offsetToCarrier, carrierBandwidth per SCS (kHz)
 //	tdd.ref tdd.ms tdd.dl tdd.dlsym tdd.ul tdd.ulsym   TDD reference SCS and pattern1
 //	tdd2.ms tdd2.dl tdd2.dlsym tdd2.ul tdd2.ulsym      pattern2
-//	ssb.scs ssb.case ssb.bitmap ssb.off ssb.k ssb.common ssb.period
+//	ssb.scs ssb.case ssb.bitmap ssb.off ssb.k ssb.common ssb.period ssb.gscn
 //	env.ds env.profile env.speed env.fc          radio channel for the numerology fit
 //	pI.name pI.scs pI.cp pI.start pI.size        partition I, from 0
 //	pI.riv pI.dir pI.layers pI.mod
@@ -121,7 +123,7 @@ type TDDForm struct {
 type PatternForm struct{ Ms, DL, DLSym, UL, ULSym string }
 
 // SSBForm is the SS/PBCH block configuration of a Form.
-type SSBForm struct{ SCS, Case, Bitmap, Off, K, Common, Period string }
+type SSBForm struct{ SCS, Case, Bitmap, Off, K, Common, Period, GSCN string }
 
 // EnvForm is the radio channel of a Form, for the numerology fit.
 type EnvForm struct{ DelayNs, Profile, Speed, CarrierMHz string }
@@ -132,8 +134,10 @@ func given(vals ...string) bool {
 
 func (p PatternForm) given() bool { return given(p.Ms, p.DL, p.DLSym, p.UL, p.ULSym) }
 func (t TDDForm) given() bool     { return given(t.Ref) || t.P1.given() || t.P2.given() }
-func (s SSBForm) given() bool     { return given(s.SCS, s.Case, s.Bitmap, s.Off, s.K, s.Common, s.Period) }
-func (e EnvForm) given() bool     { return given(e.DelayNs, e.Profile, e.Speed, e.CarrierMHz) }
+func (s SSBForm) given() bool {
+	return given(s.SCS, s.Case, s.Bitmap, s.Off, s.K, s.Common, s.Period, s.GSCN)
+}
+func (e EnvForm) given() bool { return given(e.DelayNs, e.Profile, e.Speed, e.CarrierMHz) }
 
 // PartForm is one partition of a Form.
 type PartForm struct {
@@ -360,8 +364,9 @@ func (f Form) Plan() (grid.Plan, Messages) {
 			Bitmap:         strings.TrimSpace(s.Bitmap),
 			OffsetToPointA: r.count(s.Off, "ssb.offsetToPointA", "offsetToPointA", "a whole number of RBs (15 kHz in FR1, 60 kHz in FR2)"),
 			KSSB:           r.count(s.K, "ssb.kSsb", "k_SSB", "a whole number of subcarriers from 0 to 23"),
-			ScsCommonKHz:   r.count(s.Common, "ssb.scsCommonKHz", "subCarrierSpacingCommon", "60 or 120 kHz (FR2), or nothing"),
+			ScsCommonKHz:   r.count(s.Common, "ssb.scsCommonKHz", "subCarrierSpacingCommon", "15 or 30 kHz (FR1), 60 or 120 kHz (FR2), or nothing"),
 			PeriodMs:       r.count(s.Period, "ssb.periodMs", "SS/PBCH period", "one of "+grid.JoinInts(grid.SSBPeriodsMs)+" ms"),
+			GSCN:           r.optCount(s.GSCN, "ssb.gscn", "GSCN", fmt.Sprintf("a whole number from %d to %d, or nothing", gscn.MinGSCN, gscn.MaxGSCN)),
 		}
 	}
 	if e := f.Env; e.given() {
@@ -514,7 +519,7 @@ func FormOf(p grid.Plan) Form {
 	if s := p.SSB; s != nil {
 		// offsetToPointA is written even when 0: it keeps the block in the plan.
 		f.SSB = SSBForm{SCS: itoa0(s.SCSKHz), Case: s.Case, Bitmap: s.Bitmap, Off: strconv.Itoa(s.OffsetToPointA),
-			K: itoa0(s.KSSB), Common: itoa0(s.ScsCommonKHz), Period: itoa0(s.PeriodMs)}
+			K: itoa0(s.KSSB), Common: itoa0(s.ScsCommonKHz), Period: itoa0(s.PeriodMs), GSCN: itoaPtr(s.GSCN)}
 	}
 	if e := p.Environment; e != nil {
 		f.Env = EnvForm{DelayNs: ftoa0(e.DelaySpreadNs), Profile: e.DelayProfile, Speed: ftoa0(e.SpeedKmh), CarrierMHz: ftoa0(e.CarrierMHz)}

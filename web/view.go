@@ -513,7 +513,7 @@ func buildForm(s state, notes map[string][]note) formView {
 	}
 	fv.SSB = section{
 		Group: group{ID: idSSB, Notes: take(idSSB)}, Title: "SS/PBCH blocks", ClearOp: "clear.ssb",
-		Hint: "offsetToPointA counts RBs of 15 kHz (FR1) or 60 kHz (FR2); k_SSB counts subcarriers. The bitmap is ssb-PositionsInBurst, empty for every candidate.",
+		Hint: "offsetToPointA counts RBs of 15 kHz (FR1) or 60 kHz (FR2); k_SSB counts subcarriers. A GSCN places the block on the synchronization raster and sets both. The bitmap is ssb-PositionsInBurst, empty for every candidate.",
 		Rows: []sectionRow{
 			{Label: "Blocks", Controls: []control{
 				text("ssb.scs", "SCS (kHz)", "4", "numeric", ""),
@@ -524,7 +524,8 @@ func buildForm(s state, notes map[string][]note) formView {
 			{Label: "Position", Controls: []control{
 				text("ssb.off", "offsetToPointA", "4", "numeric", ""),
 				text("ssb.k", "k_SSB", "4", "numeric", "0"),
-				text("ssb.common", "SCS common (FR2)", "4", "numeric", ""),
+				text("ssb.common", "SCS common", "4", "numeric", ""),
+				text("ssb.gscn", "GSCN", "6", "numeric", "or the offsets"),
 			}},
 		},
 	}
@@ -886,10 +887,23 @@ func buildResults(s state, query string, figure string, figErr error) resultsVie
 	if b := doc.SSB; b != nil {
 		sv := &ssbView{Facts: []fact{
 			{"Case", fmt.Sprintf("%s at %d kHz", b.Case, b.SCSKHz)},
-			{"Candidates (L_max)", strconv.Itoa(b.Candidates)},
+			{"Candidates (L_max)", fmt.Sprintf("%d (ssb-PositionsInBurst %s)", b.Candidates, b.BitmapForm)},
 			{"Period", strconv.Itoa(b.PeriodMs) + " ms"},
 			{"Sent in the span", strconv.Itoa(len(b.Blocks))},
+			{"Placement", fmt.Sprintf("offsetToPointA %d, k_SSB %d, subCarrierSpacingCommon %d kHz", b.OffsetToPointA, b.KSSB, b.ScsCommonKHz)},
 		}}
+		if b.SSRefMHz != nil {
+			ref := exact(*b.SSRefMHz) + " MHz"
+			if b.AbsoluteFrequencySSB != nil {
+				ref += fmt.Sprintf(", absoluteFrequencySSB %d", *b.AbsoluteFrequencySSB)
+			}
+			if b.GSCN != nil {
+				ref += fmt.Sprintf(", GSCN %d", *b.GSCN)
+			} else {
+				ref += ", off the synchronization raster"
+			}
+			sv.Facts = append(sv.Facts, fact{"SS_REF", ref})
+		}
 		if len(b.Blocks) > 0 {
 			sv.Facts = append(sv.Facts, fact{"Frequency", fmt.Sprintf("%s to %s kHz from point A", exact(b.Blocks[0].LowKHz), exact(b.Blocks[0].HighKHz))})
 		}

@@ -162,6 +162,11 @@ func TestCheckExitCodes(t *testing.T) {
 		{"unknown theme", "", []string{"render", "-theme", "dark", "x.yaml"}, 2, "light or print"},
 		{"unknown layer", "", []string{"render", "-layers", "grid", "x.yaml"}, 2, "lattice"},
 		{"width out of range", "", []string{"render", "-width", "100", "../../grid/demo/campus.yaml"}, 2, "640"},
+		{"ssb table", "", []string{"ssb", "-band", "n78", "../../grid/demo/campus.yaml"}, 0, "8016    3744.480                649632              56    16"},
+		{"ssb unknown band", "", []string{"ssb", "-band", "n80", "../../grid/demo/campus.yaml"}, 2, "no SS raster entries"},
+		{"ssb wrong band spacing", "", []string{"ssb", "-band", "n1", "../../grid/demo/campus.yaml"}, 2, "no 30 kHz SS/PBCH blocks"},
+		{"ssb no frequency", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":30,"sizePrb":106}]}`, []string{"ssb", "-band", "n78", "-"}, 2, "carrier.centerMHz"},
+		{"ssb unknown format", "", []string{"ssb", "-format", "csv", "x.yaml"}, 2, "table or json"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			out, errOut, code := runCLI(t, c.stdin, c.args...)
@@ -172,6 +177,40 @@ func TestCheckExitCodes(t *testing.T) {
 				t.Errorf("output does not say %q:\n%s%s", c.say, out, errOut)
 			}
 		})
+	}
+}
+
+// "gridloom ssb -format json" lists the GSCNs with their placement; the
+// campus plan's own GSCN 8016 is among them with the offsets worked by hand
+// in render's TestSSBCampus (offsetToPointA 56, k_SSB 16).
+func TestSSBCommandJSON(t *testing.T) {
+	out, errOut, code := runCLI(t, "", "ssb", "-band", "n78", "-format", "json", "../../grid/demo/campus.yaml")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var doc struct {
+		Band      string `json:"band"`
+		Positions []struct {
+			GSCN           int     `json:"gscn"`
+			SSRefMHz       float64 `json:"ssRefMHz"`
+			OffsetToPointA int     `json:"offsetToPointA"`
+			KSSB           int     `json:"kSsb"`
+		} `json:"positions"`
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatalf("%v: %s", err, out)
+	}
+	found := false
+	for _, q := range doc.Positions {
+		if q.GSCN < 7711 || q.GSCN > 8051 {
+			t.Errorf("GSCN %d is outside n78's 7711 – 8051", q.GSCN)
+		}
+		if q.GSCN == 8016 {
+			found = q.SSRefMHz == 3744.48 && q.OffsetToPointA == 56 && q.KSSB == 16
+		}
+	}
+	if doc.Band != "n78" || !found {
+		t.Errorf("band %q; GSCN 8016 at 3744.48 MHz with 56/16 found: %v\n%s", doc.Band, found, out)
 	}
 }
 
@@ -199,7 +238,7 @@ func TestBrokenPlansExitOne(t *testing.T) {
 }
 
 func TestHelpOnEverySubcommand(t *testing.T) {
-	for _, cmd := range []string{"render", "check", "timing"} {
+	for _, cmd := range []string{"render", "check", "ssb", "timing"} {
 		_, errOut, code := runCLI(t, "", cmd, "-h")
 		if code != 0 || !strings.Contains(errOut, "Usage: gridloom "+cmd) {
 			t.Errorf("%s -h: exit %d, output %q", cmd, code, errOut)

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"fmt"
 	"io"
 	"slices"
@@ -13,16 +14,17 @@ import (
 // runTiming prints the timing of a plan as text tables: what each
 // partition's numerology buys in time, the guard against the cell range,
 // the BWP switch delays and, with an environment, the numerology advice.
-func runTiming(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
+func runTiming(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	fs := newFlags("timing", "PLAN", stderr)
-	if err := parseFlags(fs, args); err != nil {
-		return err
-	}
-	path, err := onePlanArg(fs)
+	pos, err := parseInterspersed(fs, args)
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(path, stdin)
+	path, err := onePlanArg(fs, pos)
+	if err != nil {
+		return err
+	}
+	p, err := readPlan(ctx, path, stdin)
 	if err != nil {
 		return err
 	}

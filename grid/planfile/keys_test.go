@@ -23,7 +23,7 @@ func full() grid.Plan {
 		TDD: &grid.TDDPlan{ReferenceSCSKHz: 15,
 			Pattern1: grid.TDDPattern{PeriodMs: 5, DownlinkSlots: 3, DownlinkSymbols: 6, UplinkSlots: 1, UplinkSymbols: 4},
 			Pattern2: &grid.TDDPattern{PeriodMs: 1, DownlinkSlots: 1, DownlinkSymbols: 1, UplinkSlots: 1, UplinkSymbols: 1}},
-		SSB:         &grid.SSBPlan{SCSKHz: 30, Case: "C", Bitmap: "1010", OffsetToPointA: 4, KSSB: 2, ScsCommonKHz: 30, PeriodMs: 20},
+		SSB:         &grid.SSBPlan{SCSKHz: 30, Case: "C", Bitmap: "1010", OffsetToPointA: 4, KSSB: 2, ScsCommonKHz: 30, PeriodMs: 20, GSCN: i(8016)},
 		Environment: &grid.EnvironmentPlan{DelaySpreadNs: 300, DelayProfile: "nominal", SpeedKmh: 120, CarrierMHz: 3500, CellRadiusKm: 5, LatencyTargetMs: 1},
 	}
 }
@@ -89,7 +89,7 @@ func TestKeysFromTags(t *testing.T) {
 		{keys.partition, "name scsKHz cp startCrb sizePrb locationAndBandwidth direction layers modulation ueCapability dmrsAdditionalPosition"},
 		{keys.tdd, "referenceScsKHz pattern1 pattern2"},
 		{keys.tddPattern, "periodMs downlinkSlots downlinkSymbols uplinkSlots uplinkSymbols"},
-		{keys.ssb, "scsKHz case bitmap offsetToPointA kSsb scsCommonKHz periodMs"},
+		{keys.ssb, "scsKHz case bitmap offsetToPointA kSsb scsCommonKHz periodMs gscn"},
 		{keys.environment, "delaySpreadNs delayProfile speedKmh carrierMHz cellRadiusKm latencyTargetMs"},
 	} {
 		if got := strings.Join(c.got, " "); got != c.want {
@@ -97,7 +97,7 @@ func TestKeysFromTags(t *testing.T) {
 		}
 	}
 	_, err := DecodeJSON([]byte(`{"carrier": {"bandwidth": 40}}`))
-	want := `carrier.bandwidth: unknown key "bandwidth"; the keys here are range, band, bandwidthMHz, centerMHz, arfcn, offsetToCarrier, carrierBandwidth, nTaOffset.`
+	want := `carrier.bandwidth: unknown key "bandwidth"; the keys here are range, band, bandwidthMHz, centerMHz, arfcn, offsetToCarrier, carrierBandwidth, nTaOffset. Did you mean bandwidthMHz?`
 	if err == nil || err.Error() != want {
 		t.Errorf("unknown key: %v\nwant %s", err, want)
 	}

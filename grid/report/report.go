@@ -16,6 +16,7 @@ import (
 
 // Document is the JSON document of one grid.Result, as Build makes it.
 type Document struct {
+	Spec       string         `json:"spec"` // the 3GPP release followed, grid.Spec
 	Plan       grid.Plan      `json:"plan"`
 	Channel    Channel        `json:"channel"`
 	Carriers   []Carrier      `json:"carriers"`
@@ -32,12 +33,24 @@ type Document struct {
 
 // SSB is the SS/PBCH configuration of a Document. Slot and symbol
 // of each block count in the block's own spacing over the span.
+//
+// SSRefKHz is SS_REF relative to point A; SSRefMHz, AbsoluteFrequencySSB
+// (its NR-ARFCN) and GSCN (when it is on the synchronization raster) are
+// present only when the plan ties the carrier to a frequency.
 type SSB struct {
-	Case       string     `json:"case"`
-	SCSKHz     int        `json:"scsKHz"`
-	Candidates int        `json:"candidates"`
-	PeriodMs   int        `json:"periodMs"`
-	Blocks     []SSBBlock `json:"blocks"`
+	Case                 string     `json:"case"`
+	SCSKHz               int        `json:"scsKHz"`
+	Candidates           int        `json:"candidates"`
+	BitmapForm           string     `json:"bitmapForm"`
+	PeriodMs             int        `json:"periodMs"`
+	OffsetToPointA       int        `json:"offsetToPointA"`
+	KSSB                 int        `json:"kSsb"`
+	ScsCommonKHz         int        `json:"scsCommonKHz"`
+	SSRefKHz             float64    `json:"ssRefKHz"`
+	SSRefMHz             *float64   `json:"ssRefMHz,omitempty"`
+	AbsoluteFrequencySSB *int       `json:"absoluteFrequencySSB,omitempty"`
+	GSCN                 *int       `json:"gscn,omitempty"`
+	Blocks               []SSBBlock `json:"blocks"`
 }
 
 // SSBBlock is one SS/PBCH block of an SSB.
@@ -149,6 +162,7 @@ type Partition struct {
 func Build(r grid.Result, symbols bool) Document {
 	ch := r.Channel
 	out := Document{
+		Spec: grid.Spec,
 		Plan: r.Plan,
 		Channel: Channel{Range: ch.Range.String(), BandwidthMHz: ch.BandwidthMHz,
 			LowKHz: ch.Low.KHz(), HighKHz: ch.High.KHz(), CenterKHz: ch.Center.KHz(), UsePercent: ch.UsePercent},
@@ -215,7 +229,18 @@ func Build(r grid.Result, symbols bool) Document {
 	out.Timing = planTiming(r.Timing)
 	out.Advice = r.Advice
 	if s := r.SSB; s != nil {
-		js := &SSB{Case: s.Case, SCSKHz: s.Numerology.SCSKHz(), Candidates: s.Candidates, PeriodMs: s.PeriodMs, Blocks: []SSBBlock{}}
+		js := &SSB{Case: s.Case, SCSKHz: s.Numerology.SCSKHz(), Candidates: s.Candidates, BitmapForm: s.BitmapForm,
+			PeriodMs: s.PeriodMs, OffsetToPointA: s.OffsetToPointA, KSSB: s.KSSB, ScsCommonKHz: s.ScsCommonKHz,
+			SSRefKHz: s.SSRef.KHz(), Blocks: []SSBBlock{}}
+		if s.Absolute {
+			js.SSRefMHz = ptr(s.SSRefHz.MHz())
+			if s.OnARFCNRaster {
+				js.AbsoluteFrequencySSB = ptr(s.AbsoluteFrequencySSB)
+			}
+			if s.OnSyncRaster {
+				js.GSCN = ptr(s.GSCN)
+			}
+		}
 		for _, b := range s.Blocks {
 			js.Blocks = append(js.Blocks, SSBBlock{Index: b.Index, Slot: b.Slot, Symbol: b.Symbol, StartTc: b.Start, EndTc: b.End, LowKHz: b.Low.KHz(), HighKHz: b.High.KHz()})
 		}

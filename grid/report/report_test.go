@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"gridloom/grid"
+	"gridloom/grid/demo"
 )
 
 func sample() grid.Result {
@@ -69,5 +70,22 @@ func TestChannelBand(t *testing.T) {
 	c := Build(r, false).Channel
 	if c.Band != "n3" || c.Duplex != "FDD" || c.ULARFCN == nil || *c.ULARFCN != 349500 || c.ULCenterMHz == nil || *c.ULCenterMHz != 1747.5 {
 		t.Errorf("channel %+v; want band n3, FDD, uplink 1747.5 MHz at NR-ARFCN 349500", c)
+	}
+}
+
+// The SS/PBCH block's raster facts reach the document: the campus demo
+// plan places its block by GSCN 8016. TS 38.101-1 Table 5.4.3.1-1 above
+// 3000 MHz: SS_REF = 3000 MHz + (8016 − 7499)·1.44 MHz = 3744.48 MHz; its
+// NR-ARFCN (TS 38.104 5.4.2.1, 15 kHz above 3000 MHz) is
+// 600000 + 744.48 MHz / 15 kHz = 649632.
+func TestSSBRaster(t *testing.T) {
+	p, err := demo.Load("campus")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := Build(grid.Compute(p), false).SSB
+	if s == nil || s.GSCN == nil || *s.GSCN != 8016 || s.SSRefMHz == nil || *s.SSRefMHz != 3744.48 ||
+		s.AbsoluteFrequencySSB == nil || *s.AbsoluteFrequencySSB != 649632 {
+		t.Errorf("ssb %+v; want GSCN 8016, SS_REF 3744.48 MHz, absoluteFrequencySSB 649632", s)
 	}
 }
