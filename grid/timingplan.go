@@ -439,9 +439,16 @@ func partitionTiming(p timing.Pattern, c timing.Capability, dmrs string) (Partit
 		out.ULHARQMin, out.ULHARQMax, out.ULHARQMean = Tc(ul.Min), Tc(ul.Max), ul.Mean
 	}
 	for _, n := range []int{timing.SymbolsPerSlot, 2, 4, 7} {
-		ls := Latencies{
-			DL: oneWay(p, timing.Downlink, n, proc, rt.Max),
-			UL: oneWay(p, timing.Uplink, n, proc, timing.Tc(out.ULHARQMax)),
+		ls := Latencies{DL: oneWay(p, timing.Downlink, n, proc, rt.Max)}
+		if ul := timing.Tc(out.ULHARQMax); p.FDD() && ls.DL != nil {
+			// On FDD both directions have every symbol: the same waits, only
+			// the round trip differs.
+			o := *ls.DL
+			o.MeanWithHARQ = o.Mean + timing.ExpectedRetxTime(RetxProbability, 1, ul)
+			o.WorstWithHARQ = o.Worst + Tc(ul)
+			ls.UL = &o
+		} else {
+			ls.UL = oneWay(p, timing.Uplink, n, proc, ul)
 		}
 		if n == timing.SymbolsPerSlot {
 			out.Slot = ls
