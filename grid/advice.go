@@ -154,6 +154,9 @@ func adviceRow(rng Range, n Numerology, c timing.Capability, hasFit bool, sigma,
 	if target > 0 {
 		cr := Criterion{Name: "latency-target", Rule: fmt.Sprintf("one-way latency of a slot against %g ms, the worse direction: suits when the worst case meets it, marginal when only the mean does", target/float64(TcPerSubframe))}
 		switch {
+		case !ok:
+			cr.Verdict = Poor
+			cr.Rule += "; the TDD pattern cannot be kept at this spacing, so no value"
 		case dl == nil || ul == nil:
 			cr.Verdict = Poor
 			cr.Rule += "; the pattern gives this spacing no slot in one direction, so no value"

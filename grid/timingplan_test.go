@@ -311,3 +311,69 @@ func TestAdviceLatencyAndRange(t *testing.T) {
 		t.Errorf("0.1 ms: chosen %+v, reason %q", a.Chosen, a.Reason)
 	}
 }
+
+// The advice's row for a partition's own numerology repeats the
+// partition's latency (the same walk on the same pattern), one row per
+// SCS and CP of the range.
+func TestAdviceRowsMatchPartitions(t *testing.T) {
+	p := dddsu30()
+	p.Partitions = append(p.Partitions, part("fast", 60, 0, 10))
+	p.Partitions[0].SizePRB = 100
+	p.Partitions[1].StartCRB = iptr(60)
+	p.Environment = &EnvironmentPlan{LatencyTargetMs: 4}
+	r := Compute(p)
+	if r.HasErrors() || r.Advice == nil {
+		t.Fatalf("findings %v", r.Findings)
+	}
+	if n := len(r.Advice.Rows); n != 4 {
+		t.Fatalf("%d rows in FR1, want 4 (15, 30, 60 and 60 extended)", n)
+	}
+	for _, l := range r.Partitions {
+		var row *AdviceRow
+		for i := range r.Advice.Rows {
+			if rr := &r.Advice.Rows[i]; rr.SCSKHz == l.Numerology.SCSKHz() && rr.CP == "normal" {
+				row = rr
+			}
+		}
+		want := adviceLatency(l.Timing.Slot.DL, l.Timing.Slot.UL)
+		if row == nil || row.LatencyUs == nil || *row.LatencyUs != *want {
+			t.Errorf("%s: advice row %+v, partition %+v", l.Name, row, want)
+		}
+	}
+	// 15 kHz cannot keep a 2.5 ms period (2.5 slots, TS 38.213 11.1).
+	r15 := r.Advice.Rows[0]
+	if r15.SCSKHz != 15 || r15.Note == "" || r15.Verdict != Poor || r15.LatencyUs != nil {
+		t.Errorf("15 kHz under a 2.5 ms pattern: %+v", r15)
+	}
+	for _, rng := range []string{"FR2-1", "FR2-2"} {
+		q := plan(100, part("all", 120, 0, 66))
+		q.Carrier.Range = rng
+		q.Environment = &EnvironmentPlan{CellRadiusKm: 1}
+		if n := len(Compute(q).Advice.Rows); n != 3 {
+			t.Errorf("%s: %d rows, want 3", rng, n)
+		}
+	}
+}
+
+// Below the reference spacing the pattern is kept in time: a 15 kHz
+// symbol spans two 30 kHz ones and is flexible unless both agree. With 5 ms
+// of DDDDDDDSUU at 30 kHz, 15 kHz slot 3 holds 30 kHz slots 6 (D) and 7
+// (10 D, 2 F, 2 U): 7 + 5 downlink symbols, one flexible, one uplink. The
+// guard is 30 kHz symbols 10–11 of slot 7, one 15 kHz symbol (symbol 12,
+// not the first of a half subframe), the same 140288 Tc.
+func TestAdviceBelowReference(t *testing.T) {
+	tdd := &TDDPlan{ReferenceSCSKHz: 30, Pattern1: TDDPattern{PeriodMs: 5, DownlinkSlots: 7, DownlinkSymbols: 10, UplinkSlots: 2, UplinkSymbols: 2}}
+	p := plan(100, part("all", 30, 0, 273))
+	p.TDD = tdd
+	r := Compute(p)
+	pat, ok := timingPattern(r.TDD, 0, 0)
+	if !ok || len(pat.Dir) != 5*14 {
+		t.Fatalf("15 kHz pattern: %v, %d symbols", ok, len(pat.Dir))
+	}
+	if got := string(pat.Dir[3*14 : 4*14]); got != "DDDDDDDDDDDDFU" {
+		t.Errorf("15 kHz slot 3 %s, want DDDDDDDDDDDDFU", got)
+	}
+	if g, n, ok := shortestGuard(pat); !ok || n != 1 || g != 140288 {
+		t.Errorf("guard %d Tc, %d symbols", g, n)
+	}
+}
