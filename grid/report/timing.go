@@ -141,3 +141,38 @@ func planTiming(t *grid.PlanTiming) *Timing {
 	}
 	return out
 }
+
+// CrossLink is the JSON of grid.CrossLinkConflicts, for a comparison of two
+// plans: the intervals on plan A's time (µs from A's frame start, within
+// one cycle of both patterns) where one transmits downlink while the other
+// receives uplink, and their total per 10 ms. Conflicts is empty, not
+// null, when the two are aligned.
+type CrossLink struct {
+	FrameOffsetUs   float64             `json:"frameOffsetUs"`
+	CycleUs         float64             `json:"cycleUs"`
+	Conflicts       []CrossLinkConflict `json:"conflicts"`
+	TotalPer10msUs  float64             `json:"totalPer10msUs"`
+	TotalPerCycleTc grid.Tc             `json:"totalPerCycleTc"`
+}
+
+// CrossLinkConflict is one interval of a CrossLink: A and B are the
+// directions of the two plans in it, "D" and "U" or "U" and "D".
+type CrossLinkConflict struct {
+	StartUs float64 `json:"startUs"`
+	EndUs   float64 `json:"endUs"`
+	StartTc grid.Tc `json:"startTc"`
+	EndTc   grid.Tc `json:"endTc"`
+	A       string  `json:"a"`
+	B       string  `json:"b"`
+}
+
+// BuildCrossLink returns the JSON form of c.
+func BuildCrossLink(c grid.CrossLink) CrossLink {
+	out := CrossLink{FrameOffsetUs: us(float64(c.Offset)), CycleUs: us(float64(c.Cycle)), Conflicts: []CrossLinkConflict{},
+		TotalPer10msUs: us(c.PerTenMs), TotalPerCycleTc: c.Total}
+	for _, k := range c.Conflicts {
+		out.Conflicts = append(out.Conflicts, CrossLinkConflict{StartUs: us(float64(k.Start)), EndUs: us(float64(k.End)),
+			StartTc: k.Start, EndTc: k.End, A: k.A.String(), B: k.B.String()})
+	}
+	return out
+}
