@@ -279,6 +279,30 @@ func shortestGuard(p timing.Pattern) (guard Tc, symbols int, ok bool) {
 	return guard, symbols, ok
 }
 
+// extendedGuardSymbols counts the flexible symbols of an extended-CP
+// partition in the shortest downlink-to-uplink turn of one period, by the
+// directions Directions gives it: its symbols do not nest in the normal-CP
+// reference symbols, so one that straddles the guard's edge is flexible too.
+func extendedGuardSymbols(t TDD, l Lattice) int {
+	one := l
+	one.SpanMs = int((t.Period + TcPerSubframe - 1) / TcPerSubframe)
+	dirs, _ := t.Directions(one)
+	dirs = dirs[:t.symbolsPerPeriod(l.Numerology)]
+	n, best := len(dirs), -1
+	for k := range n {
+		if dirs[k] != Downlink || dirs[(k+1)%n] == Downlink {
+			continue
+		}
+		j := k + 1
+		for ; j < k+n && dirs[j%n] == Flexible; j++ {
+		}
+		if dirs[j%n] == Uplink && (best < 0 || j-k-1 < best) {
+			best = j - k - 1
+		}
+	}
+	return max(best, 0)
+}
+
 // computeTiming fills the per-partition and the carrier's timing, and
 // warns (code range) when the stated cell radius is beyond the guard or the
 // timing advance.
@@ -334,7 +358,11 @@ func computeTiming(fs *findings, rng Range, in timingIn, tddRefused bool, res *R
 			fs.add(Warning, CodeTiming, l.Name, fmt.Sprintf("partitions[%d].scsKHz", l.Index), "Partition %q has no HARQ or latency estimate: %v", l.Name, err)
 			continue
 		}
-		if pt.HasGuard {
+		switch {
+		case !pt.HasGuard:
+		case l.Numerology.CP == ExtendedCP:
+			tm.GuardSymbols = extendedGuardSymbols(*res.TDD, *l)
+		default:
 			tm.GuardSymbols = pt.GuardSymbols[res.TDD.Reference.SCSKHz()] << (mu - res.TDD.Reference.Mu)
 			pt.GuardSymbols[l.Numerology.SCSKHz()] = tm.GuardSymbols
 		}

@@ -377,3 +377,24 @@ func TestAdviceBelowReference(t *testing.T) {
 		t.Errorf("guard %d Tc, %d symbols", g, n)
 	}
 }
+
+// An extended-CP partition counts its own symbols in the guard: at 60 kHz
+// a symbol lasts (2048 + 512)·64/4 = 40960 Tc. Under DDDSU at 30 kHz
+// (10:2:2) the guard, 30 kHz symbols 10–11 of slot 3, runs from 1.5 ms +
+// 1024 + 10·70144 Tc to 1.5 ms + 1024 + 12·70144 Tc, that is 702464 to
+// 842752 Tc into the half subframe at 1.5 ms. Extended-CP symbols start
+// every 40960 Tc from 1.5 ms: symbol 17 (696320 to 737280) straddles the
+// start, 18 to 19 (737280 to 819200) lie inside, 20 (819200 to 860160)
+// straddles the end. Symbols 17 and 20 hold downlink and uplink edges
+// with flexible time, so they are flexible too: 4 symbols in all.
+func TestExtendedCPGuardSymbols(t *testing.T) {
+	p := dddsu30()
+	p.Partitions = []PartitionPlan{{Name: "ecp", SCSKHz: 60, CP: "extended", StartCRB: iptr(0), SizePRB: 100}}
+	r := Compute(p)
+	if tm := r.Partitions[0].Timing; tm == nil || tm.GuardSymbols != 4 {
+		t.Fatalf("extended CP guard: %+v, findings %v", tm, r.Findings)
+	}
+	if _, ok := r.Timing.GuardSymbols[60]; ok {
+		t.Errorf("the normal-CP guard table counts extended-CP symbols: %v", r.Timing.GuardSymbols)
+	}
+}
