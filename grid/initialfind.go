@@ -212,7 +212,7 @@ func whyNone(table coreset0.Table, r *Result, reasons []string) string {
 			table, narrowest, common, fmtKHz(width), ch.BandwidthMHz)
 	}
 	if len(reasons) > 3 {
-		reasons = append(reasons[:3:3], fmt.Sprintf("and %d more", len(reasons)-3))
+		reasons = append(reasons[:3:3], fmt.Sprintf("(%d more reasons of other kinds.)", len(reasons)-3))
 	}
 	return "No row of " + table.String() + " passes the checks: " + strings.Join(reasons, " ")
 }
