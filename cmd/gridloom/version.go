@@ -4,12 +4,9 @@ import (
 	"fmt"
 	"io"
 	"runtime/debug"
-)
 
-// specRelease names the 3GPP release whose tables and rules gridloom
-// implements, so that a figure or a finding can be traced to the text it
-// follows.
-const specRelease = "3GPP Release 17"
+	"gridloom/grid"
+)
 
 // runVersion prints the module version, the VCS state the binary was built
 // from (when the build recorded it), the Go version and the 3GPP release.
@@ -64,5 +61,5 @@ func versionText(bi *debug.BuildInfo, ok bool) string {
 	if goVersion != "" {
 		out += "go: " + goVersion + "\n"
 	}
-	return out + "spec: " + specRelease + "\n"
+	return out + "spec: " + grid.Spec + "\n"
 }
