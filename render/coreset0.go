@@ -2,6 +2,7 @@ package render
 
 import (
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -34,31 +35,26 @@ type coresetDrawing struct {
 	data        []attr
 }
 
-// planCoreset0 places the occasions that start within the span.
+// planCoreset0 places the occasions that start within the span: one
+// rectangle per group of occasions that share their symbols
+// (InitialAccess.OccasionGroups), groups that touch once widened to
+// minStrip drawn as one.
 func planCoreset0(ia grid.InitialAccess, f frame) *coresetDrawing {
 	c := ia.CORESET0
 	d := &coresetDrawing{top: f.Y(c.High), bottom: f.Y(c.Low)}
 	seen := map[int]bool{}
-	var ssbs, starts, ends strings.Builder
-	for _, o := range ia.Occasions {
-		if o.Start >= f.span {
+	for _, og := range ia.OccasionGroups() {
+		if og.Start >= f.span {
 			continue
 		}
-		d.count++
-		if !seen[o.SSBIndex] {
-			seen[o.SSBIndex] = true
-			d.shown = append(d.shown, o.SSBIndex)
+		d.count += len(og.SSBIndexes)
+		for _, k := range og.SSBIndexes {
+			if !seen[k] {
+				seen[k] = true
+				d.shown = append(d.shown, k)
+			}
 		}
-		if ssbs.Len() > 0 {
-			ssbs.WriteByte(' ')
-			starts.WriteByte(' ')
-			ends.WriteByte(' ')
-		}
-		ssbs.WriteString(strconv.Itoa(o.SSBIndex))
-		starts.WriteString(strconv.FormatInt(int64(o.Start), 10))
-		ends.WriteString(strconv.FormatInt(int64(o.End), 10))
-
-		x0, x1 := f.X(o.Start), f.X(min(o.End, f.span))
+		x0, x1 := f.X(og.Start), f.X(min(og.End, f.span))
 		if x1-x0 < minStrip {
 			mid := (x0 + x1) / 2
 			x0, x1 = mid-minStrip/2, mid+minStrip/2
@@ -71,10 +67,25 @@ func planCoreset0(ia grid.InitialAccess, f frame) *coresetDrawing {
 		if n := len(d.groups); n > 0 && x0-d.groups[n-1].x1 < ssbGroupGap {
 			g := &d.groups[n-1]
 			g.x1 = max(g.x1, x1)
-			g.indices = append(g.indices, o.SSBIndex)
+			g.indices = append(g.indices, og.SSBIndexes...)
 		} else {
-			d.groups = append(d.groups, ssbGroup{x0: x0, x1: x1, indices: []int{o.SSBIndex}})
+			d.groups = append(d.groups, ssbGroup{x0: x0, x1: x1, indices: slices.Clone(og.SSBIndexes)})
 		}
+	}
+	slices.Sort(d.shown)
+	var ssbs, starts, ends strings.Builder
+	for _, o := range ia.Occasions {
+		if o.Start >= f.span {
+			continue
+		}
+		if ssbs.Len() > 0 {
+			ssbs.WriteByte(' ')
+			starts.WriteByte(' ')
+			ends.WriteByte(' ')
+		}
+		ssbs.WriteString(strconv.Itoa(o.SSBIndex))
+		starts.WriteString(strconv.FormatInt(int64(o.Start), 10))
+		ends.WriteString(strconv.FormatInt(int64(o.End), 10))
 	}
 	// For a page's readout: CORESET#0's place, and each occasion drawn, in
 	// time order: its SS/PBCH index and its start and end in Tc.
