@@ -99,7 +99,7 @@ const (
 	LayerGuards                    // guardbands, unused spectrum, minimum guardbands on the rail
 	LayerLabels                    // names in the plot, TDD letters, SS/PBCH labels, notes beside the rail
 	LayerTDD                       // TDD direction bands and the wash over the other direction
-	LayerSSB                       // SS/PBCH blocks and the band's synchronization raster
+	LayerSSB                       // SS/PBCH blocks, the sync raster, CORESET#0 and its occasions, the initial BWPs
 	allLayers    Layer = 1<<iota - 1
 )
 
@@ -108,7 +108,7 @@ var layerNames = []string{"lattice", "cp", "guards", "labels", "tdd", "ssb"}
 
 // layerTitles says what each layer draws, in words for a form's
 // checkboxes, in the order of layerNames.
-var layerTitles = []string{"lattice lines", "cyclic prefixes", "guardbands", "labels", "TDD directions", "SS/PBCH blocks and sync raster"}
+var layerTitles = []string{"lattice lines", "cyclic prefixes", "guardbands", "labels", "TDD directions", "SS/PBCH blocks and initial access"}
 
 // LayerTitles returns a few words for each layer, in the order of
 // LayerNames, so that a page lists every layer render has without keeping
