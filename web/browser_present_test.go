@@ -17,6 +17,7 @@ import (
 	"github.com/chromedp/chromedp/kb"
 
 	"gridloom/grid"
+	"gridloom/web/planform"
 )
 
 // The browser tests of the walkthrough, the comparison and opening a saved
@@ -214,7 +215,7 @@ func TestBrowserCompare(t *testing.T) {
 	pa, _ := comparePlans(t)
 	tb := newTab(t, 1440, 1000)
 	// "Compare with…" from the planner: the plan as A, its copy as B.
-	tb.open(srv.URL + "/?" + FormOf(pa).Query())
+	tb.open(srv.URL + "/?" + planform.FormOf(pa).Query())
 	tb.do("opening the comparison", chromedp.Click(chromedp.CSS(`[data-testid=open-compare]`)))
 	tb.waitAcross("the comparison", `document.getElementById('b-gl-plot') !== null && document.readyState === 'complete'`)
 	tb.do("marking the window", chromedp.Evaluate[chromedp.Void](`window.glMarker = 'still here';
@@ -270,7 +271,7 @@ func TestBrowserCompare(t *testing.T) {
 func TestBrowserDropFigure(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	port := testConfig(t).Demos[1].Plan
-	svg := get(t, srv, "/figure.svg?"+FormOf(port).Query())
+	svg := get(t, srv, "/figure.svg?"+planform.FormOf(port).Query())
 	wantStatus(t, svg, 200)
 	dir := t.TempDir()
 	path := filepath.Join(dir, "saltmarsh.svg")
@@ -302,7 +303,7 @@ func TestBrowserDropFigure(t *testing.T) {
 
 	drop(path)
 	tb.waitAcross("the dropped plan", `document.getElementById('f-name') && document.getElementById('f-name').value === 'Saltmarsh port 100 MHz' && document.readyState === 'complete'`)
-	want := "/?" + joinQuery(FormOf(port).Query(), "fig.theme=print")
+	want := "/?" + planform.JoinQuery(planform.FormOf(port).Query(), "fig.theme=print")
 	if got := eval[string](tb, `location.pathname + location.search`); got != want {
 		t.Errorf("after the drop the address is %s, want %s (the plan, and the page's figure options)", got, want)
 	}
@@ -350,7 +351,7 @@ func TestScreenshotPresent(t *testing.T) {
 		{"walk.png", "/walk?" + q + "&step=part-1", 1440, 900, false},
 		{"projector.png", "/walk?" + q + "&step=align&view=projector", 1920, 1080, false},
 		{"walk-print.png", "/walk?" + q + "&view=print&fig.theme=print", 1123, 794, true},
-		{"compare.png", "/compare?" + compareQuery(FormOf(pa), FormOf(pb), FigureForm{}), 1440, 1400, false},
+		{"compare.png", "/compare?" + planform.CompareQuery(planform.FormOf(pa), planform.FormOf(pb), planform.FigureForm{}), 1440, 1400, false},
 	} {
 		tb := newTab(t, c.w, c.h)
 		tb.do("opening "+c.file, chromedp.Navigate(srv.URL+c.path))

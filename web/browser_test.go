@@ -18,6 +18,7 @@ import (
 	"github.com/chromedp/chromedp/kb"
 
 	"gridloom/grid"
+	"gridloom/web/planform"
 )
 
 // The browser tests drive Chromium headless against the real server, figure
@@ -445,7 +446,7 @@ func TestBrowserReadout(t *testing.T) {
 	for _, c := range cases {
 		res := grid.Compute(plans[c.plan])
 		if opened != c.plan {
-			tb.open(srv.URL + "/?" + FormOf(plans[c.plan]).Query())
+			tb.open(srv.URL + "/?" + planform.FormOf(plans[c.plan]).Query())
 			tb.do("watching the pointer", chromedp.Evaluate[chromedp.Void](`document.addEventListener('pointermove', e => { window.glPointer = [e.clientX, e.clientY]; }, true);
 				document.getElementById('gl-figure').scrollIntoView({block: 'center'})`))
 			opened = c.plan

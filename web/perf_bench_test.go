@@ -15,6 +15,7 @@ import (
 	"testing"
 
 	"gridloom/grid/planfile"
+	"gridloom/web/planform"
 )
 
 // Benchmarks of the HTTP stack: the page, fragment and figure handlers
@@ -35,7 +36,7 @@ func perfPlans(b testing.TB) (names []string, queries map[string]string) {
 	queries = map[string]string{}
 	for _, d := range testConfig(b).Demos {
 		names = append(names, d.Name)
-		queries[d.Name] = FormOf(d.Plan).Query()
+		queries[d.Name] = planform.FormOf(d.Plan).Query()
 	}
 	data, err := os.ReadFile("../testdata/stress/fr2-2-2000mhz.yaml")
 	if err != nil {
@@ -46,7 +47,7 @@ func perfPlans(b testing.TB) (names []string, queries map[string]string) {
 		b.Fatal(err)
 	}
 	names = append(names, "stress")
-	queries["stress"] = FormOf(p).Query()
+	queries["stress"] = planform.FormOf(p).Query()
 	return names, queries
 }
 

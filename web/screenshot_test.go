@@ -11,6 +11,7 @@ import (
 	"github.com/chromedp/chromedp"
 
 	"gridloom/grid"
+	"gridloom/web/planform"
 )
 
 var screenshot = flag.Bool("screenshot", false, "write the README screenshot to testdata/screenshot/page.png")
@@ -26,7 +27,7 @@ func TestScreenshot(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, width, height)
 	plan := testConfig(t).Plan
-	tb.open(srv.URL + "/?" + FormOf(plan).Query())
+	tb.open(srv.URL + "/?" + planform.FormOf(plan).Query())
 	tb.do("watching the pointer", chromedp.Evaluate[chromedp.Void](`document.addEventListener('pointermove', e => { window.glPointer = [e.clientX, e.clientY]; }, true)`))
 
 	res := grid.Compute(plan)

@@ -1,0 +1,573 @@
+package web
+
+import (
+	"fmt"
+	"slices"
+	"strconv"
+	"strings"
+
+	"gridloom/grid"
+	"gridloom/render"
+	"gridloom/web/planform"
+)
+
+// The form's view: its controls, sections and partitions, and the box of
+// figure options, with the messages beside the controls they concern.
+
+// note is one message beside a control.
+type note struct {
+	Severity string // "error", "warning" or "info"
+	Text     string
+}
+
+type option struct {
+	Value, Label string
+	Selected     bool
+}
+
+// control is one labelled input or select of the form.
+type control struct {
+	ID, Name, Label, Value string
+	Placeholder            string
+	InputMode              string // for text inputs: "numeric", "decimal" or ""
+	Size                   string // columns of the form's 12-column grid: "2" to "6", or "12"
+	Options                []option
+	Notes                  []note
+}
+
+func (c control) isSelect() bool { return c.Options != nil }
+
+func (c control) invalid() bool {
+	return slices.ContainsFunc(c.Notes, func(n note) bool { return n.Severity == string(grid.Error) })
+}
+
+// group is a fieldset or section that findings can point at as a whole.
+type group struct {
+	ID    string
+	Notes []note
+}
+
+type formView struct {
+	// IDPrefix is put before every id of the form ("" on the planner,
+	// "a-" or "b-" for a side of the comparison) and OpName is the query
+	// key its edit buttons send ("op", or "a.op" …).
+	IDPrefix string
+	OpName   string
+	Shape    string // changes whenever the set of controls does
+	General  []note // messages that concern no control on the form
+	Plan     []control
+	Carrier  []control
+	Carriers group // carrier.offsetToCarrier and carrier.carrierBandwidth as a whole
+	SCSOpen  bool  // show the SCS-specific carriers unfolded
+	SCSRows  []scsRow
+	TDD      section
+	SSB      section
+	Env      section
+	PartsBox group // partitions as a whole
+	Parts    []partView
+	CanAdd   bool
+	Figure   *figureView // the figure's options; nil where the page has its own box
+}
+
+// id is the form's id for name.
+func (f formView) id(name string) string { return f.IDPrefix + name }
+
+// section is an optional block of the plan (TDD, SS/PBCH, environment):
+// rows of controls, open when it holds a value or a message.
+type section struct {
+	Group   group
+	Title   string
+	Hint    string
+	Summary string // what the plan makes of it, e.g. "DDDSU on 15 kHz"
+	Rows    []sectionRow
+	Open    bool
+	ClearOp string
+	OpName  string // the query key of the clear button
+	ClearID string // the id of the clear button
+}
+
+type sectionRow struct {
+	Label    string
+	Controls []control
+}
+
+type scsRow struct {
+	SCSKHz    int
+	Offset    control
+	CarrierBW control
+	InUse     bool
+}
+
+type partView struct {
+	Index       int
+	Group       group
+	Legend      string
+	LegendID    string
+	Controls    []control
+	First, Last bool
+	Label       string // the partition's name, or its number, for button labels
+	IDPrefix    string // as formView's
+	OpName      string
+}
+
+// noteID is the id of the messages beside the control id, which the
+// control names in aria-describedby.
+func noteID(id string) string { return "n-" + id }
+
+// buttonID is the id of the partition's edit button verb.
+func (p partView) buttonID(verb string) string { return p.IDPrefix + planform.ButtonID(verb, p.Index) }
+
+func buildForm(s planform.State, notes map[string][]note) formView {
+	f := s.Form
+	rng := planform.RangeOf(f.Range)
+	shown := map[string]bool{} // ids of the controls and groups on the form
+	take := func(id string) []note {
+		shown[id] = true
+		return notes[id]
+	}
+	// text and choice make the control of a plan-level field from its key.
+	// Each control takes its label and value from the field's row of
+	// planform.Fields; the view adds only the layout.
+	text := func(key, size, mode, placeholder string) control {
+		id := planform.KeyID(key)
+		f := f
+		return control{ID: id, Name: key, Label: planform.FieldOf(key).Label, Value: *f.Value(key), Size: size, InputMode: mode,
+			Placeholder: placeholder, Notes: take(id)}
+	}
+	choice := func(key, size string, opts []option) control {
+		c := text(key, size, "", "")
+		c.Options = opts
+		return c
+	}
+	fv := formView{CanAdd: len(f.Parts) < grid.MaxPartitions, OpName: planform.KeyOp}
+
+	spans := []option{{Value: "", Label: "auto (TDD period or 1)"}}
+	for i := 1; i <= grid.MaxSpanMs; i++ {
+		spans = append(spans, option{Value: strconv.Itoa(i), Label: strconv.Itoa(i)})
+	}
+	fv.Plan = []control{
+		text("name", "12", "", "untitled"),
+		choice("span", "6", pick(spans, f.Span, nil)),
+		text("gap", "6", "decimal", "1 PRB of the wider SCS"),
+	}
+
+	scsInUse := s.SCSInUse()
+	fv.Carrier = []control{
+		choice("range", "6", pick(plain(grid.RangeNames()), orDefault(f.Range, grid.DefaultRange), nil)),
+		choice("bw", "6", bandwidthOptions(rng, scsInUse, f.Bandwidth)),
+		text("fc", "6", "decimal", placeholderCenter(s.Result)),
+		text("arfcn", "6", "numeric", placeholderARFCN(s.Result)),
+	}
+
+	// One row per data SCS of the range, and per spacing the form names
+	// besides, so that nothing typed disappears when the range changes.
+	scsList := rng.DataSCS()
+	for _, m := range []map[int]string{f.Offset, f.CarrierBW} {
+		for scs := range m {
+			if !slices.Contains(scsList, scs) {
+				scsList = append(scsList, scs)
+			}
+		}
+	}
+	slices.Sort(scsList)
+	for _, scs := range scsList {
+		row := scsRow{SCSKHz: scs, InUse: slices.Contains(scsInUse, scs)}
+		offKey, cbwKey := planform.OffsetKey(scs), planform.CarrierBWKey(scs)
+		offID, cbwID := planform.KeyID(offKey), planform.KeyID(cbwKey)
+		row.Offset = control{ID: offID, Name: offKey, Label: fmt.Sprintf("offsetToCarrier at %d kHz (CRBs)", scs),
+			Value: f.Offset[scs], Size: "12", InputMode: "numeric", Notes: take(offID)}
+		row.CarrierBW = control{ID: cbwID, Name: cbwKey, Label: fmt.Sprintf("carrierBandwidth at %d kHz (PRBs)", scs),
+			Value: f.CarrierBW[scs], Size: "12", InputMode: "numeric", Notes: take(cbwID)}
+		if c, ok := s.Result.Carrier(scs); ok {
+			row.Offset.Placeholder = strconv.Itoa(c.OffsetToCarrier)
+			row.CarrierBW.Placeholder = strconv.Itoa(c.CarrierBandwidth)
+		} else if n, ok := rng.NRB(scs, s.Plan.Carrier.BandwidthMHz); ok {
+			row.CarrierBW.Placeholder = strconv.Itoa(n)
+		}
+		if row.Offset.Value != "" || row.CarrierBW.Value != "" || hasSerious(row.Offset.Notes) || hasSerious(row.CarrierBW.Notes) {
+			fv.SCSOpen = true
+		}
+		fv.SCSRows = append(fv.SCSRows, row)
+	}
+	fv.Carriers = group{ID: planform.IDCarriers, Notes: take(planform.IDCarriers)}
+	if hasSerious(fv.Carriers.Notes) {
+		fv.SCSOpen = true
+	}
+
+	// TDD pattern.
+	refOpts := []option{{Value: "", Label: "—"}}
+	for _, scs := range rng.DataSCS() {
+		refOpts = append(refOpts, option{Value: strconv.Itoa(scs), Label: strconv.Itoa(scs)})
+	}
+	periods := []option{{Value: "", Label: "—"}}
+	for _, ms := range grid.TDDPeriodsMs {
+		v := strconv.FormatFloat(ms, 'f', -1, 64)
+		periods = append(periods, option{Value: v, Label: v})
+	}
+	patternRow := func(prefix, label string) sectionRow {
+		return sectionRow{Label: label, Controls: []control{
+			choice(prefix+".ms", "4", pick(periods, *f.Value(prefix + ".ms"), nil)),
+			text(prefix+".dl", "2", "numeric", ""),
+			text(prefix+".dlsym", "2", "numeric", ""),
+			text(prefix+".ulsym", "2", "numeric", ""),
+			text(prefix+".ul", "2", "numeric", ""),
+		}}
+	}
+	fv.TDD = section{
+		Group: group{ID: planform.IDTDD, Notes: take(planform.IDTDD)}, Title: "TDD pattern", ClearOp: "clear.tdd",
+		Hint: "TDD-UL-DL-ConfigCommon: downlink slots and symbols open each period, uplink symbols and slots close it, the rest is flexible. Leave it empty for no pattern.",
+		Rows: []sectionRow{
+			{Label: "Reference", Controls: []control{choice("tdd.ref", "6", pick(refOpts, f.TDD.Ref, nil))}},
+			patternRow("tdd", "Pattern 1"),
+			patternRow("tdd2", "Pattern 2 (optional)"),
+		},
+	}
+	if t := s.Result.TDD; t != nil {
+		fv.TDD.Summary = fmt.Sprintf("%s on %d kHz, every %s ms", t.SlotString(), t.Reference.SCSKHz(),
+			strconv.FormatFloat(float64(t.Period)/float64(grid.TcPerSubframe), 'f', -1, 64))
+	}
+
+	// SS/PBCH blocks.
+	cases := []option{{Value: "", Label: "from the SCS"}}
+	for _, c := range []string{"A", "B", "C", "D", "E", "F", "G"} { // TS 38.213 4.1
+		cases = append(cases, option{Value: c, Label: c})
+	}
+	ssbPeriods := []option{{Value: "", Label: "20 (default)"}}
+	for _, ms := range grid.SSBPeriodsMs {
+		ssbPeriods = append(ssbPeriods, option{Value: strconv.Itoa(ms), Label: strconv.Itoa(ms)})
+	}
+	fv.SSB = section{
+		Group: group{ID: planform.IDSSB, Notes: take(planform.IDSSB)}, Title: "SS/PBCH blocks", ClearOp: "clear.ssb",
+		Hint: "offsetToPointA counts RBs of 15 kHz (FR1) or 60 kHz (FR2); k_SSB counts subcarriers. The bitmap is ssb-PositionsInBurst, empty for every candidate.",
+		Rows: []sectionRow{
+			{Label: "Blocks", Controls: []control{
+				text("ssb.scs", "4", "numeric", ""),
+				choice("ssb.case", "4", pick(cases, f.SSB.Case, nil)),
+				choice("ssb.period", "4", pick(ssbPeriods, f.SSB.Period, nil)),
+				text("ssb.bitmap", "12", "numeric", "all candidates"),
+			}},
+			{Label: "Position", Controls: []control{
+				text("ssb.off", "4", "numeric", ""),
+				text("ssb.k", "4", "numeric", "0"),
+				text("ssb.common", "4", "numeric", ""),
+			}},
+		},
+	}
+	if b := s.Result.SSB; b != nil {
+		fv.SSB.Summary = fmt.Sprintf("case %s, %d of %d candidates sent in the span", b.Case, len(b.Blocks), b.Candidates)
+	}
+
+	// Radio channel for the numerology fit.
+	profiles := []option{{Value: "", Label: "— (give a spread)"}}
+	for _, d := range grid.DelayProfiles {
+		profiles = append(profiles, option{Value: d.Name, Label: fmt.Sprintf("%s (%s ns)", d.Name, strconv.FormatFloat(d.Ns, 'f', -1, 64))})
+	}
+	fv.Env = section{
+		Group: group{ID: planform.IDEnv, Notes: take(planform.IDEnv)}, Title: "Radio channel", ClearOp: "clear.env",
+		Hint: "For the numerology fit: first-order rules that weigh CP against delay spread and SCS against Doppler. Leave it empty to skip the fit.",
+		Rows: []sectionRow{{Label: "Channel", Controls: []control{
+			choice("env.profile", "6", pick(profiles, f.Env.Profile, nil)),
+			text("env.ds", "6", "decimal", ""),
+			text("env.speed", "6", "decimal", "0"),
+			text("env.fc", "6", "decimal", placeholderCenter(s.Result)),
+		}}},
+	}
+	if fit := s.Result.Fit; fit != nil {
+		fv.Env.Summary = fmt.Sprintf("the rules favour %d kHz %s CP", fit.Suggested.SCSKHz, fit.Suggested.CP)
+	}
+	for _, sec := range []*section{&fv.TDD, &fv.SSB, &fv.Env} {
+		sec.OpName, sec.ClearID = planform.KeyOp, "b-"+sec.ClearOp
+		sec.Open = sec.Summary != "" || hasSerious(sec.Group.Notes)
+		for _, row := range sec.Rows {
+			for _, c := range row.Controls {
+				if strings.TrimSpace(c.Value) != "" || hasSerious(c.Notes) {
+					sec.Open = true
+				}
+			}
+		}
+	}
+
+	fv.PartsBox = group{ID: planform.IDParts, Notes: take(planform.IDParts)}
+	for i, p := range f.Parts {
+		fv.Parts = append(fv.Parts, buildPart(s, i, p, rng, take))
+	}
+	take(planform.IDAdd)
+	take(planform.IDFile)
+
+	// Whatever no control on the form took goes on top of the form.
+	for _, id := range sortedKeys(notes) {
+		if !shown[id] {
+			fv.General = append(fv.General, notes[id]...)
+		}
+	}
+	fv.Shape = formShape(f, scsList)
+	return fv
+}
+
+func plain(vals []string) []option {
+	out := make([]option, len(vals))
+	for i, v := range vals {
+		out[i] = option{Value: v, Label: v}
+	}
+	return out
+}
+
+func buildPart(s planform.State, i int, p planform.PartForm, rng grid.Range, take func(string) []note) partView {
+	id := func(k string) string { return planform.PartControlID(i, k) }
+	scsOpts := make([]string, 0, 4)
+	for _, scs := range rng.DataSCS() {
+		scsOpts = append(scsOpts, strconv.Itoa(scs))
+	}
+	dir := orDefault(p.Dir, grid.DefaultDirection)
+	maxLayers := grid.Direction(strings.ToUpper(dir)).MaxLayers()
+	layerOpts := make([]string, maxLayers)
+	for k := range layerOpts {
+		layerOpts[k] = strconv.Itoa(k + 1)
+	}
+	label := strings.TrimSpace(p.Name)
+	if label == "" {
+		label = fmt.Sprintf("partition %d", i+1)
+	}
+	pv := partView{
+		Index: i, Group: group{ID: planform.PartGroupID(i), Notes: take(planform.PartGroupID(i))},
+		Legend: fmt.Sprintf("%d · %s", i+1, label), Label: label, LegendID: fmt.Sprintf("l-p%d", i),
+		First: i == 0, Last: i == len(s.Form.Parts)-1, OpName: planform.KeyOp,
+	}
+	var placed *grid.Lattice
+	for k := range s.Result.Partitions {
+		if s.Result.Partitions[k].Index == i {
+			placed = &s.Result.Partitions[k]
+		}
+	}
+	// Each control takes its key, label and value from the field's row of
+	// planform.Fields; the view adds only the layout and the choices.
+	f := s.Form
+	ctl := func(key, size, mode string, opts []option) control {
+		fl := planform.PartFieldOf(key)
+		return control{ID: id(key), Name: fl.FullKey(i), Label: fl.Label, Value: *fl.Value(&f, i), Size: size, InputMode: mode,
+			Options: opts, Notes: take(id(key))}
+	}
+	start, size, riv := ctl("start", "3", "numeric", nil), ctl("size", "3", "numeric", nil), ctl("riv", "6", "numeric", nil)
+	if placed != nil {
+		start.Placeholder = strconv.Itoa(placed.StartCRB)
+		size.Placeholder = strconv.Itoa(placed.SizePRB)
+		if placed.LocationAndBandwidth >= 0 {
+			riv.Placeholder = strconv.Itoa(placed.LocationAndBandwidth)
+		}
+	}
+	pv.Controls = []control{
+		ctl("name", "5", "", nil),
+		ctl("scs", "3", "", pick(plain(scsOpts), p.SCS, func(v string) string { return "not a data SCS of " + rng.String() })),
+		ctl("cp", "4", "", pick(plain([]string{"normal", "extended"}), orDefault(p.CP, grid.DefaultCP), nil)),
+		start, size, riv,
+		ctl("dir", "4", "", pick(plain([]string{"DL", "UL"}), dir, nil)),
+		ctl("layers", "4", "", pick(plain(layerOpts), orDefault(p.Layers, "1"), func(string) string { return fmt.Sprintf("%s allows 1 to %d", dir, maxLayers) })),
+		ctl("mod", "4", "", pick(plain(grid.ModulationNames()), orDefault(p.Mod, grid.DefaultModulation), nil)),
+	}
+	for _, b := range []string{"up", "down", "dup", "del"} {
+		take(planform.ButtonID(b, i))
+	}
+	return pv
+}
+
+// pick marks cur selected among the allowed options. A current value that
+// is not allowed stays in the list, marked, so that it is neither lost nor
+// silently replaced; why says what is wrong with it.
+func pick(allowed []option, cur string, why func(string) string) []option {
+	out := make([]option, 0, len(allowed)+1)
+	found := false
+	for _, a := range allowed {
+		a.Selected = a.Value == cur
+		found = found || a.Selected
+		out = append(out, a)
+	}
+	if !found {
+		label := cur + " (not allowed)"
+		if cur == "" {
+			label = "(choose)"
+		} else if why != nil {
+			label = cur + " (" + why(cur) + ")"
+		}
+		out = append([]option{{Value: cur, Label: label, Selected: true}}, out...)
+	}
+	return out
+}
+
+// bandwidthOptions offers the channel bandwidths that every spacing in use
+// allows in the range, or all of the range's when no spacing is usable.
+func bandwidthOptions(rng grid.Range, scsInUse []int, cur string) []option {
+	var allowed []int
+	if len(scsInUse) == 0 {
+		allowed = rng.AllBandwidths()
+	} else {
+		allowed = rng.Bandwidths(scsInUse[0])
+		for _, scs := range scsInUse[1:] {
+			other := rng.Bandwidths(scs)
+			allowed = slices.DeleteFunc(allowed, func(bw int) bool { return !slices.Contains(other, bw) })
+		}
+	}
+	vals := make([]string, len(allowed))
+	for i, bw := range allowed {
+		vals[i] = strconv.Itoa(bw)
+	}
+	why := func(string) string {
+		if len(scsInUse) == 0 {
+			return "not a channel bandwidth of " + rng.String()
+		}
+		return "not defined for " + grid.JoinInts(scsInUse) + " kHz in " + rng.String()
+	}
+	if len(vals) == 0 && len(scsInUse) > 0 {
+		// The spacings in use share no bandwidth: offer the range's, and
+		// let the findings say which spacing cannot have it.
+		return bandwidthOptions(rng, nil, cur)
+	}
+	return pick(plain(vals), strings.TrimSpace(cur), why)
+}
+
+func orDefault(s, def string) string {
+	if strings.TrimSpace(s) == "" {
+		return def
+	}
+	return s
+}
+
+func hasSerious(ns []note) bool {
+	return slices.ContainsFunc(ns, func(n note) bool { return n.Severity != string(grid.Info) })
+}
+
+func placeholderCenter(res grid.Result) string {
+	if res.Channel.Absolute {
+		return strconv.FormatFloat(res.Channel.CenterHz.MHz(), 'f', -1, 64)
+	}
+	return "none"
+}
+
+func placeholderARFCN(res grid.Result) string {
+	if res.Channel.Absolute && res.Channel.OnRaster {
+		return strconv.Itoa(res.Channel.ARFCN)
+	}
+	return "none"
+}
+
+// formShape names the set of controls: the live script swaps the whole form
+// when it changes and patches it in place otherwise.
+func formShape(f planform.Form, scsRows []int) string {
+	parts := make([]string, len(scsRows))
+	for i, scs := range scsRows {
+		parts[i] = strconv.Itoa(scs)
+	}
+	return fmt.Sprintf("p%d;scs%s", len(f.Parts), strings.Join(parts, ","))
+}
+
+// figureView is the form's box of figure options.
+type figureView struct {
+	Group   group
+	Open    bool
+	Width   control
+	Theme   control
+	Caption control
+	// Layers is one checkbox per layer, or, when the typed list does not
+	// parse, LayersText: a text input holding it as typed, so nothing is
+	// lost and the user can correct it.
+	Layers     []checkbox
+	LayersText *control
+	Hint       string
+	// ShowCaption is false where the page draws its own captions (the
+	// comparison): the caption then rides along unseen, so a round trip
+	// through that page keeps it.
+	ShowCaption bool
+}
+
+type checkbox struct {
+	ID, Name, Value, Label string
+	Checked                bool
+}
+
+// buildFigureBox makes the figure box of st. planName is the caption's
+// placeholder.
+func buildFigureBox(st planform.FigureState, planName string) figureView {
+	ff := st.Form
+	note := func(key string) []note {
+		if m, ok := st.Msgs[key]; ok {
+			return []note{{Severity: "error", Text: m}}
+		}
+		return nil
+	}
+	text := func(key, label, value, mode, placeholder, size string) control {
+		return control{ID: planform.KeyID(key), Name: key, Label: label, Value: value, InputMode: mode,
+			Placeholder: placeholder, Size: size, Notes: note(key)}
+	}
+	capHolder := strings.TrimSpace(planName)
+	if capHolder == "" {
+		capHolder = "none (the plan has no name)"
+	}
+	fv := figureView{
+		Group:   group{ID: planform.IDFigure},
+		Width:   text(planform.KeyFigWidth, "Width (px)", ff.Width, "numeric", strconv.Itoa(render.DefaultWidth), "4"),
+		Theme:   text(planform.KeyFigTheme, "Theme", ff.Theme, "", "", "4"),
+		Caption: text(planform.KeyFigCaption, "Caption", ff.Caption, "", capHolder, "12"),
+		Hint: "These options shape the figure on the page, the SVG and PNG downloads, the walkthrough and the comparison. " +
+			"An empty caption is the plan's name; a single - draws none.",
+		ShowCaption: true,
+	}
+	fv.Theme.Options = pick([]option{{Value: "light", Label: "light (screen)"}, {Value: "print", Label: "print (black and white)"}},
+		orDefault(strings.ToLower(strings.TrimSpace(ff.Theme)), "light"), func(string) string { return "not a theme" })
+	if _, bad := st.Msgs[planform.KeyFigLayers]; bad {
+		c := text(planform.KeyFigLayers, "Layers shown", ff.Layers, "", "all", "12")
+		fv.LayersText = &c
+	} else {
+		for i, name := range render.LayerNames() {
+			fv.Layers = append(fv.Layers, checkbox{ID: planform.KeyID(planform.KeyFigLayers) + "-" + name, Name: planform.KeyFigLayers, Value: name,
+				Label: layerLabels[i], Checked: st.Opt.Layers.Shows(render.Layer(1 << i))})
+		}
+	}
+	fv.Open = ff != planform.FigureForm{} || len(st.Msgs) > 0
+	return fv
+}
+
+// summary is the box's closed line: what it holds, or what is set.
+func (fv figureView) summary() string {
+	var set []string
+	if fv.Width.Value != "" {
+		set = append(set, fv.Width.Value+" px")
+	}
+	if v := strings.TrimSpace(fv.Theme.Value); v != "" {
+		set = append(set, v+" theme")
+	}
+	if fv.LayersText != nil {
+		set = append(set, "layers "+fv.LayersText.Value)
+	} else if n := len(fv.Layers) - countChecked(fv.Layers); n > 0 {
+		set = append(set, plural(n, "layer", "layers")+" hidden")
+	}
+	if fv.ShowCaption && fv.Caption.Value != "" {
+		set = append(set, "own caption")
+	}
+	if len(set) == 0 {
+		if fv.ShowCaption {
+			return "width, theme, layers, caption"
+		}
+		return "width, theme, layers"
+	}
+	return strings.Join(set, ", ")
+}
+
+func countChecked(cs []checkbox) int {
+	n := 0
+	for _, c := range cs {
+		if c.Checked {
+			n++
+		}
+	}
+	return n
+}
+
+// layerLabels names the layers of render.LayerNames for the checkboxes.
+var layerLabels = []string{"lattice lines", "cyclic prefixes", "guardbands", "labels", "TDD directions", "SS/PBCH blocks"}
+
+// shape names the figure box's set of controls, for formShape.
+func (fv figureView) shape() string {
+	if fv.LayersText != nil {
+		return "fig:text"
+	}
+	return "fig:boxes"
+}
