@@ -34,6 +34,7 @@ const noInjectedMarkup = `(() => {
 // CSP blocked would report one), and the document holds no markup of
 // theirs; the names show as text.
 func TestBrowserHostileNames(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1600, 1100)
 

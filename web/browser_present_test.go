@@ -79,6 +79,7 @@ func opacityOf(sel string) string {
 }
 
 func TestBrowserWalkthrough(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	q := campusQuery(t)
 	steps := Walkthrough(grid.Compute(testConfig(t).Plan))
@@ -182,6 +183,7 @@ func TestBrowserWalkthrough(t *testing.T) {
 // TestBrowserWalkthroughPrint: printed, the print layout puts one step on
 // each page, the controls hidden.
 func TestBrowserWalkthroughPrint(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1280, 900)
 	tb.do("opening the print layout", chromedp.Navigate(srv.URL+"/walk?"+campusQuery(t)+"&view=print"))
@@ -211,6 +213,7 @@ func scalesOf(side string) string {
 }
 
 func TestBrowserCompare(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	pa, _ := comparePlans(t)
 	tb := newTab(t, 1440, 1000)
@@ -269,6 +272,7 @@ func TestBrowserCompare(t *testing.T) {
 // TestBrowserDropFigure drops a saved figure of one plan on the planner of
 // another, as a file from the desktop: the page opens the dropped plan.
 func TestBrowserDropFigure(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	port := testConfig(t).Demos[1].Plan
 	svg := get(t, srv, "/figure.svg?"+planform.FormOf(port).Query())
@@ -336,6 +340,7 @@ func TestBrowserDropFigure(t *testing.T) {
 //
 //	go test ./web -run TestScreenshotPresent -screenshot
 func TestScreenshotPresent(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	q := campusQuery(t)
 	pa, pb := comparePlans(t)
@@ -361,7 +366,7 @@ func TestScreenshotPresent(t *testing.T) {
 				t.Fatal(err)
 			}
 		}
-		time.Sleep(300 * time.Millisecond) // the highlight's transition
+		tb.waitFor("the highlight's transition to end", `document.getAnimations().every(a => a.playState !== 'running')`)
 		shot, err := chromedpRun(tb, chromedp.CaptureScreenshot())
 		if err != nil {
 			t.Fatal(err)

@@ -46,6 +46,52 @@ type tab struct {
 	console []chromedp.ConsoleMessage
 }
 
+// One Chromium serves every browser test of the package: the first test
+// that needs it starts it, each test works in a tab of its own (closed when
+// the test ends), and TestMain stops it. Starting Chromium took a second or
+// more per test, and most tests run in parallel in their tabs.
+var chromium struct {
+	once sync.Once
+	ctx  context.Context // the browser, for tabs to open in
+	stop func()
+	err  error
+}
+
+// sharedBrowser starts the package's Chromium at path, once.
+func sharedBrowser(path string) (context.Context, error) {
+	chromium.once.Do(func() {
+		dir, err := os.MkdirTemp("", "gridloom-chromium-")
+		if err != nil {
+			chromium.err = err
+			return
+		}
+		// The window is as large as the largest viewport a test emulates.
+		actx, cancelAlloc := chromedp.NewExecAllocator(context.Background(), chromiumOptions(path, dir, 2400, 1500)...)
+		bctx, cancelBrowser := chromedp.NewContext(actx)
+		chromium.stop = func() {
+			cancelBrowser()
+			cancelAlloc()
+			_ = os.RemoveAll(dir)
+		}
+		if err := chromedp.Do(bctx); err != nil {
+			chromium.err = fmt.Errorf("starting Chromium at %s: %w", path, err)
+			return
+		}
+		chromium.ctx = bctx
+	})
+	return chromium.ctx, chromium.err
+}
+
+func TestMain(m *testing.M) {
+	code := m.Run()
+	if chromium.stop != nil {
+		chromium.stop()
+	}
+	os.Exit(code)
+}
+
+// newTab opens a tab of the package's Chromium with a viewport of width ×
+// height, its console watched. It skips the test without Chromium.
 func newTab(t *testing.T, width, height int) *tab {
 	t.Helper()
 	path := chromiumPath()
@@ -55,12 +101,14 @@ func newTab(t *testing.T, width, height int) *tab {
 		}
 		t.Skip("Chromium is not at /usr/bin/chromium nor on PATH; install it (apt-get install chromium) to run the browser tests")
 	}
-	actx, cancelAlloc := chromedp.NewExecAllocator(context.Background(), chromiumOptions(path, t.TempDir(), width, height)...)
-	t.Cleanup(cancelAlloc)
-	ctx, cancel := chromedp.NewContext(actx)
+	bctx, err := sharedBrowser(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ctx, cancel := chromedp.NewContext(bctx)
 	t.Cleanup(cancel)
 	if err := chromedp.Do(ctx); err != nil {
-		t.Fatalf("starting Chromium at %s: %v", path, err)
+		t.Fatalf("opening a tab: %v", err)
 	}
 	tb := &tab{t: t, ctx: ctx}
 	msgs := chromedp.Console(ctx)
@@ -152,6 +200,7 @@ func (tb *tab) open(url string) {
 const scsOfSecond = `(document.querySelector('[data-testid=timing-table] tbody tr:nth-child(2) td[data-col=scs]') || {}).textContent`
 
 func TestBrowserLiveEdit(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1440, 1000)
 	tb.open(srv.URL + "/")
@@ -226,6 +275,7 @@ func TestBrowserLiveEdit(t *testing.T) {
 // lose its own. Each round changes the second partition's size twice in
 // a row; the address must end with the second value.
 func TestBrowserQuickEdits(t *testing.T) {
+	t.Parallel()
 	checkPageScript(t, quickEdits)
 }
 
@@ -292,6 +342,7 @@ const quickEdits = `(async () => {
 // untouched (bringing it in line would remove it). Sending one block
 // instead of four then changes that table, and it is brought in line.
 func TestBrowserKeepsUnchangedParts(t *testing.T) {
+	t.Parallel()
 	checkPageScript(t, keptParts)
 }
 
@@ -324,6 +375,7 @@ const keptParts = `(async () => {
 // TestBrowserRIVFills: typing a locationAndBandwidth places the partition
 // by it; committing the field fills start and size from it.
 func TestBrowserRIVFills(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1440, 1000)
 	tb.open(srv.URL + "/")
@@ -345,6 +397,7 @@ func TestBrowserRIVFills(t *testing.T) {
 }
 
 func TestBrowserDownloadsFigure(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1280, 900)
 	dir := t.TempDir()
@@ -426,6 +479,7 @@ func symbolAtTime(n grid.Numerology, count int, t float64) (int, grid.Symbol) {
 }
 
 func TestBrowserReadout(t *testing.T) {
+	t.Parallel()
 	plans := demoPlans(t)
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 2400, 1500)

@@ -23,6 +23,7 @@ var screenshot = flag.Bool("screenshot", false, "write the README screenshot to 
 //
 //	go test ./web -run TestScreenshot -screenshot
 func TestScreenshot(t *testing.T) {
+	t.Parallel()
 	const width, height = 1440, 900
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, width, height)

@@ -5,10 +5,12 @@
 // upload and the JSON API, all computed by grid and drawn by render.
 //
 // The pages keep no state on the server: the query string holds the whole
-// plan (see Form for the keys; FigureForm for the figure's options), or
-// both plans of a comparison under "a." and "b.", so a link reproduces a
-// sketch, a step of a walkthrough or a comparison, and the back button
-// walks through edits and steps.
+// plan (see planform.Form for the keys; planform.FigureForm for the
+// figure's options), or both plans of a comparison under "a." and "b.", so
+// a link reproduces a sketch, a step of a walkthrough or a comparison, and
+// the back button walks through edits and steps. web holds HTTP and views
+// only: each handler reads the query into planform's model, builds a view
+// from it and its grid.Result, and renders a template.
 //
 // Security: every request is untrusted input. Bodies are limited to 1 MiB
 // (a multipart upload to a 1 MiB file plus its envelope) and queries to
