@@ -2,6 +2,7 @@ package web
 
 import (
 	"bytes"
+	stdgzip "compress/gzip"
 	"fmt"
 	"io"
 	"log/slog"
@@ -81,6 +82,52 @@ func BenchmarkRoutes(b *testing.B) {
 			})
 		}
 	}
+}
+
+// BenchmarkCompressFragment compresses the campus fragment as sent (about
+// 66 KB) at level 1 with the compressor the app uses (klauspost/compress)
+// and with the standard library's, each writer kept and reset as the app
+// keeps them. The app took klauspost's for this: on the shared 2-core
+// machine 0.33-0.35 ms against 0.70-0.82 ms (medians of six), and
+// 15 029 against 15 158 bytes.
+func BenchmarkCompressFragment(b *testing.B) {
+	h := perfServer(b)
+	_, queries := perfPlans(b)
+	w := httptest.NewRecorder()
+	h.ServeHTTP(w, httptest.NewRequest(http.MethodGet, "/fragment?"+queries["campus"], nil))
+	if w.Code != http.StatusOK || w.Header().Get("Content-Encoding") != "" {
+		b.Fatalf("fragment: status %d, encoding %q", w.Code, w.Header().Get("Content-Encoding"))
+	}
+	page := w.Body.Bytes()
+	for _, c := range []struct {
+		name string
+		zw   interface {
+			io.WriteCloser
+			Reset(io.Writer)
+		}
+	}{
+		{"app", gzipWriters.get()},
+		{"stdlib", must2(stdgzip.NewWriterLevel(nil, stdgzip.BestSpeed))},
+	} {
+		b.Run(c.name, func(b *testing.B) {
+			var dst bytes.Buffer
+			b.SetBytes(int64(len(page)))
+			for b.Loop() {
+				dst.Reset()
+				c.zw.Reset(&dst)
+				_, _ = c.zw.Write(page)
+				_ = c.zw.Close()
+			}
+			b.ReportMetric(float64(dst.Len()), "wire-bytes")
+		})
+	}
+}
+
+func must2[T any](v T, err error) T {
+	if err != nil {
+		panic(err)
+	}
+	return v
 }
 
 func routeName(route string) string {

@@ -4,9 +4,9 @@ import (
 	"fmt"
 
 	"bytes"
-	"compress/gzip"
 	"encoding/json"
 	"github.com/a-h/templ"
+	"github.com/klauspost/compress/gzip"
 	"mime"
 	"net/http"
 	"slices"
@@ -18,8 +18,10 @@ import (
 // cachedResponse.send with the gzip form made by the same gzipBytes): one
 // place decides whether to compress, by one reading of Accept-Encoding.
 
-// compressLevel is the gzip level of every compressed response: the
-// fastest, since the app is served on the loopback interface, where a byte
+// compressLevel is the gzip level of every compressed response, by
+// klauspost/compress, which compresses the campus fragment in less than
+// half the standard library's time (BenchmarkCompressFragment): the
+// fastest level, since the app is served on the loopback interface, where a byte
 // costs less than the time to save it (level 5 took two to three times as
 // long for 12 to 22 % fewer bytes). It also keeps cheap the reset of a
 // kept compressor.
