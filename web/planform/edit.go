@@ -21,6 +21,7 @@ import (
 // the user, shown beside the partitions.
 type OpError struct{ Msg string }
 
+// Error returns the sentence.
 func (e *OpError) Error() string { return e.Msg }
 
 func opErrorf(format string, args ...any) error { return &OpError{Msg: fmt.Sprintf(format, args...)} }

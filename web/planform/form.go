@@ -25,9 +25,10 @@ const (
 	KeyQuery = "query"
 )
 
-// OffsetKey and CarrierBWKey are the query keys of offsetToCarrier and
-// carrierBandwidth at a spacing.
-func OffsetKey(scsKHz int) string    { return keyOffset + strconv.Itoa(scsKHz) }
+// OffsetKey is the query key of offsetToCarrier at a spacing ("off.30").
+func OffsetKey(scsKHz int) string { return keyOffset + strconv.Itoa(scsKHz) }
+
+// CarrierBWKey is the query key of carrierBandwidth at a spacing ("cbw.30").
 func CarrierBWKey(scsKHz int) string { return keyCarrierBW + strconv.Itoa(scsKHz) }
 
 // maxPartIndex bounds the partition indexes a query may use, so that a
