@@ -63,17 +63,26 @@ func FrequencyARFCN(f Hz) (int, bool) {
 
 // NearestARFCN returns the raster points just below and above f, to suggest
 // in a message. Both equal f's NR-ARFCN when f is on the raster; ok is false
-// outside the raster.
+// outside the raster. Between two rows of Table 5.4.2.1-1 (24249.99 to
+// 24250.08 MHz) the neighbours are the last point of the lower row and the
+// first of the upper one.
 func NearestARFCN(f Hz) (below, above int, ok bool) {
-	r, ok := rowFor(f)
-	if !ok {
+	if f < 0 {
 		return 0, 0, false
 	}
-	d := f - r.offsetHz
-	below = r.offsetN + int(d/r.stepHz)
-	if d%r.stepHz == 0 {
-		return below, below, true
+	if n, on := FrequencyARFCN(f); on {
+		return n, n, true
 	}
-	above = min(below+1, r.lastN)
-	return below, above, true
+	below = -1
+	for _, r := range rasterRows {
+		lo, _ := ARFCNFrequency(r.firstN)
+		if f < lo {
+			break
+		}
+		below = min(r.offsetN+int((f-r.offsetHz)/r.stepHz), r.lastN)
+	}
+	if below < 0 || below >= MaxARFCN {
+		return 0, 0, false
+	}
+	return below, below + 1, true
 }

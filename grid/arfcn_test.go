@@ -49,3 +49,29 @@ func TestARFCNOffRaster(t *testing.T) {
 		t.Errorf("NearestARFCN(3750.007 MHz) = %d, %d, %v; want 650000, 650001", below, above, ok)
 	}
 }
+
+// NearestARFCN at the edges of the rows of TS 38.104 Table 5.4.2.1-1: the
+// neighbours of a frequency between two rows come from both rows.
+func TestNearestARFCNBoundaries(t *testing.T) {
+	for _, c := range []struct {
+		f            Hz
+		below, above int
+		note         string
+	}{
+		{2999.999e6, 599999, 600000, "between 2999.995 (5 kHz row) and 3000 MHz (15 kHz row)"},
+		{3000.001e6, 600000, 600001, "just above 3000 MHz: 3000 and 3000.015 MHz"},
+		{24250.05e6, 2016666, 2016667, "the gap: 24249.99 (15 kHz row) and 24250.08 MHz (60 kHz row)"},
+		{24250e6, 2016666, 2016667, "the FR2 edge itself is on neither raster"},
+		{24249.995e6, 2016666, 2016667, "just above the 15 kHz row's last point"},
+		{24250.1e6, 2016667, 2016668, "inside the 60 kHz row"},
+		{1842.507e6, 368501, 368502, "5 kHz row: 1842.505 and 1842.510 MHz"},
+	} {
+		below, above, ok := NearestARFCN(c.f)
+		if !ok || below != c.below || above != c.above {
+			t.Errorf("NearestARFCN(%v MHz) = %d, %d, %v; want %d, %d (%s)", c.f.MHz(), below, above, ok, c.below, c.above, c.note)
+		}
+	}
+	if _, _, ok := NearestARFCN(99999.99e6); ok {
+		t.Error("NearestARFCN(99999.99 MHz) accepted; it is above the last NR-ARFCN")
+	}
+}

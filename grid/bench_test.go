@@ -14,7 +14,7 @@ import (
 // FR2-2, 2000 MHz at 960 kHz, 148 PRBs, 10 ms (8960 symbols × 148 PRBs).
 func benchPlans(b *testing.B) map[string]grid.Plan {
 	b.Helper()
-	files, _ := filepath.Glob("../testdata/plans/*.yaml")
+	files, _ := filepath.Glob("demo/*.yaml")
 	files = append(files, "../testdata/stress/fr2-2-2000mhz.yaml")
 	out := map[string]grid.Plan{}
 	for _, f := range files {

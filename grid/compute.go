@@ -21,7 +21,9 @@ type Result struct {
 	TDD        *TDD      // the TDD pattern, when the plan has a valid one
 	SSB        *SSB      // the SS/PBCH blocks, when the plan places valid ones
 	Fit        *Fit      // the numerology fit, when the plan describes its environment
-	Findings   []Finding
+	// Spectrum is how the carriers and partitions divide the channel.
+	Spectrum Spectrum
+	Findings []Finding
 }
 
 // HasErrors reports whether any finding is an Error.
@@ -53,6 +55,18 @@ type Channel struct {
 	OnRaster       bool
 	PointAARFCN    int // NR-ARFCN of point A (absoluteFrequencyPointA), when PointAOnRaster
 	PointAOnRaster bool
+	// Band is the operating band the channel is checked against: the
+	// plan's carrier.band, or the first of BandCandidates it passes; ""
+	// when neither applies. Duplex is that band's duplex mode.
+	Band           string
+	BandCandidates []string // bands whose downlink range holds the channel, when Absolute and no band is named
+	Duplex         string
+	RasterKHz      int // ΔF_Raster of the band's channel raster that holds the centre (or applies), when Absolute
+	// ULCenterHz and ULARFCN are the paired uplink carrier of an FDD band
+	// at its duplex spacing, when HasUL.
+	HasUL      bool
+	ULCenterHz Hz
+	ULARFCN    int
 	// UsePercent is the share of the channel bandwidth that partitions occupy.
 	UsePercent float64
 }
@@ -154,8 +168,8 @@ func Compute(plan Plan) Result {
 	if n := utf8.RuneCountInString(p.Name); n > MaxNameLen {
 		fs.add(Error, CodeLimit, "", "name", "The plan name is %d characters long; at most %d are allowed.", n, MaxNameLen)
 	}
-	rng, ok := parseFold(p.Carrier.Range, RangeNames(), ParseRange)
-	if !ok {
+	rng, rangeOK := parseFold(p.Carrier.Range, RangeNames(), ParseRange)
+	if !rangeOK {
 		fs.add(Error, CodeRange, "", "carrier.range", "carrier.range %q is not a frequency range; use %s.", p.Carrier.Range, JoinOr(RangeNames()))
 	}
 	p.Carrier.Range = rng.String()
@@ -223,12 +237,11 @@ func Compute(plan Plan) Result {
 			continue
 		}
 		c, _ := res.Carrier(pt.num.SCSKHz())
-		if l, ok := placePartition(&fs, rng, pt, c, span); ok {
-			res.Partitions = append(res.Partitions, l)
-			pt.plan.StartCRB = &l.StartCRB
-			pt.plan.SizePRB = l.SizePRB
-			pt.plan.LocationAndBandwidth = nil
-		}
+		l := placePartition(&fs, rng, pt, c, span)
+		res.Partitions = append(res.Partitions, l)
+		pt.plan.StartCRB = &l.StartCRB
+		pt.plan.SizePRB = l.SizePRB
+		pt.plan.LocationAndBandwidth = nil
 	}
 
 	if tdd != nil {
@@ -243,10 +256,16 @@ func Compute(plan Plan) Result {
 	checkEdgeGuards(&fs, rng, bw, res.Channel, res.Partitions)
 	checkNumerologyGaps(&fs, p.NumerologyGapKHz, res.Partitions)
 	placeAbsolute(&fs, rng, &res.Channel, p.Carrier)
+	if rangeOK && (p.Carrier.Band != "" || res.Channel.Absolute) {
+		checkBand(&fs, rng, &res.Channel, &p.Carrier, p.Partitions, inUse, bwKnown)
+	}
 	if p.SSB != nil && bwKnown {
 		if s, ok := checkSSB(&fs, rng, p.SSB, res.Channel, res.Channel.CenterHz, res.Channel.Absolute, tdd != nil, span); ok {
 			res.SSB = &s
 			checkSSBOverlaps(&fs, s, res.Partitions, tdd)
+			if res.Channel.Band != "" {
+				fs = append(fs, s.CheckBand(res.Channel.Band)...)
+			}
 		}
 	}
 	if p.Environment != nil {
@@ -254,7 +273,8 @@ func Compute(plan Plan) Result {
 			res.Fit = f
 		}
 	}
-	res.Channel.UsePercent = usePercent(res.Channel, res.Partitions)
+	res.Spectrum = spectrumOf(res.Channel, res.Carriers, res.Partitions)
+	res.Channel.UsePercent = usePercent(res.Channel, res.Spectrum)
 
 	p.SpanMs = span
 	res.Plan = p
@@ -639,7 +659,10 @@ func specFor(rng Range) string {
 	return "TS 38.101-2"
 }
 
-func placePartition(fs *findings, rng Range, pt pending, c Carrier, span int) (Lattice, bool) {
+// placePartition places a partition whose spacing, CP and bandwidth allow
+// it. It always places it, as the plan asks, even outside its carrier: the
+// findings say why that does not fit, and the figure shows where it went.
+func placePartition(fs *findings, rng Range, pt pending, c Carrier, span int) Lattice {
 	pp, f, who := pt.plan, pt.field, pt.plan.Name
 	scs := pt.num.SCSKHz()
 	start, size := c.OffsetToCarrier, pp.SizePRB
@@ -682,7 +705,7 @@ func placePartition(fs *findings, rng Range, pt pending, c Carrier, span int) (L
 	if pt.bits > 0 && pp.Layers >= 1 && pp.Layers <= pt.dir.MaxLayers() {
 		l.PeakMbps = PeakMbps(rng, pt.dir, pt.num, size, pp.Layers, pt.bits)
 	}
-	return l, true
+	return l
 }
 
 // applyTDD maps the TDD pattern onto every partition and scales the rate
@@ -843,32 +866,6 @@ func placeAbsolute(fs *findings, rng Range, ch *Channel, cp CarrierPlan) {
 		fs.add(Error, CodeFrequency, "", "carrier.centerMHz", "The channel spans %s to %s, outside %s (%s to %s).",
 			fmtMHz(ch.Abs(ch.Low)), fmtMHz(ch.Abs(ch.High)), rng, fmtMHz(lo), fmtMHz(hi))
 	}
-}
-
-// usePercent is the share of the channel that the union of the partitions covers.
-func usePercent(ch Channel, ls []Lattice) float64 {
-	type span struct{ lo, hi Hz }
-	var spans []span
-	for _, l := range ls {
-		lo, hi := max(l.Low, ch.Low), min(l.High, ch.High)
-		if hi > lo {
-			spans = append(spans, span{lo, hi})
-		}
-	}
-	slices.SortFunc(spans, func(a, b span) int { return cmp.Compare(a.lo, b.lo) })
-	var used, reach Hz
-	reach = ch.Low
-	for _, s := range spans {
-		lo := max(s.lo, reach)
-		if s.hi > lo {
-			used += s.hi - lo
-			reach = s.hi
-		}
-	}
-	if ch.High <= ch.Low {
-		return 0
-	}
-	return math.Round(float64(used)/float64(ch.High-ch.Low)*1e4) / 100
 }
 
 func fmtKHz(f Hz) string { return strconv.FormatFloat(f.KHz(), 'f', -1, 64) + " kHz" }

@@ -18,5 +18,7 @@
 //
 // The entry point is Compute, which turns a Plan into a Result: the channel,
 // one SCS-specific carrier per subcarrier spacing in use, one Lattice per
-// partition, and the Findings.
+// partition, the Spectrum they leave in the channel (guardbands, unused
+// spans, use) and the Findings. The JSON document of a Result is package
+// grid/report's; the demo plans are package grid/demo's.
 package grid

@@ -39,7 +39,10 @@ const (
 	CodeTDDStraddle    = "tdd-straddle"    // partition symbols that straddle a downlink/uplink change
 	CodeSSB            = "ssb"             // an SS/PBCH configuration the standard does not allow, or blocks beyond the channel
 	CodeSSBOverlap     = "ssb-overlap"     // SS/PBCH blocks on a partition of another spacing
+	CodeSyncRaster     = "sync-raster"     // SS_REF off the synchronization raster, or outside the band's SS raster entries
 	CodeFit            = "fit"             // a numerology that suits the radio channel poorly (rules of thumb)
+	CodeBand           = "band"            // band unknown, channel outside it, or a bandwidth or spacing it does not allow
+	CodeChannelRaster  = "channel-raster"  // centre off the band's channel raster (TS 38.101-1/-2 Table 5.4.2.3-1)
 )
 
 // Finding is one result of checking a plan. Field is the path of the plan

@@ -64,7 +64,7 @@ type Fit struct {
 	SpeedKmh        float64         `json:"speedKmh"`
 	CarrierMHz      float64         `json:"carrierMHz,omitempty"`
 	DopplerHz       float64         `json:"dopplerHz"`       // v·f/c
-	CoherenceTimeUs float64         `json:"coherenceTimeUs"` // ≈ 0.423/f_d; 0 when f_d is 0
+	CoherenceTimeUs float64         `json:"coherenceTimeUs"` // ≈ 0.423/f_d; 0 when f_d rounds to 0 Hz
 	Partitions      []NumerologyFit `json:"partitions"`      // in Result.Partitions order
 	Suggested       NumerologyFit   `json:"suggested"`       // the best of the range's numerologies
 	Caution         string          `json:"caution"`
@@ -74,6 +74,15 @@ type Fit struct {
 const FitCaution = "First-order rules of thumb for choosing a numerology, not a link budget or a system simulation."
 
 const speedOfLight = 299792458.0
+
+// MinDelaySpreadNs and MaxDelaySpreadNs bound environment.delaySpreadNs.
+// The lower bound keeps the coherence bandwidth 1/(5σ) finite (a spread of
+// 1e-300 ns would make it infinite) and lies far below any real channel's
+// spread (TR 38.901 Table 7.7.3-1 starts at 10 ns).
+const (
+	MinDelaySpreadNs = 0.001
+	MaxDelaySpreadNs = 100000
+)
 
 // The bounds of the rules (common practice; gridloom's choice where the
 // trade gives a range):
@@ -152,10 +161,10 @@ func checkFit(fs *findings, rng Range, e *EnvironmentPlan, ch Channel, ls []Latt
 		sigmaNs = DelayProfiles[i].Ns
 	}
 	switch {
-	case math.IsNaN(sigmaNs) || sigmaNs <= 0 || sigmaNs > 1e5:
-		fs.add(Error, CodeFit, "", "environment.delaySpreadNs", "environment.delaySpreadNs must be above 0 and at most 100000 ns, or give environment.delayProfile.")
+	case !(sigmaNs >= MinDelaySpreadNs && sigmaNs <= MaxDelaySpreadNs):
+		fs.add(Error, CodeFit, "", "environment.delaySpreadNs", "environment.delaySpreadNs must be from %g to %g ns, or give environment.delayProfile.", MinDelaySpreadNs, float64(MaxDelaySpreadNs))
 		return nil, false
-	case math.IsNaN(e.SpeedKmh) || e.SpeedKmh < 0 || e.SpeedKmh > 1000:
+	case !(e.SpeedKmh >= 0 && e.SpeedKmh <= 1000):
 		fs.add(Error, CodeFit, "", "environment.speedKmh", "environment.speedKmh must be 0 to 1000 km/h.")
 		return nil, false
 	}
@@ -176,7 +185,10 @@ func checkFit(fs *findings, rng Range, e *EnvironmentPlan, ch Channel, ls []Latt
 	fd := e.SpeedKmh / 3.6 * fHz / speedOfLight
 	fit := &Fit{DelaySpreadNs: sigmaNs, CoherenceBWKHz: 1 / (5 * sigma) / 1e3, SpeedKmh: e.SpeedKmh,
 		CarrierMHz: fHz / 1e6, DopplerHz: math.Round(fd*100) / 100, Caution: FitCaution}
-	if fd > 0 {
+	// A Doppler shift that rounds to 0 Hz has no coherence time worth
+	// reporting, and 0.423/f_d of a vanishing f_d (a speed or carrier of
+	// 1e-320) would be infinite: both report 0, as for no motion.
+	if fit.DopplerHz > 0 {
 		fit.CoherenceTimeUs = math.Round(0.423/fd*1e6*100) / 100
 	}
 	for _, l := range ls {

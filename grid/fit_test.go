@@ -1,7 +1,9 @@
 package grid
 
 import (
+	"fmt"
 	"math"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -83,6 +85,65 @@ func TestFitRefused(t *testing.T) {
 		r := Compute(p)
 		if f := findCode(r, CodeFit); f == nil || f.Field != c.field || f.Severity != Error {
 			t.Errorf("%+v: want a fit error on %s; got %v", c.env, c.field, r.Findings)
+		}
+	}
+}
+
+// Extreme but finite inputs: every number the fit derives is finite, or
+// the input is refused with an error naming its field. Before the bounds,
+// a spread of 1e-300 ns made the coherence bandwidth +Inf and a speed of
+// 1e-320 km/h the coherence time.
+func TestFitExtremeNumbers(t *testing.T) {
+	for _, c := range []struct {
+		env     EnvironmentPlan
+		centre  bool
+		refused string // the field of the fit error, or "" when judged
+	}{
+		{EnvironmentPlan{DelaySpreadNs: 1e-300}, true, "environment.delaySpreadNs"},
+		{EnvironmentPlan{DelaySpreadNs: 5e-324}, true, "environment.delaySpreadNs"},
+		{EnvironmentPlan{DelaySpreadNs: 0.0009}, true, "environment.delaySpreadNs"},
+		{EnvironmentPlan{DelaySpreadNs: 0.001}, true, ""}, // the lower bound itself
+		{EnvironmentPlan{DelaySpreadNs: 100000}, true, ""},
+		{EnvironmentPlan{DelaySpreadNs: 100000.01}, true, "environment.delaySpreadNs"},
+		{EnvironmentPlan{DelaySpreadNs: 100, SpeedKmh: 1e-320}, true, ""},
+		{EnvironmentPlan{DelaySpreadNs: 100, SpeedKmh: 5e-324}, true, ""},
+		{EnvironmentPlan{DelaySpreadNs: 100, SpeedKmh: 1e-300}, true, ""},
+		{EnvironmentPlan{DelaySpreadNs: 100, SpeedKmh: 1000}, true, ""},
+		{EnvironmentPlan{DelaySpreadNs: 100, SpeedKmh: 1000, CarrierMHz: 5e-324}, false, ""},
+		{EnvironmentPlan{DelaySpreadNs: 100, SpeedKmh: 5e-324, CarrierMHz: 5e-324}, false, ""},
+		{EnvironmentPlan{DelaySpreadNs: 100, SpeedKmh: 1, CarrierMHz: 100000}, false, ""},
+		{EnvironmentPlan{DelaySpreadNs: 5e-324, SpeedKmh: 5e-324, CarrierMHz: 5e-324}, true, "environment.delaySpreadNs"},
+	} {
+		p := plan(40, part("a", 30, 1, 50))
+		if c.centre {
+			p.Carrier.CenterMHz = fptr(3500.01) // on the 15 kHz raster
+		}
+		env := c.env
+		p.Environment = &env
+		r := Compute(p)
+		f := findCode(r, CodeFit)
+		if c.refused != "" {
+			if f == nil || f.Field != c.refused || f.Severity != Error || r.Fit != nil {
+				t.Errorf("%+v: want a fit error on %s and no fit; got %v", c.env, c.refused, r.Findings)
+			}
+			continue
+		}
+		if r.Fit == nil {
+			t.Errorf("%+v: no fit: %v", c.env, r.Findings)
+			continue
+		}
+		fit := r.Fit
+		nums := map[string]float64{"delaySpreadNs": fit.DelaySpreadNs, "coherenceBandwidthKHz": fit.CoherenceBWKHz,
+			"speedKmh": fit.SpeedKmh, "carrierMHz": fit.CarrierMHz, "dopplerHz": fit.DopplerHz, "coherenceTimeUs": fit.CoherenceTimeUs}
+		for _, nf := range append(slices.Clone(fit.Partitions), fit.Suggested) {
+			for _, cr := range nf.Criteria {
+				nums[fmt.Sprintf("%d kHz %s", nf.SCSKHz, cr.Name)] = cr.Value
+			}
+		}
+		for name, v := range nums {
+			if math.IsInf(v, 0) || math.IsNaN(v) {
+				t.Errorf("%+v: %s = %v, want a finite number", c.env, name, v)
+			}
 		}
 	}
 }

@@ -25,8 +25,11 @@ type Plan struct {
 
 // CarrierPlan is the channel and its SCS-specific carriers.
 type CarrierPlan struct {
-	Range        string `json:"range,omitempty" yaml:"range,omitempty"` // "FR1", "FR2-1" or "FR2-2"; "" means FR1
-	BandwidthMHz int    `json:"bandwidthMHz" yaml:"bandwidthMHz"`       // channel bandwidth
+	Range string `json:"range,omitempty" yaml:"range,omitempty"` // "FR1", "FR2-1" or "FR2-2"; "" means FR1
+	// Band is the NR operating band ("n78", TS 38.101-1/-2 Table 5.2-1);
+	// optional. Without it Compute lists the bands the channel fits.
+	Band         string `json:"band,omitempty" yaml:"band,omitempty"`
+	BandwidthMHz int    `json:"bandwidthMHz" yaml:"bandwidthMHz"` // channel bandwidth
 	// CenterMHz is the channel centre, the RF reference frequency; ARFCN is
 	// its NR-ARFCN. Either, both (they must agree) or neither may be given.
 	CenterMHz *float64 `json:"centerMHz,omitempty" yaml:"centerMHz,omitempty"`
@@ -84,7 +87,11 @@ func (p Plan) Clone() Plan {
 	q.Carrier.CenterMHz = clonePtr(p.Carrier.CenterMHz)
 	q.Carrier.ARFCN = clonePtr(p.Carrier.ARFCN)
 	q.NumerologyGapKHz = clonePtr(p.NumerologyGapKHz)
-	q.SSB = clonePtr(p.SSB)
+	if p.SSB != nil {
+		s := *p.SSB
+		s.GSCN = clonePtr(p.SSB.GSCN)
+		q.SSB = &s
+	}
 	q.Environment = clonePtr(p.Environment)
 	if p.TDD != nil {
 		t := *p.TDD

@@ -11,9 +11,10 @@ import (
 // candidates checked against its uplink symbols. It measures the
 // direction walk, which is linear in the symbols of the span.
 func BenchmarkComputeTDDStress(b *testing.B) {
+	ssbGSCN := 24314
 	p := benchPlans(b)["fr2-2-2000mhz"]
 	p.TDD = &grid.TDDPlan{ReferenceSCSKHz: 120, Pattern1: grid.TDDPattern{PeriodMs: 5, DownlinkSlots: 28, DownlinkSymbols: 6, UplinkSlots: 10, UplinkSymbols: 4}}
-	p.SSB = &grid.SSBPlan{SCSKHz: 960, OffsetToPointA: 100, PeriodMs: 5}
+	p.SSB = &grid.SSBPlan{SCSKHz: 960, GSCN: &ssbGSCN, PeriodMs: 5} // SS_REF 59812.32 MHz, on the synchronization raster
 	r := grid.Compute(p)
 	if r.TDD == nil || r.SSB == nil || len(r.Partitions) != 1 || r.HasErrors() {
 		b.Fatalf("the TDD stress plan does not compute cleanly: %v", r.Findings)

@@ -115,7 +115,7 @@ func TestDrawnLinesAreVisible(t *testing.T) {
 // half subframe has its own strips, wider and darker, at 15 kHz:
 // N_CP = 144κ + 16κ = 10240 Tc there against 9216 Tc (TS 38.211 5.3.1).
 func TestLongCPStrips(t *testing.T) {
-	p := loadPlan(t, "../testdata/plans/campus.yaml")
+	p := loadPlan(t, "../grid/demo/campus.yaml")
 	p.SpanMs = 1 // wide enough symbols for CP strips at the default width
 	r := compute(t, p)
 	i := slices.IndexFunc(r.Partitions, func(l grid.Lattice) bool { return l.Numerology.SCSKHz() == 15 })
@@ -197,7 +197,7 @@ func TestCostFollowsDrawing(t *testing.T) {
 	eOne, bOne := measure(one)
 	within("960 kHz, 10 ms, 1 PRB vs 148 PRBs", eOne, bOne, e10, b10)
 
-	campus := loadPlan(t, "../testdata/plans/campus.yaml")
+	campus := loadPlan(t, "../grid/demo/campus.yaml")
 	prev := 0
 	for n := 1; n <= len(campus.Partitions); n++ {
 		p := campus.Clone()

@@ -21,9 +21,9 @@ const stressPlan = "../testdata/stress/fr2-2-2000mhz.yaml"
 
 func demoPlans(t testing.TB) []string {
 	t.Helper()
-	paths, err := filepath.Glob("../testdata/plans/*.yaml")
+	paths, err := filepath.Glob("../grid/demo/*.yaml")
 	if err != nil || len(paths) == 0 {
-		t.Fatalf("no demo plans in ../testdata/plans: %v", err)
+		t.Fatalf("no demo plans in ../grid/demo: %v", err)
 	}
 	return paths
 }

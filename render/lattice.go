@@ -2,7 +2,6 @@ package render
 
 import (
 	"fmt"
-	"strings"
 
 	"gridloom/grid"
 )
@@ -51,9 +50,6 @@ func chooseDetail(l grid.Lattice, f frame) detail {
 	d.longCP = d.hasLong && float64(n.CPTc(0))*f.pxPerTc() >= minStrip
 	return d
 }
-
-// describe says in words what d draws, for the legend.
-func (d detail) describe(sizePRB int) string { return strings.Join(d.parts(sizePRB), " · ") }
 
 // parts says what d draws, one phrase per line kind.
 func (d detail) parts(sizePRB int) []string {

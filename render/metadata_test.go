@@ -32,7 +32,7 @@ func hostilePlanJSON(t *testing.T) []byte {
 // TestPlanRoundTrip: plan file → figure → PlanFromSVG gives the same bytes
 // back, whatever they hold, and the figure stays well-formed.
 func TestPlanRoundTrip(t *testing.T) {
-	campus, err := os.ReadFile("../testdata/plans/campus.yaml")
+	campus, err := os.ReadFile("../grid/demo/campus.yaml")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -52,7 +52,7 @@ func TestPlanRoundTrip(t *testing.T) {
 			if p, err := planfile.Decode(plan); err == nil {
 				r = grid.Compute(p)
 			} else {
-				r = compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+				r = compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
 			}
 			data := figure(t, r, Options{Plan: plan})
 			root := parseSVG(t, data)
@@ -91,7 +91,7 @@ func TestPlanRoundTrip(t *testing.T) {
 
 // TestPlanAbsent: a figure drawn without a plan carries none.
 func TestPlanAbsent(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
 	data := figure(t, r, Options{})
 	if bytes.Contains(data, []byte("<metadata")) {
 		t.Error("a figure without Options.Plan has <metadata>")

@@ -92,7 +92,7 @@ var layerClasses = map[Layer][]string{
 // TestLayersHidden draws the campus plan, which shows every layer at the
 // widest figure (CP strips need wide symbols), with each layer hidden in turn.
 func TestLayersHidden(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
 	classes := func(data []byte) map[string]bool {
 		seen := map[string]bool{}
 		parseSVG(t, data).walk(func(n *node) {
@@ -152,7 +152,7 @@ func TestLayersHidden(t *testing.T) {
 
 // TestLayersKey: the key explains only what is drawn.
 func TestLayersKey(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
 	key := func(opt Options) string {
 		return parseSVG(t, figure(t, r, opt)).all(byClass("gl-key"))[0].allText()
 	}
@@ -283,7 +283,7 @@ func TestCaption(t *testing.T) {
 // partition patterns in black on white and its lines heavier than the
 // light theme's.
 func TestPrintTheme(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
 	light, print := parseSVG(t, figure(t, r, Options{})), parseSVG(t, figure(t, r, Options{Theme: ThemePrint}))
 	for _, p := range print.all(func(n *node) bool { return n.name == "pattern" }) {
 		p.walk(func(n *node) {

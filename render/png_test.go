@@ -247,7 +247,7 @@ func TestFigurePNGMatchesSVG(t *testing.T) {
 // figure painted without its flexible TDD runs, or without the notes
 // beside the rail, does not pass against the full SVG.
 func TestFigurePNGSensitivity(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
 	ref := toGrey(rsvgPNG(t, figure(t, r, Options{})))
 	d, err := build(r, Options{})
 	if err != nil {
@@ -279,7 +279,7 @@ func TestFigurePNGSensitivity(t *testing.T) {
 
 // TestFigurePNGSize: one pixel per SVG unit, at every width.
 func TestFigurePNGSize(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/stadium.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/stadium.yaml"))
 	for _, width := range []int{0, MinWidth, MaxWidth} {
 		opt := Options{Width: width, Caption: "Fig. 1"}
 		root := parseSVG(t, figure(t, r, opt))

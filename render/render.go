@@ -188,7 +188,7 @@ func build(r grid.Result, opt Options) (*doc, error) {
 		blocks = planSSB(*r.SSB, f)
 	}
 
-	rows := partRows(r, details, tdds, b)
+	rows := partRows(r, details, tdds)
 	keys := keyRows(r, b, blocks, f)
 	keyW := minKeyWidth
 	for _, k := range keys {
@@ -262,52 +262,6 @@ func plotFrameIn(r grid.Result, width int, win Window) frame {
 		span: win.Span, low: win.Low, high: win.High, planSpan: planSpan(r), rails: win.Rails}
 }
 
-// span is a half-open frequency interval.
-type span struct{ lo, hi grid.Hz }
-
-// spectrum splits the channel into the guardbands at its edges (from each
-// edge to the outermost carrier or partition) and the unused stretches
-// between them that no partition covers.
-func spectrum(r grid.Result) (guards, unused []span) {
-	ch := r.Channel
-	if ch.High <= ch.Low {
-		return nil, nil
-	}
-	inner := span{ch.High, ch.Low} // the outermost carrier and partition edges
-	for _, c := range r.Carriers {
-		inner = span{min(inner.lo, c.Low), max(inner.hi, c.High)}
-	}
-	for _, l := range r.Partitions {
-		inner = span{min(inner.lo, l.Low), max(inner.hi, l.High)}
-	}
-	if inner.hi <= inner.lo {
-		return nil, []span{{ch.Low, ch.High}}
-	}
-	inner = span{max(inner.lo, ch.Low), min(inner.hi, ch.High)}
-	if inner.lo > ch.Low {
-		guards = append(guards, span{ch.Low, inner.lo})
-	}
-	if inner.hi < ch.High {
-		guards = append(guards, span{inner.hi, ch.High})
-	}
-	parts := make([]span, 0, len(r.Partitions))
-	for _, l := range r.Partitions {
-		parts = append(parts, span{l.Low, l.High})
-	}
-	slices.SortFunc(parts, func(a, b span) int { return cmp.Compare(a.lo, b.lo) })
-	reach := inner.lo
-	for _, p := range parts {
-		if p.lo > reach && reach < inner.hi {
-			unused = append(unused, span{reach, min(p.lo, inner.hi)})
-		}
-		reach = max(reach, p.hi)
-	}
-	if reach < inner.hi {
-		unused = append(unused, span{reach, inner.hi})
-	}
-	return guards, unused
-}
-
 // drawPlot draws the plot area inside the gl-plot group.
 func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDrawing, blocks *ssbDrawing) {
 	lk := b.lk
@@ -331,13 +285,12 @@ func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDr
 		b.add(shape{class: "gl-channel", d: pathOf(func(p *pathData) { p.rect(left, f.Y(ch.High), right, f.Y(ch.Low)) }), fill: solid(white)})
 	}
 	if b.shows(LayerGuards) {
-		guards, unused := spectrum(r)
 		var g, u pathData
-		for _, sp := range guards {
-			g.rect(left, f.Y(sp.hi), right, f.Y(sp.lo))
+		for _, sp := range r.Spectrum.Guards() {
+			g.rect(left, f.Y(sp.High), right, f.Y(sp.Low))
 		}
-		for _, sp := range unused {
-			u.rect(left, f.Y(sp.hi), right, f.Y(sp.lo))
+		for _, sp := range r.Spectrum.Unused {
+			u.rect(left, f.Y(sp.High), right, f.Y(sp.Low))
 		}
 		guardPaint := solid(lk.guard)
 		if lk.guardHatch {
@@ -494,12 +447,11 @@ func drawRail(b *builder, f frame, r grid.Result) {
 		notes = append(notes, note{f.Y(0), text, "gl-note-pointa"})
 	}
 	if b.shows(LayerGuards) {
-		guards, unused := spectrum(r)
-		for _, g := range guards {
-			notes = append(notes, note{(f.Y(g.lo) + f.Y(g.hi)) / 2, "guard " + fmtSpan(g.hi-g.lo), "gl-note-guard"})
+		for _, g := range r.Spectrum.Guards() {
+			notes = append(notes, note{(f.Y(g.Low) + f.Y(g.High)) / 2, "guard " + fmtSpan(g.High-g.Low), "gl-note-guard"})
 		}
-		for _, u := range unused {
-			notes = append(notes, note{(f.Y(u.lo) + f.Y(u.hi)) / 2, "unused " + fmtSpan(u.hi-u.lo), "gl-note-unused"})
+		for _, u := range r.Spectrum.Unused {
+			notes = append(notes, note{(f.Y(u.Low) + f.Y(u.High)) / 2, "unused " + fmtSpan(u.High-u.Low), "gl-note-unused"})
 		}
 	}
 	if !b.shows(LayerLabels) {
@@ -635,7 +587,7 @@ func (p *partRowText) wrap(maxW float64) {
 func (p *partRowText) height() int { return partRow + drawnLine*max(0, len(p.lines)-1) }
 
 // partRows writes the legend text of every partition.
-func partRows(r grid.Result, details []detail, tdds []tddDrawing, b *builder) []partRowText {
+func partRows(r grid.Result, details []detail, tdds []tddDrawing) []partRowText {
 	rows := make([]partRowText, len(r.Partitions))
 	for i, l := range r.Partitions {
 		n := l.Numerology

@@ -13,13 +13,15 @@ import (
 // carrier is at 3750 MHz) has candidates starting at symbols {2, 8} + 14n,
 // n = 0…3 (TS 38.213 4.1); the bitmap 11110000 sends the first four, at
 // symbols 2, 8, 16 and 22 of the first half frame, 4 symbols each
-// (TS 38.211 7.4.3.1). In frequency the block's subcarrier 0 sits
-// offsetToPointA = 60 RBs of 15 kHz above point A with k_SSB = 0
-// (TS 38.211 7.4.3.1, FR1 units), and it spans 240 subcarriers of 30 kHz;
+// (TS 38.211 7.4.3.1). In frequency the plan gives GSCN 8016, SS_REF
+// 3000 + 517·1.44 = 3744.48 MHz, which is 13.92 MHz above point A
+// (3730.56 MHz); the block's subcarrier 0 sits 120 subcarriers of 30 kHz
+// lower, 10.32 MHz above point A: offsetToPointA = 56 RBs of 15 kHz with
+// k_SSB = 16 (TS 38.211 7.4.3.1, FR1 units), and it spans 240 subcarriers of 30 kHz;
 // the edges are drawn at the outer subcarrier edges, half a subcarrier
 // beyond the centres.
 func TestSSBCampus(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
 	f := plotFrame(r, DefaultWidth)
 	root := parseSVG(t, figure(t, r, Options{}))
 	rs := pathRects(t, root, "gl-ssb")
@@ -29,7 +31,7 @@ func TestSSBCampus(t *testing.T) {
 		t.Fatalf("%d blocks drawn, want %d", len(rs), len(first))
 	}
 	scs := grid.Hz(30_000)
-	low := grid.Hz(60*12*15_000) - scs/2
+	low := grid.Hz(56*12*15_000+16*15_000) - scs/2
 	high := low + 240*scs
 	for k, sym := range first {
 		start, end := n.SymbolAt(sym).Start, n.SymbolAt(sym+3).End()
@@ -55,7 +57,7 @@ func TestSSBCampus(t *testing.T) {
 // in it: 28 blocks, candidates 0–27, drawn as 28 rectangles (blocks 4–7
 // and 8–11 of each pair touch but stay apart) under two labels.
 func TestSSBStadium(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/stadium.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/stadium.yaml"))
 	root := parseSVG(t, figure(t, r, Options{}))
 	if rs := pathRects(t, root, "gl-ssb"); len(rs) != 28 {
 		t.Errorf("%d blocks drawn, want 28", len(rs))

@@ -53,7 +53,7 @@ var bandClasses = map[string]grid.SymbolDir{"gl-tdd-d": grid.Downlink, "gl-tdd-f
 // of TS 38.331). Of the 5 × 14 = 70 reference symbols, 0–51 are downlink,
 // 52–53 flexible and 54–69 uplink, at every partition's spacing.
 func TestTDDCampus(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
 	if r.TDD == nil || r.TDD.SlotString() != "DDDSU" {
 		t.Fatalf("campus TDD = %+v, want DDDSU", r.TDD)
 	}
@@ -224,7 +224,7 @@ func TestTDDCostFollowsRuns(t *testing.T) {
 // directions (grid reports the error); it is drawn without a band and
 // the legend says why.
 func TestTDDBelowReference(t *testing.T) {
-	p := loadPlan(t, "../testdata/plans/campus.yaml")
+	p := loadPlan(t, "../grid/demo/campus.yaml")
 	p.TDD.ReferenceSCSKHz = 30
 	p.TDD.Pattern1.PeriodMs = 5
 	r := compute(t, p)

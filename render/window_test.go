@@ -100,8 +100,8 @@ func TestPastTheSpan(t *testing.T) {
 // window is the union shifted to the plan's own point A, and the plots
 // publish point A so a script can check the alignment.
 func TestAbsoluteWindow(t *testing.T) {
-	campus := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
-	moved := loadPlan(t, "../testdata/plans/campus.yaml")
+	campus := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
+	moved := loadPlan(t, "../grid/demo/campus.yaml")
 	c := 3760.0
 	moved.Carrier.CenterMHz = &c
 	rm := compute(t, moved)
@@ -124,7 +124,7 @@ func TestAbsoluteWindow(t *testing.T) {
 
 // TestFromPointA labels an absolute channel from point A on request.
 func TestFromPointA(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
 	abs := parseSVG(t, figure(t, r, Options{})).allText()
 	rel := parseSVG(t, figure(t, r, Options{FromPointA: true})).allText()
 	if !strings.Contains(abs, "frequency (MHz)") || !strings.Contains(abs, "channel edge 3770 MHz") {
@@ -160,7 +160,7 @@ func TestWindowRefused(t *testing.T) {
 // TestIDPrefix: every id carries the prefix, and every reference names an
 // id of the document, so two figures inlined in one page do not clash.
 func TestIDPrefix(t *testing.T) {
-	r := compute(t, loadPlan(t, "../testdata/plans/campus.yaml"))
+	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
 	plain := figure(t, r, Options{Plan: []byte("name: x\n")})
 	data := figure(t, r, Options{IDPrefix: "s2-", Plan: []byte("name: x\n")})
 	root := parseSVG(t, data)

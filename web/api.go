@@ -7,6 +7,7 @@ import (
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
+	"gridloom/grid/report"
 	"gridloom/render"
 )
 
@@ -53,7 +54,7 @@ func (s *server) apiRender(w http.ResponseWriter, r *http.Request) error {
 	if res.HasErrors() {
 		status = http.StatusUnprocessableEntity
 	}
-	if err := sendJSON(w, r, status, res.JSON(true)); err != nil {
+	if err := sendJSON(w, r, status, report.Build(res, true)); err != nil {
 		return internal("lattice document", err)
 	}
 	return nil
@@ -68,7 +69,7 @@ func (s *server) apiFigure(w http.ResponseWriter, r *http.Request) error {
 	}
 	res := grid.Compute(plan)
 	if res.HasErrors() {
-		if err := sendJSON(w, r, http.StatusUnprocessableEntity, res.JSON(false)); err != nil {
+		if err := sendJSON(w, r, http.StatusUnprocessableEntity, report.Build(res, false)); err != nil {
 			return internal("lattice document", err)
 		}
 		return nil

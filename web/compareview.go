@@ -206,40 +206,6 @@ func signed(d float64, decimals int) string {
 	return "+" + s
 }
 
-// guardsOf measures what the figure calls guardbands and unused spectrum:
-// from each channel edge to the outermost carrier or partition, and the
-// stretches between them that no partition covers.
-func guardsOf(r grid.Result) (low, high, unused grid.Hz) {
-	ch := r.Channel
-	lo, hi := ch.High, ch.Low
-	for _, c := range r.Carriers {
-		lo, hi = min(lo, c.Low), max(hi, c.High)
-	}
-	for _, l := range r.Partitions {
-		lo, hi = min(lo, l.Low), max(hi, l.High)
-	}
-	if hi <= lo {
-		return 0, 0, ch.High - ch.Low
-	}
-	lo, hi = max(lo, ch.Low), min(hi, ch.High)
-	spans := make([][2]grid.Hz, 0, len(r.Partitions))
-	for _, l := range r.Partitions {
-		spans = append(spans, [2]grid.Hz{max(l.Low, lo), min(l.High, hi)})
-	}
-	slices.SortFunc(spans, func(a, b [2]grid.Hz) int { return cmp.Compare(a[0], b[0]) })
-	reach := lo
-	for _, s := range spans {
-		if s[0] > reach {
-			unused += s[0] - reach
-		}
-		reach = max(reach, s[1])
-	}
-	if hi > reach {
-		unused += hi - reach
-	}
-	return lo - ch.Low, ch.High - hi, unused
-}
-
 // diffTotals compares the plans as a whole.
 func diffTotals(a, b planform.State) []diffRow {
 	ra, rb := a.Result, b.Result
@@ -272,11 +238,10 @@ func diffTotals(a, b planform.State) []diffRow {
 	num("PRBs in partitions", sum(ra, prbs), sum(rb, prbs), 0)
 	num("Occupied MHz", sum(ra, mhz), sum(rb, mhz), 2)
 	num("Channel use %", ra.Channel.UsePercent, rb.Channel.UsePercent, 2)
-	gla, gha, ua := guardsOf(ra)
-	glb, ghb, ub := guardsOf(rb)
-	num("Lower guardband kHz", gla.KHz(), glb.KHz(), 1)
-	num("Upper guardband kHz", gha.KHz(), ghb.KHz(), 1)
-	num("Unused inside the channel MHz", ua.MHz(), ub.MHz(), 3)
+	spa, spb := ra.Spectrum, rb.Spectrum
+	num("Lower guardband kHz", spa.LowGuard.Width().KHz(), spb.LowGuard.Width().KHz(), 1)
+	num("Upper guardband kHz", spa.HighGuard.Width().KHz(), spb.HighGuard.Width().KHz(), 1)
+	num("Unused inside the channel MHz", spa.UnusedWidth().MHz(), spb.UnusedWidth().MHz(), 3)
 	shortest := func(r grid.Result) (float64, bool) {
 		if len(r.Partitions) == 0 {
 			return 0, false

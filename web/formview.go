@@ -151,9 +151,10 @@ func buildForm(s planform.State, notes map[string][]note) formView {
 		text("gap", "6", "decimal", "1 PRB of the wider SCS"),
 	}
 
-	scsInUse := s.SCSInUse()
+	scsInUse := s.Plan.SCSInUse()
 	fv.Carrier = []control{
 		choice("range", "6", pick(plain(grid.RangeNames()), orDefault(f.Range, grid.DefaultRange), nil)),
+		text("band", "6", "", placeholderBand(s.Result)),
 		choice("bw", "6", bandwidthOptions(rng, scsInUse, f.Bandwidth)),
 		text("fc", "6", "decimal", placeholderCenter(s.Result)),
 		text("arfcn", "6", "numeric", placeholderARFCN(s.Result)),
@@ -238,7 +239,7 @@ func buildForm(s planform.State, notes map[string][]note) formView {
 	}
 	fv.SSB = section{
 		Group: group{ID: planform.IDSSB, Notes: take(planform.IDSSB)}, Title: "SS/PBCH blocks", ClearOp: "clear.ssb",
-		Hint: "offsetToPointA counts RBs of 15 kHz (FR1) or 60 kHz (FR2); k_SSB counts subcarriers. The bitmap is ssb-PositionsInBurst, empty for every candidate.",
+		Hint: "offsetToPointA counts RBs of 15 kHz (FR1) or 60 kHz (FR2); k_SSB counts subcarriers. A GSCN places the block on the synchronization raster and sets both. The bitmap is ssb-PositionsInBurst, empty for every candidate.",
 		Rows: []sectionRow{
 			{Label: "Blocks", Controls: []control{
 				text("ssb.scs", "4", "numeric", ""),
@@ -250,6 +251,7 @@ func buildForm(s planform.State, notes map[string][]note) formView {
 				text("ssb.off", "4", "numeric", ""),
 				text("ssb.k", "4", "numeric", "0"),
 				text("ssb.common", "4", "numeric", ""),
+				text("ssb.gscn", "6", "numeric", "or the offsets"),
 			}},
 		},
 	}
@@ -394,17 +396,13 @@ func pick(allowed []option, cur string, why func(string) string) []option {
 }
 
 // bandwidthOptions offers the channel bandwidths that every spacing in use
-// allows in the range, or all of the range's when no spacing is usable.
+// allows in the range, or all of the range's when no spacing is usable or
+// the spacings share none (the findings then say which spacing cannot
+// have it).
 func bandwidthOptions(rng grid.Range, scsInUse []int, cur string) []option {
-	var allowed []int
-	if len(scsInUse) == 0 {
-		allowed = rng.AllBandwidths()
-	} else {
-		allowed = rng.Bandwidths(scsInUse[0])
-		for _, scs := range scsInUse[1:] {
-			other := rng.Bandwidths(scs)
-			allowed = slices.DeleteFunc(allowed, func(bw int) bool { return !slices.Contains(other, bw) })
-		}
+	allowed := rng.CommonBandwidths(scsInUse)
+	if len(allowed) == 0 {
+		scsInUse, allowed = nil, rng.AllBandwidths()
 	}
 	vals := make([]string, len(allowed))
 	for i, bw := range allowed {
@@ -415,11 +413,6 @@ func bandwidthOptions(rng grid.Range, scsInUse []int, cur string) []option {
 			return "not a channel bandwidth of " + rng.String()
 		}
 		return "not defined for " + grid.JoinInts(scsInUse) + " kHz in " + rng.String()
-	}
-	if len(vals) == 0 && len(scsInUse) > 0 {
-		// The spacings in use share no bandwidth: offer the range's, and
-		// let the findings say which spacing cannot have it.
-		return bandwidthOptions(rng, nil, cur)
 	}
 	return pick(plain(vals), strings.TrimSpace(cur), why)
 }
@@ -440,6 +433,15 @@ func placeholderCenter(res grid.Result) string {
 		return strconv.FormatFloat(res.Channel.CenterHz.MHz(), 'f', -1, 64)
 	}
 	return "none"
+}
+
+// placeholderBand shows the band Compute checked the channel against when
+// the plan names none.
+func placeholderBand(res grid.Result) string {
+	if res.Channel.Band != "" {
+		return res.Channel.Band
+	}
+	return "any"
 }
 
 func placeholderARFCN(res grid.Result) string {

@@ -21,6 +21,7 @@ import (
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
+	"gridloom/grid/report"
 	"gridloom/web/planform"
 )
 
@@ -407,7 +408,7 @@ func TestNamesAreTextInTheDownloads(t *testing.T) {
 	}
 	r = post(t, srv, "/api/v1/render", "application/json", body)
 	wantStatus(t, r, http.StatusOK)
-	var doc grid.JSONResult
+	var doc report.Document
 	if err := json.Unmarshal([]byte(r.body), &doc); err != nil || doc.Plan.Name != evilPlan {
 		t.Errorf("API document: %v, plan name %q", err, doc.Plan.Name)
 	}
@@ -616,7 +617,7 @@ func TestCheckersSeeInjection(t *testing.T) {
 	}
 	for _, inj := range []string{
 		`<script>alert(1)</script>`, `<g onload="alert(1)"/>`, `<path fill="red;x:expression(1)"/>`, `<path fill="url(javascript:x)"/>`,
-		`<a href="x"/>`, `<foreignObject/>`, `<path class="a&quot;b"/>`, `<text>` + "" + `</text>`, `<g>`,
+		`<a href="x"/>`, `<foreignObject/>`, `<path class="a&quot;b"/>`, `<text>` + "\x01" + `</text>`, `<g>`,
 	} {
 		if p := svgProblems([]byte(strings.Replace(svg, "</svg>", inj+"</svg>", 1)), "<b>"); len(p) == 0 {
 			t.Errorf("svgProblems sees nothing wrong with %q", inj)

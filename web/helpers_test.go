@@ -7,21 +7,21 @@ import (
 	"testing"
 
 	"gridloom/grid"
+	"gridloom/grid/demo"
 	"gridloom/grid/planfile"
-	"gridloom/testdata/plans"
 	"gridloom/web/planform"
 )
 
 // demoPlans decodes the embedded demo plans, by file name.
 func demoPlans(t testing.TB) map[string]grid.Plan {
 	t.Helper()
-	names, err := fs.Glob(plans.FS, "*.yaml")
+	names, err := fs.Glob(demo.FS, "*.yaml")
 	if err != nil || len(names) == 0 {
 		t.Fatalf("demo plans: %v, %d found", err, len(names))
 	}
 	out := map[string]grid.Plan{}
 	for _, n := range names {
-		b, err := fs.ReadFile(plans.FS, n)
+		b, err := fs.ReadFile(demo.FS, n)
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -283,10 +283,23 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 	if b := res.SSB; b != nil {
 		sv := &ssbView{Facts: []fact{
 			{"Case", fmt.Sprintf("%s at %d kHz", b.Case, b.Numerology.SCSKHz())},
-			{"Candidates (L_max)", strconv.Itoa(b.Candidates)},
+			{"Candidates (L_max)", fmt.Sprintf("%d (ssb-PositionsInBurst %s)", b.Candidates, b.BitmapForm)},
 			{"Period", strconv.Itoa(b.PeriodMs) + " ms"},
 			{"Sent in the span", strconv.Itoa(len(b.Blocks))},
+			{"Placement", fmt.Sprintf("offsetToPointA %d, k_SSB %d, subCarrierSpacingCommon %d kHz", b.OffsetToPointA, b.KSSB, b.ScsCommonKHz)},
 		}}
+		if b.Absolute {
+			ref := exact(b.SSRefHz.MHz()) + " MHz"
+			if b.OnARFCNRaster {
+				ref += fmt.Sprintf(", absoluteFrequencySSB %d", b.AbsoluteFrequencySSB)
+			}
+			if b.OnSyncRaster {
+				ref += fmt.Sprintf(", GSCN %d", b.GSCN)
+			} else {
+				ref += ", off the synchronization raster"
+			}
+			sv.Facts = append(sv.Facts, fact{"SS_REF", ref})
+		}
 		if len(b.Blocks) > 0 {
 			sv.Facts = append(sv.Facts, fact{"Frequency", fmt.Sprintf("%s to %s kHz from point A", exact(b.Blocks[0].Low.KHz()), exact(b.Blocks[0].High.KHz()))})
 		}

@@ -26,6 +26,7 @@ import (
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
+	"gridloom/grid/report"
 	"gridloom/render"
 	"gridloom/web/planform"
 )
@@ -199,7 +200,7 @@ func TestFormWorksWithoutScript(t *testing.T) {
 		if len(msgs) > 0 {
 			t.Fatalf("%s: the submitted form has messages %v", d.Name, msgs)
 		}
-		got, want := grid.Compute(p).JSON(true), grid.Compute(d.Plan).JSON(true)
+		got, want := report.Build(grid.Compute(p), true), report.Build(grid.Compute(d.Plan), true)
 		got.Plan, want.Plan = grid.Plan{}, grid.Plan{}
 		if !reflect.DeepEqual(got, want) {
 			t.Errorf("%s: submitting the form without script changes the result", d.Name)
@@ -545,12 +546,12 @@ func TestAPIRender(t *testing.T) {
 		t.Errorf("Content-Type %q", ct)
 	}
 	// The same document as the command line's render -format json.
-	want, _ := json.Marshal(grid.Compute(plan).JSON(true))
+	want, _ := json.Marshal(report.Build(grid.Compute(plan), true))
 	var gotV, wantV any
 	json.Unmarshal([]byte(r.body), &gotV)
 	json.Unmarshal(want, &wantV)
 	if !reflect.DeepEqual(gotV, wantV) {
-		t.Error("the API document differs from grid.Compute(plan).JSON(true)")
+		t.Error("the API document differs from report.Build(grid.Compute(plan), true)")
 	}
 
 	r = post(t, srv, "/api/v1/render", "application/json", []byte(`{"carrier": {"bandwidthMHz": 40}, "partitions": [{"name": "a", "sizePrb": "ten"}]}`))
@@ -566,7 +567,7 @@ func TestAPIRender(t *testing.T) {
 	broken := `{"carrier": {"bandwidthMHz": 40}, "partitions": [{"name": "a", "scsKHz": 15, "sizePrb": 300}]}`
 	r = post(t, srv, "/api/v1/render", "application/json", []byte(broken))
 	wantStatus(t, r, http.StatusUnprocessableEntity)
-	var doc grid.JSONResult
+	var doc report.Document
 	if err := json.Unmarshal([]byte(r.body), &doc); err != nil || len(doc.Findings) == 0 || doc.Channel.BandwidthMHz != 40 {
 		t.Errorf("422 body: %v; want the findings and the rest of the document", err)
 	}

@@ -16,7 +16,7 @@ func computeFile(t *testing.T, path string) grid.Result {
 // The walkthrough is made from the plan's numbers: each step says what the
 // engine computed, so a changed plan changes the narration.
 func TestWalkthroughCampus(t *testing.T) {
-	res := computeFile(t, "../testdata/plans/campus.yaml")
+	res := computeFile(t, "../grid/demo/campus.yaml")
 	steps := Walkthrough(res)
 	var keys []string
 	for _, s := range steps {
@@ -56,7 +56,7 @@ func TestWalkthroughCampus(t *testing.T) {
 }
 
 func TestWalkthroughFollowsThePlan(t *testing.T) {
-	res := computeFile(t, "../testdata/plans/port.yaml")
+	res := computeFile(t, "../grid/demo/port.yaml")
 	steps := Walkthrough(res)
 	for _, s := range steps {
 		if s.Key == "tdd" || s.Key == "ssb" {

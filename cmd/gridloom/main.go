@@ -2,11 +2,15 @@
 // numerologies: it computes each partition's time-frequency lattice, checks
 // the plan, and draws it.
 //
-//	gridloom [serve] [-addr 127.0.0.1:8080] [-plan FILE]   the web app
-//	gridloom render [-format svg|json|csv] [-o FILE] PLAN  draw or export a plan
-//	gridloom check PLAN                                    list the findings
+//	gridloom [serve] [-addr 127.0.0.1:8080] [-plan FILE]       the web app
+//	gridloom render [-format svg|png|json|csv] [-o FILE] PLAN  draw or export a plan
+//	gridloom check [-format text|json] [-strict] PLAN          list the findings
+//	gridloom version                                           the version and the 3GPP release
+//	gridloom ssb [-band nBAND] [-format table|json] PLAN      where the SS/PBCH block fits on the sync raster
 //
-// PLAN is a JSON or YAML plan file, or "-" for standard input.
+// PLAN is a JSON or YAML plan file, or "-" for standard input. Ctrl-C or
+// SIGTERM ends render and check at once and lets the server drain; a
+// second one ends the server at once.
 package main
 
 import (
@@ -20,10 +24,48 @@ import (
 )
 
 func main() {
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	ctx, cancel := context.WithCancelCause(context.Background())
+	sigs := make(chan os.Signal, 1)
+	signal.Notify(sigs, os.Interrupt, syscall.SIGTERM)
+	go func() {
+		// The first Ctrl-C or SIGTERM ends the context: the server drains,
+		// render and check stop waiting for their input. A second one
+		// means the user will not wait for the drain either.
+		sig := <-sigs
+		cancel(signalCause{sig})
+		sig = <-sigs
+		fmt.Fprintf(os.Stderr, "gridloom: %s again: stopping at once\n", sig)
+		os.Exit(signalStatus(sig))
+	}()
 	err := run(ctx, os.Args[1:], os.Stdin, os.Stdout, os.Stderr)
-	stop()
+	signal.Stop(sigs)
 	os.Exit(exitCode(err, os.Stderr))
+}
+
+// signalCause is the cause of the context's end when a signal ended it.
+type signalCause struct{ sig os.Signal }
+
+func (c signalCause) Error() string { return c.sig.String() }
+
+// signalStatus is the exit status for a program ended by sig: 128 plus the
+// signal's number, as a shell reports a program the signal killed (130 for
+// Ctrl-C, 143 for SIGTERM), so that scripts see the same either way.
+func signalStatus(sig os.Signal) int {
+	if s, ok := sig.(syscall.Signal); ok {
+		return 128 + int(s)
+	}
+	return 1
+}
+
+// interrupted is the error of a command that ctx stopped while it was
+// doing what: the exit status of the signal that ended ctx.
+func interrupted(ctx context.Context, what string) error {
+	code := 1
+	var c signalCause
+	if errors.As(context.Cause(ctx), &c) {
+		code = signalStatus(c.sig)
+	}
+	return &exitError{code: code, msg: "interrupted " + what}
 }
 
 // exitError carries an exit status; its message, if any, is printed.
@@ -53,10 +95,15 @@ const usage = `gridloom plans 5G NR carriers split into partitions of different 
 
 Usage:
   gridloom [serve] [flags]          start the web app (default 127.0.0.1:8080)
-  gridloom render [flags] PLAN      draw or export a plan: -format svg, json or csv
-  gridloom check PLAN               list the plan's findings
+  gridloom render [flags] PLAN      draw or export a plan: -format svg, png, json or csv
+  gridloom check [flags] PLAN       list the plan's findings: -format text or json, -strict
+  gridloom ssb [flags] PLAN         list the GSCNs where the SS/PBCH block fits, with
+                                    offsetToPointA and k_SSB: -band, -format table or json
+  gridloom version                  print the version and the 3GPP release it follows
+  gridloom help                     print this text
 
-PLAN is a JSON or YAML plan file, or - for standard input.
+PLAN is a JSON or YAML plan file, or - for standard input. Flags may come
+before or after PLAN; after "--" every argument is taken as a plan file.
 Run "gridloom COMMAND -h" for the flags of a command.
 `
 
@@ -65,18 +112,28 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 	cmd := "serve"
 	if len(args) > 0 && args[0] != "" && args[0][0] != '-' {
 		cmd, args = args[0], args[1:]
+	} else if len(args) > 0 && (args[0] == "-version" || args[0] == "--version") {
+		cmd, args = "version", args[1:]
+	} else {
+		// Flags alone, as in "gridloom -h", are the server's: the
+		// default command's help also lists the commands.
+		return runServe(ctx, args, stdout, stderr, true)
 	}
 	switch cmd {
 	case "serve":
-		return runServe(ctx, args, stdout, stderr)
+		return runServe(ctx, args, stdout, stderr, false)
 	case "render":
-		return runRender(args, stdin, stdout, stderr)
+		return runRender(ctx, args, stdin, stdout, stderr)
 	case "check":
-		return runCheck(args, stdin, stdout, stderr)
+		return runCheck(ctx, args, stdin, stdout, stderr)
+	case "version":
+		return runVersion(args, stdout, stderr)
+	case "ssb":
+		return runSSB(ctx, args, stdin, stdout, stderr)
 	case "help":
 		fmt.Fprint(stdout, usage)
 		return nil
 	}
 	fmt.Fprint(stderr, usage)
-	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render or check", cmd)}
+	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check, ssb, version or help", cmd)}
 }

@@ -30,7 +30,7 @@ func runCLI(t *testing.T, stdin string, args ...string) (stdout, stderr string, 
 
 func demoPlans(t *testing.T) []string {
 	t.Helper()
-	files, err := filepath.Glob("../../testdata/plans/*.yaml")
+	files, err := filepath.Glob("../../grid/demo/*.yaml")
 	if err != nil || len(files) < 3 {
 		t.Fatalf("demo plans: %v, %d found", err, len(files))
 	}
@@ -84,7 +84,7 @@ func TestRenderJSONGolden(t *testing.T) {
 
 // The JSON document carries every symbol of every partition over the span.
 func TestRenderJSONShape(t *testing.T) {
-	out, _, code := runCLI(t, "", "render", "-format", "json", "../../testdata/plans/port.yaml")
+	out, _, code := runCLI(t, "", "render", "-format", "json", "../../grid/demo/port.yaml")
 	if code != 0 {
 		t.Fatalf("exit %d", code)
 	}
@@ -123,11 +123,11 @@ func TestRenderJSONShape(t *testing.T) {
 }
 
 func TestStdin(t *testing.T) {
-	data, err := os.ReadFile("../../testdata/plans/campus.yaml")
+	data, err := os.ReadFile("../../grid/demo/campus.yaml")
 	if err != nil {
 		t.Fatal(err)
 	}
-	fromFile, _, _ := runCLI(t, "", "render", "-format", "json", "../../testdata/plans/campus.yaml")
+	fromFile, _, _ := runCLI(t, "", "render", "-format", "json", "../../grid/demo/campus.yaml")
 	fromStdin, errOut, code := runCLI(t, string(data), "render", "-format", "json", "-")
 	if code != 0 || fromStdin != fromFile {
 		t.Errorf("stdin: exit %d, stderr %q; same output as the file: %v", code, errOut, fromStdin == fromFile)
@@ -141,19 +141,24 @@ func TestCheckExitCodes(t *testing.T) {
 		code        int
 		say         string
 	}{
-		{"clean demo", "", []string{"check", "../../testdata/plans/campus.yaml"}, 0, "0 errors, 0 warnings, 3 partitions placed"},
+		{"clean demo", "", []string{"check", "../../grid/demo/campus.yaml"}, 0, "0 errors, 0 warnings, 3 partitions placed"},
 		{"one error", "", []string{"check", "../../testdata/broken/bandwidth.yaml"}, 1, "1 error, 0 warnings, 0 partitions placed"},
 		{"warnings only", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":15,"sizePrb":24},{"name":"b","scsKHz":30,"startCrb":13,"sizePrb":10}]}`,
 			[]string{"check", "-"}, 0, "numerology-gap"},
 		{"errors", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":120,"sizePrb":24}]}`, []string{"check", "-"}, 1, "scs-range"},
-		{"unreadable", "", []string{"check", "../../testdata/plans/no-such-plan.yaml"}, 2, "no-such-plan"},
+		{"unreadable", "", []string{"check", "../../grid/demo/no-such-plan.yaml"}, 2, "no-such-plan"},
 		{"undecodable", `{"carrier":`, []string{"check", "-"}, 2, "not valid JSON"},
 		{"no plan argument", "", []string{"check"}, 2, "exactly one plan"},
 		{"unknown command", "", []string{"draw"}, 2, "unknown command"},
 		{"unknown format", "", []string{"render", "-format", "pdf", "x.yaml"}, 2, "svg, png, json or csv"},
 		{"unknown theme", "", []string{"render", "-theme", "dark", "x.yaml"}, 2, "light or print"},
 		{"unknown layer", "", []string{"render", "-layers", "grid", "x.yaml"}, 2, "lattice"},
-		{"width out of range", "", []string{"render", "-width", "100", "../../testdata/plans/campus.yaml"}, 2, "640"},
+		{"width out of range", "", []string{"render", "-width", "100", "../../grid/demo/campus.yaml"}, 2, "640"},
+		{"ssb table", "", []string{"ssb", "-band", "n78", "../../grid/demo/campus.yaml"}, 0, "8016    3744.480                649632              56    16"},
+		{"ssb unknown band", "", []string{"ssb", "-band", "n80", "../../grid/demo/campus.yaml"}, 2, "no SS raster entries"},
+		{"ssb wrong band spacing", "", []string{"ssb", "-band", "n1", "../../grid/demo/campus.yaml"}, 2, "no 30 kHz SS/PBCH blocks"},
+		{"ssb no frequency", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":30,"sizePrb":106}]}`, []string{"ssb", "-band", "n78", "-"}, 2, "carrier.centerMHz"},
+		{"ssb unknown format", "", []string{"ssb", "-format", "csv", "x.yaml"}, 2, "table or json"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			out, errOut, code := runCLI(t, c.stdin, c.args...)
@@ -164,6 +169,40 @@ func TestCheckExitCodes(t *testing.T) {
 				t.Errorf("output does not say %q:\n%s%s", c.say, out, errOut)
 			}
 		})
+	}
+}
+
+// "gridloom ssb -format json" lists the GSCNs with their placement; the
+// campus plan's own GSCN 8016 is among them with the offsets worked by hand
+// in render's TestSSBCampus (offsetToPointA 56, k_SSB 16).
+func TestSSBCommandJSON(t *testing.T) {
+	out, errOut, code := runCLI(t, "", "ssb", "-band", "n78", "-format", "json", "../../grid/demo/campus.yaml")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var doc struct {
+		Band      string `json:"band"`
+		Positions []struct {
+			GSCN           int     `json:"gscn"`
+			SSRefMHz       float64 `json:"ssRefMHz"`
+			OffsetToPointA int     `json:"offsetToPointA"`
+			KSSB           int     `json:"kSsb"`
+		} `json:"positions"`
+	}
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatalf("%v: %s", err, out)
+	}
+	found := false
+	for _, q := range doc.Positions {
+		if q.GSCN < 7711 || q.GSCN > 8051 {
+			t.Errorf("GSCN %d is outside n78's 7711 – 8051", q.GSCN)
+		}
+		if q.GSCN == 8016 {
+			found = q.SSRefMHz == 3744.48 && q.OffsetToPointA == 56 && q.KSSB == 16
+		}
+	}
+	if doc.Band != "n78" || !found {
+		t.Errorf("band %q; GSCN 8016 at 3744.48 MHz with 56/16 found: %v\n%s", doc.Band, found, out)
 	}
 }
 
@@ -191,7 +230,7 @@ func TestBrokenPlansExitOne(t *testing.T) {
 }
 
 func TestHelpOnEverySubcommand(t *testing.T) {
-	for _, cmd := range []string{"render", "check"} {
+	for _, cmd := range []string{"render", "check", "ssb"} {
 		_, errOut, code := runCLI(t, "", cmd, "-h")
 		if code != 0 || !strings.Contains(errOut, "Usage: gridloom "+cmd) {
 			t.Errorf("%s -h: exit %d, output %q", cmd, code, errOut)
@@ -207,7 +246,7 @@ func TestHelpOnEverySubcommand(t *testing.T) {
 
 func TestRenderWritesFile(t *testing.T) {
 	out := filepath.Join(t.TempDir(), "plan.json")
-	if _, errOut, code := runCLI(t, "", "render", "-format", "json", "-o", out, "../../testdata/plans/stadium.yaml"); code != 0 {
+	if _, errOut, code := runCLI(t, "", "render", "-format", "json", "-o", out, "../../grid/demo/stadium.yaml"); code != 0 {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
 	data, err := os.ReadFile(out)
@@ -227,7 +266,7 @@ func TestExitErrorMessage(t *testing.T) {
 // decodes to the plan the figure was drawn from. PNG output is a PNG.
 func TestRenderFigureFormats(t *testing.T) {
 	dir := t.TempDir()
-	src := "../../testdata/plans/stadium.yaml"
+	src := "../../grid/demo/stadium.yaml"
 	svgPath, pngPath := filepath.Join(dir, "f.svg"), filepath.Join(dir, "f.png")
 	for _, c := range [][]string{
 		{"render", "-format", "svg", "-theme", "print", "-layers", "lattice,tdd,ssb", "-o", svgPath, src},

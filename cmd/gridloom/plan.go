@@ -1,11 +1,14 @@
 package main
 
 import (
+	"bytes"
+	"context"
 	"flag"
 	"fmt"
 	"io"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"unicode/utf8"
 
@@ -41,20 +44,73 @@ func parseFlags(fs *flag.FlagSet, args []string) error {
 	return nil
 }
 
-// readPlan reads and decodes the plan named by path, "-" for stdin.
-func readPlan(path string, stdin io.Reader) (grid.Plan, error) {
-	var data []byte
-	var err error
-	if path == "-" {
-		data, err = io.ReadAll(io.LimitReader(stdin, planfile.MaxSize+1))
-	} else {
-		data, err = readFileLimited(path)
+// parseInterspersed parses flags before, between and after the
+// positional arguments and returns those, so that "render plan.yaml
+// -format json" does what it says: the flag package alone stops at the
+// first argument that is not a flag and would leave -format to be taken
+// for a second plan file. "--" ends the flags; every argument after it is
+// positional, so a plan file whose name starts with "-" can still be given.
+func parseInterspersed(fs *flag.FlagSet, args []string) ([]string, error) {
+	var pos []string
+	for {
+		if err := parseFlags(fs, args); err != nil {
+			return nil, err
+		}
+		rest := fs.Args()
+		if n := len(args) - len(rest); n > 0 && args[n-1] == "--" {
+			return append(pos, rest...), nil
+		}
+		if len(rest) == 0 {
+			return pos, nil
+		}
+		pos, args = append(pos, rest[0]), rest[1:]
 	}
-	if err != nil {
-		return grid.Plan{}, &exitError{code: exitBadInput, msg: err.Error()}
+}
+
+// maxInput bounds what readPlan reads: a figure may carry a plan of
+// planfile.MaxSize in base64 beside its drawing; the decoders refuse a
+// plan file beyond planfile.MaxSize themselves, naming its size.
+const maxInput = render.MaxSVGBytes
+
+// readPlan reads and decodes the plan named by path, "-" for stdin. It
+// gives up when ctx ends: standard input (or a named pipe) may never
+// deliver, and Ctrl-C must still end the program.
+func readPlan(ctx context.Context, path string, stdin io.Reader) (grid.Plan, error) {
+	type result struct {
+		data []byte
+		err  error
+	}
+	read := make(chan result, 1)
+	go func() {
+		var r result
+		if path == "-" {
+			r.data, r.err = io.ReadAll(io.LimitReader(stdin, maxInput+1))
+		} else {
+			r.data, r.err = readFileLimited(path)
+		}
+		read <- r
+	}()
+	var data []byte
+	select {
+	case r := <-read:
+		if r.err != nil {
+			return grid.Plan{}, &exitError{code: exitBadInput, msg: r.err.Error()}
+		}
+		data = r.data
+	case <-ctx.Done():
+		// The reading goroutine stays blocked; the program is about to exit.
+		return grid.Plan{}, interrupted(ctx, "while reading "+displayName(path))
 	}
 	var p grid.Plan
-	switch strings.ToLower(filepath.Ext(path)) {
+	var err error
+	ext := strings.ToLower(filepath.Ext(path))
+	if ext == ".svg" || (ext != ".json" && ext != ".yaml" && ext != ".yml" && looksLikeXML(data)) {
+		// A figure gridloom exported carries its plan, as on the page.
+		if data, err = render.PlanFromSVG(data); err != nil {
+			return grid.Plan{}, &exitError{code: exitBadInput, msg: fmt.Sprintf("%s cannot be opened as a plan: %s.", displayName(path), strings.TrimSuffix(err.Error(), "."))}
+		}
+	}
+	switch ext {
 	case ".json":
 		p, err = planfile.DecodeJSON(data)
 	case ".yaml", ".yml":
@@ -68,13 +124,20 @@ func readPlan(path string, stdin io.Reader) (grid.Plan, error) {
 	return p, nil
 }
 
+// looksLikeXML reports whether data opens as an XML document does: with
+// "<" after any byte order mark and white space. No plan file does.
+func looksLikeXML(data []byte) bool {
+	data = bytes.TrimLeft(bytes.TrimPrefix(data, []byte("\ufeff")), " \t\r\n")
+	return len(data) > 0 && data[0] == '<'
+}
+
 func readFileLimited(path string) ([]byte, error) {
 	f, err := os.Open(path)
 	if err != nil {
 		return nil, err
 	}
 	defer f.Close()
-	return io.ReadAll(io.LimitReader(f, planfile.MaxSize+1))
+	return io.ReadAll(io.LimitReader(f, maxInput+1))
 }
 
 func displayName(path string) string {
@@ -84,31 +147,48 @@ func displayName(path string) string {
 	return path
 }
 
-func onePlanArg(fs *flag.FlagSet) (string, error) {
-	if fs.NArg() != 1 {
+func onePlanArg(fs *flag.FlagSet, pos []string) (string, error) {
+	if len(pos) != 1 {
 		fs.Usage()
-		return "", &exitError{code: exitBadInput, msg: "give exactly one plan file, or - for standard input"}
+		msg := "give exactly one plan file, or - for standard input"
+		if len(pos) > 1 {
+			msg += fmt.Sprintf("; got %d: %s", len(pos), strings.Join(quoteAll(pos), " "))
+		}
+		return "", &exitError{code: exitBadInput, msg: msg}
 	}
-	return fs.Arg(0), nil
+	return pos[0], nil
 }
 
-func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
-	fs := newFlags("check", "PLAN", stderr)
-	if err := parseFlags(fs, args); err != nil {
-		return err
+func quoteAll(ss []string) []string {
+	q := make([]string, len(ss))
+	for i, s := range ss {
+		q[i] = strconv.Quote(s)
 	}
-	path, err := onePlanArg(fs)
+	return q
+}
+
+func runCheck(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.Writer) error {
+	fs := newFlags("check", "[-format text|json] [-strict] PLAN", stderr)
+	format := fs.String("format", "text", "output `format`: text (one finding a line and a summary) or json (an object whose \"findings\" are those of render -format json)")
+	strict := fs.Bool("strict", false, "exit 1 on warnings as well as errors, for CI")
+	pos, err := parseInterspersed(fs, args)
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(path, stdin)
+	if *format != "text" && *format != "json" {
+		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format of check; use text or json", *format)}
+	}
+	path, err := onePlanArg(fs, pos)
+	if err != nil {
+		return err
+	}
+	p, err := readPlan(ctx, path, stdin)
 	if err != nil {
 		return err
 	}
 	res := grid.Compute(p)
 	errs, warns := 0, 0
 	for _, f := range res.Findings {
-		fmt.Fprintln(stdout, f)
 		switch f.Severity {
 		case grid.Error:
 			errs++
@@ -116,15 +196,27 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 			warns++
 		}
 	}
-	fmt.Fprintf(stdout, "%s: %s, %s, %s placed\n", displayName(path),
-		count(errs, "error", "errors"), count(warns, "warning", "warnings"), count(len(res.Partitions), "partition", "partitions"))
-	if errs > 0 {
+	if *format == "json" {
+		if err := writeFindingsJSON(stdout, res); err != nil {
+			return &exitError{code: exitBadInput, msg: err.Error()}
+		}
+	} else {
+		for _, f := range res.Findings {
+			fmt.Fprintln(stdout, f)
+		}
+		fmt.Fprintf(stdout, "%s: %s, %s, %s placed\n", displayName(path),
+			count(errs, "error", "errors"), count(warns, "warning", "warnings"), count(len(res.Partitions), "partition", "partitions"))
+	}
+	switch {
+	case errs > 0:
 		return &exitError{code: exitPlanErrors}
+	case *strict && warns > 0:
+		return &exitError{code: exitPlanErrors, msg: fmt.Sprintf("%s: -strict fails on %s", displayName(path), count(warns, "warning", "warnings"))}
 	}
 	return nil
 }
 
-func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
+func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	fs := newFlags("render", "[-format svg|png|json|csv] [-o FILE] [figure flags] PLAN", stderr)
 	format := fs.String("format", "svg", "output `format`: svg or png (the figure), json (lattice, summary and findings) or csv (one row per symbol)")
 	out := fs.String("o", "-", "write to `FILE` instead of standard output")
@@ -132,7 +224,8 @@ func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	theme := fs.String("theme", "light", "figure `theme`: light, or print (greyscale-safe)")
 	layers := fs.String("layers", "all", "figure `layers` to show, a comma list of "+strings.Join(render.LayerNames(), ", ")+", or all or none")
 	caption := fs.String("caption", "", "a caption `line` under the figure; empty for the plan's name, - for none")
-	if err := parseFlags(fs, args); err != nil {
+	pos, err := parseInterspersed(fs, args)
+	if err != nil {
 		return err
 	}
 	switch *format {
@@ -141,18 +234,17 @@ func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use svg, png, json or csv", *format)}
 	}
 	opt := render.Options{Width: *width}
-	var err error
 	if opt.Theme, err = render.ParseTheme(*theme); err != nil {
 		return &exitError{code: exitBadInput, msg: "-theme: " + err.Error()}
 	}
 	if opt.Layers, err = render.ParseLayers(*layers); err != nil {
 		return &exitError{code: exitBadInput, msg: "-" + err.Error()}
 	}
-	path, err := onePlanArg(fs)
+	path, err := onePlanArg(fs, pos)
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(path, stdin)
+	p, err := readPlan(ctx, path, stdin)
 	if err != nil {
 		return err
 	}

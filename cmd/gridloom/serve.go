@@ -5,17 +5,14 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"io/fs"
 	"log/slog"
 	"net"
 	"net/http"
-	"slices"
 	"strings"
 	"syscall"
 	"time"
 
-	"gridloom/grid/planfile"
-	"gridloom/testdata/plans"
+	"gridloom/grid/demo"
 	"gridloom/web"
 )
 
@@ -62,9 +59,17 @@ func newHTTPServer(h http.Handler, logger *slog.Logger, lim serverLimits) *http.
 }
 
 // runServe starts the web app and serves until ctx ends, then shuts down
-// gracefully and returns nil.
-func runServe(ctx context.Context, args []string, stdout, stderr io.Writer) error {
+// gracefully and returns nil. implicit says the user named no command, as
+// in "gridloom -h": the help then lists the commands too.
+func runServe(ctx context.Context, args []string, stdout, stderr io.Writer, implicit bool) error {
 	fs := newFlags("serve", "[-addr HOST:PORT] [-plan FILE]", stderr)
+	if implicit {
+		fs.Usage = func() {
+			fmt.Fprint(stderr, usage)
+			fmt.Fprintln(stderr, "\nFlags of serve, the command run when none is named:")
+			fs.PrintDefaults()
+		}
+	}
 	addr := fs.String("addr", "127.0.0.1:8080", "listen on `HOST:PORT`; the app has no login, so keep it on a loopback address")
 	planPath := fs.String("plan", "", "open with the plan in `FILE` (JSON or YAML) instead of the demo plan")
 	if err := parseFlags(fs, args); err != nil {
@@ -83,7 +88,7 @@ func runServe(ctx context.Context, args []string, stdout, stderr io.Writer) erro
 		if *planPath == "-" {
 			return &exitError{code: exitBadInput, msg: "-plan needs a file: the web app cannot read its plan from standard input"}
 		}
-		if start, err = readPlan(*planPath, nil); err != nil {
+		if start, err = readPlan(ctx, *planPath, nil); err != nil {
 			return err
 		}
 	}
@@ -150,25 +155,16 @@ func serveURL(a net.Addr, requested string) string {
 // loadDemos decodes the embedded demo plans and returns them with the
 // default one, which the app opens with.
 func loadDemos() ([]web.Demo, web.Demo, error) {
-	names, err := fs.Glob(plans.FS, "*.yaml")
+	all, err := demo.All()
 	if err != nil {
 		return nil, web.Demo{}, err
 	}
-	slices.Sort(names)
 	var demos []web.Demo
 	var def web.Demo
-	for _, n := range names {
-		b, err := fs.ReadFile(plans.FS, n)
-		if err != nil {
-			return nil, web.Demo{}, err
-		}
-		p, err := planfile.DecodeYAML(b)
-		if err != nil {
-			return nil, web.Demo{}, fmt.Errorf("demo plan %s: %w", n, err)
-		}
-		d := web.Demo{Name: strings.TrimSuffix(n, ".yaml"), Plan: p}
+	for _, p := range all {
+		d := web.Demo{Name: p.Name, Plan: p.Plan}
 		demos = append(demos, d)
-		if n == plans.Default {
+		if p.Name == demo.Default {
 			def = d
 		}
 	}

@@ -125,7 +125,7 @@ func TestServeBusyPort(t *testing.T) {
 }
 
 func TestServePlanFlag(t *testing.T) {
-	base, _, cancel, done := startServe(t, "serve", "-addr", "127.0.0.1:0", "-plan", "../../testdata/plans/port.yaml")
+	base, _, cancel, done := startServe(t, "serve", "-addr", "127.0.0.1:0", "-plan", "../../grid/demo/port.yaml")
 	client := &http.Client{CheckRedirect: func(*http.Request, []*http.Request) error { return http.ErrUseLastResponse }}
 	res, err := client.Get(base + "/")
 	if err != nil {
@@ -165,7 +165,7 @@ func TestServeFlags(t *testing.T) {
 		code int
 		want string
 	}{
-		{[]string{"serve", "-plan", "../../testdata/plans/none.yaml"}, 2, "none.yaml"},
+		{[]string{"serve", "-plan", "../../grid/demo/none.yaml"}, 2, "none.yaml"},
 		{[]string{"serve", "-plan", "-"}, 2, "standard input"},
 		{[]string{"serve", "extra"}, 2, "no arguments"},
 		{[]string{"serve", "-addr", "256.1.1.1:0"}, 1, "cannot listen on 256.1.1.1:0"},

@@ -3,9 +3,11 @@
 //
 // Security: Decode takes untrusted bytes. It refuses input over MaxSize,
 // unknown keys, duplicate keys, values of the wrong type, numbers that are
-// not finite or not whole where a count is wanted, and YAML whose aliases
-// expand past a bound, so the plan it returns is small and well-typed. It
-// does not judge values: grid.Compute does, with findings.
+// not finite or not whole where a count is wanted, YAML whose aliases
+// expand past a bound, a second YAML document (which would otherwise be
+// dropped unread) and !!binary values (which would read as their base64),
+// so the plan it returns is small and well-typed. It does not judge
+// values: grid.Compute does, with findings.
 package planfile
 
 import (
@@ -15,9 +17,11 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"reflect"
 	"slices"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"go.yaml.in/yaml/v3"
 
@@ -90,6 +94,9 @@ func DecodeJSON(data []byte) (grid.Plan, error) {
 	if len(data) > MaxSize {
 		return grid.Plan{}, tooLarge(len(data))
 	}
+	if err := imageError(data); err != nil {
+		return grid.Plan{}, err
+	}
 	data = bytes.TrimPrefix(data, bom)
 	tree, err := jsonTree(data)
 	if err != nil {
@@ -103,13 +110,33 @@ func DecodeYAML(data []byte) (grid.Plan, error) {
 	if len(data) > MaxSize {
 		return grid.Plan{}, tooLarge(len(data))
 	}
+	if err := imageError(data); err != nil {
+		return grid.Plan{}, err
+	}
 	data = bytes.TrimPrefix(data, bom)
+	dec := yaml.NewDecoder(bytes.NewReader(data))
 	var doc yaml.Node
-	if err := yaml.Unmarshal(data, &doc); err != nil {
-		return grid.Plan{}, &FieldError{Msg: "The plan is not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: ") + "."}
+	if err := dec.Decode(&doc); err != nil && err != io.EOF {
+		return grid.Plan{}, yamlSyntaxError(data, err)
 	}
 	if doc.Kind == 0 {
 		return grid.Plan{}, &FieldError{Msg: "The plan file is empty."}
+	}
+	// JSON refuses data after the plan; YAML would read the first of
+	// several documents and drop the rest without a word. An empty
+	// document after a closing "---" drops nothing and passes.
+	var next yaml.Node
+	if err := dec.Decode(&next); err != io.EOF {
+		if err != nil {
+			return grid.Plan{}, yamlSyntaxError(data, err)
+		}
+		if !emptyDocument(&next) {
+			return grid.Plan{}, &FieldError{Msg: fmt.Sprintf("Line %d: a second YAML document starts here; a plan file holds one plan, so remove the \"---\" line and what follows, or put each plan in a file of its own.", documentLine(&next))}
+		}
+		var more yaml.Node
+		if err := dec.Decode(&more); err != io.EOF {
+			return grid.Plan{}, &FieldError{Msg: "The plan file holds more than one YAML document; a plan file holds one plan, so put each plan in a file of its own."}
+		}
 	}
 	budget := maxNodes
 	tree, err := yamlTree(&doc, &budget, 0)
@@ -117,6 +144,73 @@ func DecodeYAML(data []byte) (grid.Plan, error) {
 		return grid.Plan{}, err
 	}
 	return FromTree(tree)
+}
+
+// emptyDocument reports whether a YAML document holds nothing.
+func emptyDocument(n *yaml.Node) bool {
+	if len(n.Content) == 0 {
+		return true
+	}
+	c := n.Content[0]
+	return c.Kind == yaml.ScalarNode && c.Tag == "!!null" && c.Value == ""
+}
+
+// documentLine is the first line of a document's content.
+func documentLine(n *yaml.Node) int {
+	if len(n.Content) > 0 && n.Content[0].Line > 0 {
+		return n.Content[0].Line
+	}
+	return n.Line
+}
+
+// imageSignatures are the first bytes of the image formats a figure may
+// have been saved in, each with its article and name for the message:
+// PNG's signature (RFC 2083 3.1), GIF's header (GIF89a), JPEG's SOI marker
+// and the next marker's first byte, TIFF's header in both byte orders,
+// BMP's "BM" with its zero reserved bytes, and the RIFF and ISO-BMFF
+// containers of WebP, AVIF and HEIF, whose type follows a length (all from
+// memory of the formats' specifications; the PNG one is checked against a
+// PNG gridloom wrote, in cmd/gridloom). "?" matches any byte. None can
+// begin a plan file, which is text.
+var imageSignatures = []struct{ name, sig string }{
+	{"a PNG", "\x89PNG\r\n\x1a\n"},
+	{"a JPEG", "\xff\xd8\xff"},
+	{"a GIF", "GIF87a"},
+	{"a GIF", "GIF89a"},
+	{"a WebP", "RIFF????WEBP"},
+	{"a TIFF", "II*\x00"},
+	{"a TIFF", "MM\x00*"},
+	{"a BMP", "BM????\x00\x00\x00\x00"},
+	{"an AVIF", "????ftypavif"},
+	{"a HEIF", "????ftypheic"},
+	{"a HEIF", "????ftypmif1"},
+}
+
+// imageError refuses an image with a message that says where the plan is.
+// Without it, a PNG the app exported read as "not valid YAML: invalid
+// leading UTF-8 octet", which tells a user nothing about what to open.
+func imageError(data []byte) error {
+	for _, im := range imageSignatures {
+		if len(data) < len(im.sig) {
+			continue
+		}
+		match := true
+		for i := range len(im.sig) {
+			if im.sig[i] != '?' && im.sig[i] != data[i] {
+				match = false
+				break
+			}
+		}
+		if !match {
+			continue
+		}
+		why := ""
+		if im.name == "a PNG" {
+			why = ": a PNG figure does not carry its plan"
+		}
+		return &FieldError{Msg: fmt.Sprintf("The file is %s image, not a plan file%s. Open the plan's JSON or YAML file, or an SVG figure gridloom exported, which carries its plan.", im.name, why)}
+	}
+	return nil
 }
 
 func tooLarge(n int) error {
@@ -264,6 +358,9 @@ func yamlTree(n *yaml.Node, budget *int, depth int) (any, error) {
 				return number(n.Value), nil // too large for int64: the walk refuses it by size
 			}
 			return number(strconv.FormatInt(i, 10)), nil
+		case "!!binary":
+			// Read as its text, base64 would pass for a name or a case.
+			return nil, &FieldError{Msg: fmt.Sprintf("Line %d: !!binary values are not accepted in a plan; write the value as plain text.", n.Line)}
 		case "!!float":
 			var f float64
 			if err := n.Decode(&f); err != nil {
@@ -286,6 +383,38 @@ func FromTree(tree any) (grid.Plan, error) {
 	return p, nil
 }
 
+// keys are the keys of each object of a plan file, in field order, read
+// once from the json tags of grid.Plan and the types it holds: the structs
+// own the format, and the walk accepts exactly the keys they write.
+var keys = struct {
+	plan, carrier, partition, tdd, tddPattern, ssb, environment []string
+}{
+	plan:        tagKeys(reflect.TypeFor[grid.Plan]()),
+	carrier:     tagKeys(reflect.TypeFor[grid.CarrierPlan]()),
+	partition:   tagKeys(reflect.TypeFor[grid.PartitionPlan]()),
+	tdd:         tagKeys(reflect.TypeFor[grid.TDDPlan]()),
+	tddPattern:  tagKeys(reflect.TypeFor[grid.TDDPattern]()),
+	ssb:         tagKeys(reflect.TypeFor[grid.SSBPlan]()),
+	environment: tagKeys(reflect.TypeFor[grid.EnvironmentPlan]()),
+}
+
+// tagKeys lists the json keys of a struct's fields. A field without a key,
+// or whose yaml key differs, would make the two syntaxes disagree: that is
+// a mistake in grid, reported at start-up by any test.
+func tagKeys(t reflect.Type) []string {
+	out := make([]string, 0, t.NumField())
+	for i := range t.NumField() {
+		f := t.Field(i)
+		j, _, _ := strings.Cut(f.Tag.Get("json"), ",")
+		y, _, _ := strings.Cut(f.Tag.Get("yaml"), ",")
+		if j == "" || j == "-" || j != y {
+			panic(fmt.Sprintf("planfile: %s.%s has json key %q and yaml key %q; give both the same key", t.Name(), f.Name, j, y))
+		}
+		out = append(out, j)
+	}
+	return out
+}
+
 type walker struct{ errs Errors }
 
 func (w *walker) fail(field, format string, args ...any) {
@@ -306,10 +435,64 @@ func (w *walker) object(v any, field string, known ...string) map[string]any {
 	slices.Sort(keys)
 	for _, k := range keys {
 		if !slices.Contains(known, k) {
-			w.fail(join(field, k), "unknown key %q; the keys here are %s.", k, strings.Join(known, ", "))
+			msg := fmt.Sprintf("unknown key %q; the keys here are %s.", k, strings.Join(known, ", "))
+			if near := nearestKey(k, known); near != "" {
+				msg += " Did you mean " + near + "?"
+			}
+			w.fail(join(field, k), "%s", msg)
 		}
 	}
 	return m
+}
+
+// nearestKey is the known key that key was most likely meant to be, or ""
+// when none is close: a suggestion that is far off misleads more than
+// the list of keys helps. Close is an edit distance (letter case aside,
+// a swap of two neighbours counting as one edit) of at most 2 and under
+// half the key's length, or a known key that begins with key or that key
+// begins with, within 4 edits: a unit left off or added, as in "scs" for
+// scsKHz.
+func nearestKey(key string, known []string) string {
+	best, bestD := "", -1
+	lk := strings.ToLower(key)
+	for _, k := range known {
+		lkn := strings.ToLower(k)
+		d := editDistance(lk, lkn)
+		prefix := len(lk) >= 3 && (strings.HasPrefix(lkn, lk) || strings.HasPrefix(lk, lkn))
+		if !(d <= 2 && 2*d < len(lk)) && !(prefix && d <= 4) {
+			continue
+		}
+		if bestD < 0 || d < bestD {
+			best, bestD = k, d
+		}
+	}
+	return best
+}
+
+// editDistance counts the insertions, deletions, substitutions and swaps
+// of neighbouring bytes that turn a into b (optimal string alignment).
+func editDistance(a, b string) int {
+	prev2 := make([]int, len(b)+1)
+	prev := make([]int, len(b)+1)
+	cur := make([]int, len(b)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(a); i++ {
+		cur[0] = i
+		for j := 1; j <= len(b); j++ {
+			cost := 1
+			if a[i-1] == b[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+			if i > 1 && j > 1 && a[i-1] == b[j-2] && a[i-2] == b[j-1] {
+				cur[j] = min(cur[j], prev2[j-2]+1)
+			}
+		}
+		prev2, prev, cur = prev, cur, prev2
+	}
+	return prev[len(b)]
 }
 
 func join(field, key string) string {
@@ -443,7 +626,7 @@ func sortedKeys(m map[string]any) []string {
 }
 
 func (w *walker) plan(v any) grid.Plan {
-	m := w.object(v, "", "name", "spanMs", "carrier", "partitions", "numerologyGapKHz", "tdd", "ssb", "environment")
+	m := w.object(v, "", keys.plan...)
 	if m == nil {
 		return grid.Plan{}
 	}
@@ -481,12 +664,13 @@ func (w *walker) plan(v any) grid.Plan {
 }
 
 func (w *walker) carrier(v any) grid.CarrierPlan {
-	m := w.object(v, "carrier", "range", "bandwidthMHz", "centerMHz", "arfcn", "offsetToCarrier", "carrierBandwidth")
+	m := w.object(v, "carrier", keys.carrier...)
 	if m == nil {
 		return grid.CarrierPlan{}
 	}
 	c := grid.CarrierPlan{
 		Range:            w.str(m["range"], "carrier.range"),
+		Band:             w.str(m["band"], "carrier.band"),
 		BandwidthMHz:     w.intOr0(m["bandwidthMHz"], "carrier.bandwidthMHz"),
 		CenterMHz:        w.optFloat(m["centerMHz"], "carrier.centerMHz"),
 		ARFCN:            w.optInt(m["arfcn"], "carrier.arfcn"),
@@ -497,7 +681,7 @@ func (w *walker) carrier(v any) grid.CarrierPlan {
 }
 
 func (w *walker) partition(v any, f string) grid.PartitionPlan {
-	m := w.object(v, f, "name", "scsKHz", "cp", "startCrb", "sizePrb", "locationAndBandwidth", "direction", "layers", "modulation")
+	m := w.object(v, f, keys.partition...)
 	if m == nil {
 		return grid.PartitionPlan{}
 	}
@@ -516,7 +700,7 @@ func (w *walker) partition(v any, f string) grid.PartitionPlan {
 }
 
 func (w *walker) tdd(v any) *grid.TDDPlan {
-	m := w.object(v, "tdd", "referenceScsKHz", "pattern1", "pattern2")
+	m := w.object(v, "tdd", keys.tdd...)
 	if m == nil {
 		return nil
 	}
@@ -534,7 +718,7 @@ func (w *walker) tdd(v any) *grid.TDDPlan {
 }
 
 func (w *walker) tddPattern(v any, f string) grid.TDDPattern {
-	m := w.object(v, f, "periodMs", "downlinkSlots", "downlinkSymbols", "uplinkSlots", "uplinkSymbols")
+	m := w.object(v, f, keys.tddPattern...)
 	if m == nil {
 		return grid.TDDPattern{}
 	}
@@ -552,7 +736,7 @@ func (w *walker) tddPattern(v any, f string) grid.TDDPattern {
 }
 
 func (w *walker) ssb(v any) *grid.SSBPlan {
-	m := w.object(v, "ssb", "scsKHz", "case", "bitmap", "offsetToPointA", "kSsb", "scsCommonKHz", "periodMs")
+	m := w.object(v, "ssb", keys.ssb...)
 	if m == nil {
 		return nil
 	}
@@ -564,6 +748,7 @@ func (w *walker) ssb(v any) *grid.SSBPlan {
 		KSSB:           w.intOr0(m["kSsb"], "ssb.kSsb"),
 		ScsCommonKHz:   w.intOr0(m["scsCommonKHz"], "ssb.scsCommonKHz"),
 		PeriodMs:       w.intOr0(m["periodMs"], "ssb.periodMs"),
+		GSCN:           w.optInt(m["gscn"], "ssb.gscn"),
 	}
 }
 
@@ -576,7 +761,7 @@ func (w *walker) bitmap(v any, field string) string {
 }
 
 func (w *walker) environment(v any) *grid.EnvironmentPlan {
-	m := w.object(v, "environment", "delaySpreadNs", "delayProfile", "speedKmh", "carrierMHz")
+	m := w.object(v, "environment", keys.environment...)
 	if m == nil {
 		return nil
 	}
@@ -610,8 +795,13 @@ func EncodeJSON(p grid.Plan) ([]byte, error) {
 	return append(b, '\n'), nil
 }
 
-// EncodeYAML writes p as a YAML plan file.
+// EncodeYAML writes p as a YAML plan file. Text that is not valid UTF-8
+// is written with U+FFFD in place of the bad bytes, as EncodeJSON does:
+// the YAML encoder would otherwise write it as !!binary, which DecodeYAML
+// refuses, and a download must read back.
 func EncodeYAML(p grid.Plan) ([]byte, error) {
+	p = p.Clone()
+	validUTF8(reflect.ValueOf(&p).Elem())
 	var buf bytes.Buffer
 	enc := yaml.NewEncoder(&buf)
 	enc.SetIndent(2)
@@ -622,4 +812,50 @@ func EncodeYAML(p grid.Plan) ([]byte, error) {
 		return nil, err
 	}
 	return buf.Bytes(), nil
+}
+
+// validUTF8 replaces the invalid bytes of every string v holds, following
+// pointers, slices and structs (a plan's maps hold only numbers).
+func validUTF8(v reflect.Value) {
+	switch v.Kind() {
+	case reflect.String:
+		if v.CanSet() && !utf8.ValidString(v.String()) {
+			v.SetString(strings.ToValidUTF8(v.String(), "\uFFFD"))
+		}
+	case reflect.Pointer:
+		if !v.IsNil() {
+			validUTF8(v.Elem())
+		}
+	case reflect.Slice:
+		for i := range v.Len() {
+			validUTF8(v.Index(i))
+		}
+	case reflect.Struct:
+		for i := range v.NumField() {
+			validUTF8(v.Field(i))
+		}
+	}
+}
+
+// yamlSyntaxError turns the YAML parser's error into the message users see.
+//
+// For a tab that breaks the indentation the parser names the line of the
+// token before it ("line 7" for a tab on line 8, or further up across blank
+// lines and comments), so the line is moved to the first line from there
+// whose indentation holds a tab: only white space and comments lie between.
+func yamlSyntaxError(data []byte, err error) error {
+	msg := strings.TrimPrefix(err.Error(), "yaml: ")
+	var line int
+	if _, scanErr := fmt.Sscanf(msg, "line %d:", &line); scanErr == nil && strings.Contains(msg, "tab character") {
+		lines := strings.Split(string(data), "\n")
+		for n := line; n >= 1 && n <= len(lines); n++ {
+			l := lines[n-1]
+			if strings.ContainsRune(l[:len(l)-len(strings.TrimLeft(l, " \t"))], '\t') {
+				_, rest, _ := strings.Cut(msg, ":")
+				msg = fmt.Sprintf("line %d:%s", n, rest)
+				break
+			}
+		}
+	}
+	return &FieldError{Msg: "The plan is not valid YAML: " + msg + "."}
 }

@@ -2,6 +2,7 @@ package planfile
 
 import (
 	"errors"
+	"fmt"
 	"os"
 	"path/filepath"
 	"reflect"
@@ -9,6 +10,7 @@ import (
 	"testing"
 
 	"gridloom/grid"
+	"gridloom/grid/report"
 )
 
 const campusYAML = `
@@ -16,6 +18,7 @@ name: Test campus
 spanMs: 2
 carrier:
   range: FR1
+  band: n78
   bandwidthMHz: 40
   centerMHz: 3750.0
   offsetToCarrier: {15: 0, "30": 1}
@@ -34,7 +37,7 @@ partitions:
 
 const campusJSON = `{
   "name": "Test campus", "spanMs": 2,
-  "carrier": {"range": "FR1", "bandwidthMHz": 40, "centerMHz": 3750.0, "offsetToCarrier": {"15": 0, "30": 1}},
+  "carrier": {"range": "FR1", "band": "n78", "bandwidthMHz": 40, "centerMHz": 3750.0, "offsetToCarrier": {"15": 0, "30": 1}},
   "partitions": [
     {"name": "sensors", "scsKHz": 15, "startCrb": 0, "sizePrb": 48},
     {"name": "video", "scsKHz": 30, "locationAndBandwidth": 13500, "direction": "DL", "layers": 2, "modulation": "256QAM"}
@@ -53,7 +56,7 @@ func TestJSONAndYAMLAgree(t *testing.T) {
 	if !reflect.DeepEqual(fromYAML, fromJSON) {
 		t.Errorf("YAML and JSON of one plan differ:\nYAML %+v\nJSON %+v", fromYAML, fromJSON)
 	}
-	if fromJSON.Carrier.OffsetToCarrier[30] != 1 || *fromJSON.Partitions[1].LocationAndBandwidth != 13500 {
+	if fromJSON.Carrier.OffsetToCarrier[30] != 1 || fromJSON.Carrier.Band != "n78" || *fromJSON.Partitions[1].LocationAndBandwidth != 13500 {
 		t.Errorf("decoded %+v", fromJSON)
 	}
 	if got, _ := Decode([]byte(campusJSON)); !reflect.DeepEqual(got, fromJSON) {
@@ -82,7 +85,7 @@ func TestRoundTrip(t *testing.T) {
 }
 
 func TestDemoPlansDecode(t *testing.T) {
-	files, _ := filepath.Glob("../../testdata/plans/*.yaml")
+	files, _ := filepath.Glob("../demo/*.yaml")
 	if len(files) < 3 {
 		t.Fatalf("found %d demo plans, want at least 3", len(files))
 	}
@@ -123,6 +126,12 @@ func TestDecodeErrorsNameTheField(t *testing.T) {
 		{"trailing JSON", `{"name":"a"} {}`, "", "more after the end"},
 		{"top-level list", `[1]`, "", "want an object"},
 		{"empty YAML", "", "", "empty"},
+		{"second YAML document", "name: a\n---\nname: b\n", "", "Line 3: a second YAML document"},
+		{"second YAML document, a list", "name: a\n--- [1, 2]\n", "", "second YAML document"},
+		{"third YAML document", "name: a\n---\n---\nname: b\n", "", "more than one YAML document"},
+		{"broken second YAML document", "name: a\n---\n: [\n", "", "not valid YAML"},
+		{"YAML binary", "name: !!binary aGVsbG8=\n", "", "Line 1: !!binary values are not accepted"},
+		{"YAML binary in a partition", "partitions:\n  - {name: a, cp: !!binary bm9ybWFs}\n", "", "Line 2: !!binary"},
 		{"deep nesting", strings.Repeat("[", 100) + strings.Repeat("]", 100), "", "deeper"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
@@ -153,6 +162,17 @@ func TestDecodeErrorsNameTheField(t *testing.T) {
 	}
 }
 
+// YAML that marks the start or end of its one document, or ends with an
+// empty one, is a single plan and reads as one.
+func TestYAMLOneDocument(t *testing.T) {
+	for _, doc := range []string{"name: a\n", "---\nname: a\n", "name: a\n...\n", "name: a\n---\n", "--- \nname: a\n---\n# the end\n"} {
+		p, err := DecodeYAML([]byte(doc))
+		if err != nil || p.Name != "a" {
+			t.Errorf("%q: %+v, %v; want the plan named a", doc, p, err)
+		}
+	}
+}
+
 // Aliases that expand exponentially are refused, not expanded.
 func TestYAMLAliasBomb(t *testing.T) {
 	doc := "a: &a [x, x, x, x, x, x, x, x, x, x]\n"
@@ -180,7 +200,7 @@ func FuzzDecode(f *testing.F) {
 	f.Add([]byte(campusJSON))
 	f.Add([]byte(`{"carrier":{"bandwidthMHz":100},"partitions":[{"name":"a","scsKHz":30,"locationAndBandwidth":1099}]}`))
 	f.Add([]byte("carrier: {bandwidthMHz: 40}\npartitions: [{name: x, scsKHz: 60, cp: extended, sizePrb: 3}]\n"))
-	files, _ := filepath.Glob("../../testdata/plans/*.yaml")
+	files, _ := filepath.Glob("../demo/*.yaml")
 	for _, file := range files {
 		if data, err := os.ReadFile(file); err == nil {
 			f.Add(data)
@@ -192,7 +212,7 @@ func FuzzDecode(f *testing.F) {
 			return
 		}
 		res := grid.Compute(p)
-		_ = res.JSON(false)
+		_ = report.Build(res, false)
 		b, err := EncodeJSON(p)
 		if err != nil {
 			t.Fatalf("encoding a decoded plan: %v", err)
@@ -219,4 +239,121 @@ func normalise(p grid.Plan) grid.Plan {
 		p.Carrier.CarrierBandwidth = nil
 	}
 	return p
+}
+
+// A tab in the indentation is reported on its own line. The parser names
+// the line of the token before the tab, one or more lines up.
+func TestYAMLTabLine(t *testing.T) {
+	for _, c := range []struct {
+		doc  string
+		line int
+	}{
+		{"name: x\ncarrier:\n  bandwidthMHz: 40\npartitions:\n  - name: a\n    scsKHz: 15\n    sizePrb: 10\n\t  startCrb: 0\n", 8},
+		{"a:\n  b: 1\n\n\n\tc: 2\n", 5}, // across blank lines
+		{"a:\n  - 1\n\t- 2\n", 3},       // in a list
+		{"name: x\n\tcarrier: 1\n", 2},  // named right already
+		{"a: |\n  text\n\tmore\n", 3},   // in a block scalar
+		{"name: x\ncarrier:\n\tbandwidthMHz: 40\n", 3},
+		{"a: [1,\n\t2]\nb:\n  c: 1\n \td: 2\n", 5}, // a tab inside brackets is allowed
+	} {
+		_, err := DecodeYAML([]byte(c.doc))
+		want := fmt.Sprintf("not valid YAML: line %d: ", c.line)
+		if err == nil || !strings.Contains(err.Error(), want) {
+			t.Errorf("%q: error %v, want it to say %q", c.doc, err, want)
+		}
+	}
+}
+
+// An unknown key close to a valid one names it; one far from all does not.
+func TestUnknownKeySuggestion(t *testing.T) {
+	part := func(key string) string {
+		return `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":15,"` + key + `":3}]}`
+	}
+	for _, c := range []struct {
+		doc, want string // want "" for no suggestion
+	}{
+		{part("sizPrb"), "sizePrb"},  // one letter left out
+		{part("sizePbr"), "sizePrb"}, // two letters swapped
+		{part("SizePRB"), "sizePrb"}, // letter case
+		{part("size"), "sizePrb"},    // the unit left off
+		{part("scs"), "scsKHz"},      // the unit left off
+		{part("startCrbs"), "startCrb"},
+		{part("colour"), ""}, // nothing like it
+		{part("x"), ""},      // too short to guess from
+		{part("mode"), ""},   // 3 edits from "layers" and "modulation" is not a prefix
+		{`{"carier":{}}`, "carrier"},
+		{`{"partition":[]}`, "partitions"},
+		{`{"environment":{"delaySpread":5}}`, "delaySpreadNs"},
+		{`{"carrier":{"bandwidthMHz":40,"offsetToPointA":0}}`, ""}, // an ssb key in the carrier
+	} {
+		_, err := Decode([]byte(c.doc))
+		if err == nil {
+			t.Fatalf("%s decoded", c.doc)
+		}
+		msg := err.Error()
+		switch {
+		case c.want == "" && strings.Contains(msg, "Did you mean"):
+			t.Errorf("%s: %q suggests a key, want none", c.doc, msg)
+		case c.want != "" && !strings.Contains(msg, "Did you mean "+c.want+"?"):
+			t.Errorf("%s: %q does not suggest %s", c.doc, msg, c.want)
+		}
+	}
+}
+
+func TestEditDistance(t *testing.T) {
+	for _, c := range []struct {
+		a, b string
+		d    int
+	}{{"", "", 0}, {"abc", "", 3}, {"kitten", "sitting", 3}, {"sizepbr", "sizeprb", 1}, {"ab", "ba", 1}, {"carier", "carrier", 1}} {
+		if got := editDistance(c.a, c.b); got != c.d {
+			t.Errorf("editDistance(%q, %q) = %d, want %d", c.a, c.b, got, c.d)
+		}
+	}
+}
+
+// An image, above all a PNG figure gridloom exported, is named as such,
+// with the files that do carry a plan, in every decoder.
+func TestImageIsNotAPlan(t *testing.T) {
+	png := "\x89PNG\r\n\x1a\n\x00\x00\x00\rIHDR\x00\x00\x02\x80" // RFC 2083 3.1 signature, then the IHDR chunk's start
+	for _, c := range []struct{ name, data, say string }{
+		{"PNG", png, "a PNG image, not a plan file: a PNG figure does not carry its plan."},
+		{"JPEG", "\xff\xd8\xff\xe0\x00\x10JFIF\x00", "a JPEG image"},
+		{"GIF", "GIF89a\x01\x00\x01\x00", "a GIF image"},
+		{"WebP", "RIFF\x24\x00\x00\x00WEBPVP8 ", "a WebP image"},
+		{"TIFF", "II*\x00\x08\x00\x00\x00", "a TIFF image"},
+		{"BMP", "BM\x36\x00\x0c\x00\x00\x00\x00\x00\x36\x00", "a BMP image"},
+		{"AVIF", "\x00\x00\x00\x1cftypavif", "an AVIF image"},
+	} {
+		for name, decode := range map[string]func([]byte) (grid.Plan, error){"Decode": Decode, "DecodeYAML": DecodeYAML, "DecodeJSON": DecodeJSON} {
+			_, err := decode([]byte(c.data))
+			if err == nil || !strings.Contains(err.Error(), c.say) || !strings.Contains(err.Error(), "JSON or YAML file, or an SVG figure") {
+				t.Errorf("%s of a %s: %v; want it to say %q and name the files that carry a plan", name, c.name, err, c.say)
+			}
+		}
+	}
+	// Text that merely starts like a signature is still read as a plan.
+	for _, doc := range []string{"BM: 1\n", "GIF: x\n", "II: 1\n"} {
+		if _, err := Decode([]byte(doc)); err == nil || strings.Contains(err.Error(), "image") {
+			t.Errorf("%q: %v; want an unknown-key error, not an image", doc, err)
+		}
+	}
+}
+
+// A plan whose text is not valid UTF-8 (a name typed into a link) is
+// written with U+FFFD, as EncodeJSON writes it, and reads back: the YAML
+// encoder's own choice, !!binary, is refused by DecodeYAML.
+func TestEncodeYAMLInvalidUTF8(t *testing.T) {
+	p := grid.Plan{Name: "a\xffb", Carrier: grid.CarrierPlan{BandwidthMHz: 40},
+		Partitions: []grid.PartitionPlan{{Name: "\xc3", SCSKHz: 15, SizePRB: 10}}}
+	b, err := EncodeYAML(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	q, err := DecodeYAML(b)
+	if err != nil {
+		t.Fatalf("the YAML does not read back: %v\n%s", err, b)
+	}
+	if q.Name != "a\uFFFDb" || q.Partitions[0].Name != "\uFFFD" || p.Name != "a\xffb" {
+		t.Errorf("names %q, %q (the caller's plan %q); want %q, %q and the caller's plan untouched", q.Name, q.Partitions[0].Name, p.Name, "a\uFFFDb", "\uFFFD")
+	}
 }

@@ -1,7 +1,6 @@
 package planform
 
 import (
-	"cmp"
 	"fmt"
 	"slices"
 	"strconv"
@@ -132,7 +131,7 @@ func newPartition(f Form, res grid.Result) PartForm {
 	if err != nil {
 		return np
 	}
-	c, ok := res.Carrier(scs)
+	start, size, ok := res.FreeRun(scs)
 	if !ok {
 		// No carrier of this spacing yet: take the whole of N_RB and let
 		// gridloom choose the offset.
@@ -141,50 +140,9 @@ func newPartition(f Form, res grid.Result) PartForm {
 		}
 		return np
 	}
-	free := func(n int) bool {
-		lo, hi := grid.CRBEdge(scs, n), grid.CRBEdge(scs, n+1)
-		for _, l := range res.Partitions {
-			guard := grid.Hz(0)
-			if other := l.Numerology.SCSKHz(); other != scs {
-				guard = grid.Hz(max(other, scs)) * 12 * 1000
-			}
-			if lo < l.High+guard && hi > l.Low-guard {
-				return false
-			}
-		}
-		return true
-	}
-	bestStart, bestLen, run := 0, 0, 0
-	end := c.OffsetToCarrier + c.CarrierBandwidth
-	for n := c.OffsetToCarrier; n < end; n++ {
-		if !free(n) {
-			run = 0
-			continue
-		}
-		run++
-		if run > bestLen {
-			bestStart, bestLen = n-run+1, run
-		}
-	}
-	if bestLen == 0 {
-		top := slices.MaxFunc(res.Partitions, func(a, b grid.Lattice) int { return cmp.Compare(a.High, b.High) })
-		bestStart, bestLen = firstCRBAbove(scs, top.High), 1
-	}
-	np.Start = strconv.Itoa(bestStart)
-	np.Size = strconv.Itoa(bestLen)
+	np.Start = strconv.Itoa(start)
+	np.Size = strconv.Itoa(size)
 	return np
-}
-
-// firstCRBAbove is the lowest CRB of a spacing whose lower edge is at or above f.
-func firstCRBAbove(scsKHz int, f grid.Hz) int {
-	step := grid.Hz(scsKHz) * 12 * 1000
-	// CRBEdge(n) = n·step − scs/2 ≥ f  ⇔  n ≥ (f + scs/2)/step
-	x := f + grid.Hz(scsKHz)*500
-	n := x / step
-	if x%step != 0 && x > 0 {
-		n++
-	}
-	return int(n)
 }
 
 // fill writes the placement of each partition given only by

@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"gridloom/grid"
+	"gridloom/grid/gscn"
 )
 
 // Block is the part of the plan a field belongs to. An optional block (TDD,
@@ -167,6 +168,8 @@ var Fields = func() []Field {
 			form:    func(f *Form, _ int) *string { return &f.Span }, plan: func(p *grid.Plan, _ int) any { return &p.SpanMs }},
 		{Key: "range", Path: "carrier.range", Label: "Frequency range", Noun: "Frequency range",
 			form: func(f *Form, _ int) *string { return &f.Range }, plan: func(p *grid.Plan, _ int) any { return &p.Carrier.Range }},
+		{Key: "band", Path: "carrier.band", Label: "Operating band", Noun: "Operating band",
+			form: func(f *Form, _ int) *string { return &f.Band }, plan: func(p *grid.Plan, _ int) any { return &p.Carrier.Band }},
 		{Key: "bw", Path: "carrier.bandwidthMHz", Label: "Channel bandwidth (MHz)", Noun: "Channel bandwidth",
 			Allowed: func(rng grid.Range) string {
 				return "a channel bandwidth in whole MHz, such as " + grid.JoinInts(rng.AllBandwidths())
@@ -202,12 +205,15 @@ var Fields = func() []Field {
 		{Key: "ssb.k", Path: "ssb.kSsb", Block: BlockSSB, Label: "k_SSB", Noun: "k_SSB",
 			Allowed: fixed("a whole number of subcarriers from 0 to 23"),
 			form:    func(f *Form, _ int) *string { return &f.SSB.K }, plan: func(p *grid.Plan, _ int) any { return &ssb(p).KSSB }},
-		{Key: "ssb.common", Path: "ssb.scsCommonKHz", Block: BlockSSB, Label: "SCS common (FR2)", Noun: "subCarrierSpacingCommon",
-			Allowed: fixed("60 or 120 kHz (FR2), or nothing"),
+		{Key: "ssb.common", Path: "ssb.scsCommonKHz", Block: BlockSSB, Label: "SCS common", Noun: "subCarrierSpacingCommon",
+			Allowed: fixed("15 or 30 kHz (FR1), 60 or 120 kHz (FR2), or nothing"),
 			form:    func(f *Form, _ int) *string { return &f.SSB.Common }, plan: func(p *grid.Plan, _ int) any { return &ssb(p).ScsCommonKHz }},
 		{Key: "ssb.period", Path: "ssb.periodMs", Block: BlockSSB, Label: "Period (ms)", Noun: "SS/PBCH period",
 			Allowed: func(grid.Range) string { return "one of " + grid.JoinInts(grid.SSBPeriodsMs) + " ms" },
 			form:    func(f *Form, _ int) *string { return &f.SSB.Period }, plan: func(p *grid.Plan, _ int) any { return &ssb(p).PeriodMs }},
+		{Key: "ssb.gscn", Path: "ssb.gscn", Block: BlockSSB, Label: "GSCN", Noun: "GSCN",
+			Allowed: fixed(fmt.Sprintf("a whole number from %d to %d, or nothing", gscn.MinGSCN, gscn.MaxGSCN)),
+			form:    func(f *Form, _ int) *string { return &f.SSB.GSCN }, plan: func(p *grid.Plan, _ int) any { return &ssb(p).GSCN }},
 		{Key: "env.ds", Path: "environment.delaySpreadNs", Block: BlockEnv, Label: "Delay spread (ns)", Noun: "Delay spread",
 			Allowed: fixed("an RMS delay spread in ns, such as 100, or nothing with a delay profile"),
 			form:    func(f *Form, _ int) *string { return &f.Env.DelayNs }, plan: func(p *grid.Plan, _ int) any { return &env(p).DelaySpreadNs }},

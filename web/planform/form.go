@@ -42,11 +42,11 @@ const maxPartIndex = 4*grid.MaxPartitions - 1
 // The query string of a page holds the whole plan, so that a link reproduces
 // it. Keys are short and stable; they are part of every shared link:
 //
-//	name span range bw fc arfcn gap              plan and carrier
+//	name span range band bw fc arfcn gap         plan and carrier
 //	off.SCS cbw.SCS                              offsetToCarrier, carrierBandwidth per SCS (kHz)
 //	tdd.ref tdd.ms tdd.dl tdd.dlsym tdd.ul tdd.ulsym   TDD reference SCS and pattern1
 //	tdd2.ms tdd2.dl tdd2.dlsym tdd2.ul tdd2.ulsym      pattern2
-//	ssb.scs ssb.case ssb.bitmap ssb.off ssb.k ssb.common ssb.period
+//	ssb.scs ssb.case ssb.bitmap ssb.off ssb.k ssb.common ssb.period ssb.gscn
 //	env.ds env.profile env.speed env.fc          radio channel for the numerology fit
 //	pI.name pI.scs pI.cp pI.start pI.size        partition I, from 0
 //	pI.riv pI.dir pI.layers pI.mod
@@ -56,13 +56,13 @@ const maxPartIndex = 4*grid.MaxPartitions - 1
 // ssb, env) is in the plan when any of its keys has a value. Other keys are
 // ignored, so "op" and "download" can ride along.
 type Form struct {
-	Name, Span, Range, Bandwidth, Center, ARFCN, Gap string
-	Offset                                           map[int]string // subcarrier spacing (kHz) → offsetToCarrier as typed
-	CarrierBW                                        map[int]string // subcarrier spacing (kHz) → carrierBandwidth as typed
-	TDD                                              TDDForm
-	SSB                                              SSBForm
-	Env                                              EnvForm
-	Parts                                            []PartForm
+	Name, Span, Range, Band, Bandwidth, Center, ARFCN, Gap string
+	Offset                                                 map[int]string // subcarrier spacing (kHz) → offsetToCarrier as typed
+	CarrierBW                                              map[int]string // subcarrier spacing (kHz) → carrierBandwidth as typed
+	TDD                                                    TDDForm
+	SSB                                                    SSBForm
+	Env                                                    EnvForm
+	Parts                                                  []PartForm
 }
 
 // TDDForm is the TDD pattern of a Form: the reference spacing and up to two
@@ -76,7 +76,7 @@ type TDDForm struct {
 type PatternForm struct{ Ms, DL, DLSym, UL, ULSym string }
 
 // SSBForm is the SS/PBCH block configuration of a Form.
-type SSBForm struct{ SCS, Case, Bitmap, Off, K, Common, Period string }
+type SSBForm struct{ SCS, Case, Bitmap, Off, K, Common, Period, GSCN string }
 
 // EnvForm is the radio channel of a Form, for the numerology fit.
 type EnvForm struct{ DelayNs, Profile, Speed, CarrierMHz string }
@@ -304,13 +304,11 @@ func setIntMap(m map[int]int, k, v int) map[int]int {
 	return m
 }
 
-// RangeOf is the frequency range a form names, FR1 if it names none it knows.
+// RangeOf is the frequency range a form names, read as grid.Compute reads
+// it, or FR1 if it names none it knows.
 func RangeOf(s string) grid.Range {
-	for _, n := range grid.RangeNames() {
-		if strings.EqualFold(s, n) {
-			r, _ := grid.ParseRange(n)
-			return r
-		}
+	if r, ok := grid.LookupRange(s); ok {
+		return r
 	}
 	return grid.FR1
 }

@@ -2,7 +2,6 @@ package planform
 
 import (
 	"net/url"
-	"slices"
 
 	"gridloom/grid"
 )
@@ -42,20 +41,6 @@ func (s State) Query() string { return JoinQuery(s.Form.Query(), s.Fig.Form.Quer
 // figure's options) or the plan has error findings: a page of s answers 422.
 func (s State) Invalid() bool {
 	return len(s.InputErr) > 0 || len(s.Fig.Msgs) > 0 || s.Result.HasErrors()
-}
-
-// SCSInUse lists the spacings of the plan's partitions that are data
-// spacings of its range, ascending.
-func (s State) SCSInUse() []int {
-	rng := RangeOf(s.Plan.Carrier.Range)
-	var out []int
-	for _, p := range s.Plan.Partitions {
-		if slices.Contains(rng.DataSCS(), p.SCSKHz) && !slices.Contains(out, p.SCSKHz) {
-			out = append(out, p.SCSKHz)
-		}
-	}
-	slices.Sort(out)
-	return out
 }
 
 // ReadQuery reads a raw query that carries a plan: the values and the form

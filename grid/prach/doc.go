@@ -1,0 +1,18 @@
+// Package prach holds the random-access (PRACH) rules of TS 38.211 clause 6.3.3
+// and TS 38.213 clause 8.1 as exact data and pure integer arithmetic: the
+// preamble formats, the three PRACH configuration tables, where each PRACH
+// occasion of a configuration index falls in a radio frame (in Tc), which
+// occasions are valid against a TDD pattern and the SS/PBCH blocks, how the
+// blocks map onto the occasions, and the cell range each format and N_CS allow.
+//
+// The package imports nothing of the project so that package grid can import
+// it. Time is a count of Tc = 1/(480000·4096) s (TS 38.211 4.1) held in an
+// int64 whose name ends in Tc; κ = 64.
+//
+// The tables are transcribed from the text of TS 38.211 V18.7.0 and checked
+// against two independent copies (see config.go); the rules of TS 38.213
+// clause 8.1 follow its Release 17 content (the later additions — SBFD,
+// LTM candidate cells, preamble repetitions, shared spectrum — are left
+// out). The additions that serve only NR-U and FR2-2 (L_RA = 571 and 1151,
+// Δf^RA = 480 and 960 kHz) are not transcribed; asking for them is an error.
+package prach

@@ -1,0 +1,259 @@
+// Package report is the JSON document of a computed plan, shared by the
+// command line and the web API. It lives outside the engine so that grid
+// stays computation only and the document's form has one owner; kHz values
+// are relative to point A, MHz values are absolute and present only when the
+// plan ties the channel to a frequency.
+package report
+
+import (
+	"encoding/json"
+	"io"
+	"math"
+	"strconv"
+
+	"gridloom/grid"
+)
+
+// Document is the JSON document of one grid.Result, as Build makes it.
+type Document struct {
+	Spec       string         `json:"spec"` // the 3GPP release followed, grid.Spec
+	Plan       grid.Plan      `json:"plan"`
+	Channel    Channel        `json:"channel"`
+	Carriers   []Carrier      `json:"carriers"`
+	Partitions []Partition    `json:"partitions"`
+	TDD        *TDD           `json:"tdd,omitempty"`
+	SSB        *SSB           `json:"ssb,omitempty"`
+	Fit        *grid.Fit      `json:"fit,omitempty"`
+	Findings   []grid.Finding `json:"findings"`
+}
+
+// SSB is the SS/PBCH configuration of a Document. Slot and symbol
+// of each block count in the block's own spacing over the span.
+//
+// SSRefKHz is SS_REF relative to point A; SSRefMHz, AbsoluteFrequencySSB
+// (its NR-ARFCN) and GSCN (when it is on the synchronization raster) are
+// present only when the plan ties the carrier to a frequency.
+type SSB struct {
+	Case                 string     `json:"case"`
+	SCSKHz               int        `json:"scsKHz"`
+	Candidates           int        `json:"candidates"`
+	BitmapForm           string     `json:"bitmapForm"`
+	PeriodMs             int        `json:"periodMs"`
+	OffsetToPointA       int        `json:"offsetToPointA"`
+	KSSB                 int        `json:"kSsb"`
+	ScsCommonKHz         int        `json:"scsCommonKHz"`
+	SSRefKHz             float64    `json:"ssRefKHz"`
+	SSRefMHz             *float64   `json:"ssRefMHz,omitempty"`
+	AbsoluteFrequencySSB *int       `json:"absoluteFrequencySSB,omitempty"`
+	GSCN                 *int       `json:"gscn,omitempty"`
+	Blocks               []SSBBlock `json:"blocks"`
+}
+
+// SSBBlock is one SS/PBCH block of an SSB.
+type SSBBlock struct {
+	Index   int     `json:"index"`
+	Slot    int     `json:"slot"`
+	Symbol  int     `json:"symbol"`
+	StartTc grid.Tc `json:"startTc"`
+	EndTc   grid.Tc `json:"endTc"`
+	LowKHz  float64 `json:"lowKHz"`
+	HighKHz float64 `json:"highKHz"`
+}
+
+// TDD is the TDD pattern of a Document. Slots writes each reference
+// slot of one period as D (all downlink), U (all uplink) or S (mixed or
+// flexible), the way engineers write patterns ("DDDSU").
+type TDD struct {
+	ReferenceSCSKHz int     `json:"referenceScsKHz"`
+	PeriodMs        float64 `json:"periodMs"`
+	Slots           string  `json:"slots"`
+}
+
+// Symbol is one symbol of a Partition; Direction is D, U or F under
+// a TDD pattern and absent without one.
+type Symbol struct {
+	grid.Symbol
+	Direction string `json:"direction,omitempty"`
+}
+
+// Channel is the channel of a Document.
+type Channel struct {
+	Range        string   `json:"range"`
+	BandwidthMHz int      `json:"bandwidthMHz"`
+	CenterMHz    *float64 `json:"centerMHz,omitempty"`
+	ARFCN        *int     `json:"arfcn,omitempty"`
+	PointAMHz    *float64 `json:"pointAMHz,omitempty"`
+	PointAARFCN  *int     `json:"pointAArfcn,omitempty"`
+	// Band is the operating band the channel is checked against;
+	// BandCandidates the bands whose downlink range holds it, listed when
+	// the plan names no band. RasterKHz is the band's ΔF_Raster at the
+	// centre. ULCenterMHz and ULARFCN are the paired uplink of an FDD band.
+	Band           string   `json:"band,omitempty"`
+	BandCandidates []string `json:"bandCandidates,omitempty"`
+	Duplex         string   `json:"duplex,omitempty"`
+	RasterKHz      int      `json:"rasterKHz,omitempty"`
+	ULCenterMHz    *float64 `json:"ulCenterMHz,omitempty"`
+	ULARFCN        *int     `json:"ulArfcn,omitempty"`
+	LowKHz         float64  `json:"lowKHz"`
+	HighKHz        float64  `json:"highKHz"`
+	CenterKHz      float64  `json:"centerKHz"`
+	UsePercent     float64  `json:"usePercent"`
+}
+
+// Carrier is one SCS-specific carrier of a Document.
+type Carrier struct {
+	SCSKHz           int     `json:"scsKHz"`
+	NRB              int     `json:"nrb"`
+	CarrierBandwidth int     `json:"carrierBandwidth"`
+	OffsetToCarrier  int     `json:"offsetToCarrier"`
+	OffsetChosen     bool    `json:"offsetChosen"`
+	LowKHz           float64 `json:"lowKHz"`
+	HighKHz          float64 `json:"highKHz"`
+	MinGuardKHz      float64 `json:"minGuardKHz"`
+	GuardLowKHz      float64 `json:"guardLowKHz"`
+	GuardHighKHz     float64 `json:"guardHighKHz"`
+}
+
+// Partition is one placed partition of a Document, with its symbols.
+type Partition struct {
+	Name                 string   `json:"name"`
+	SCSKHz               int      `json:"scsKHz"`
+	Mu                   int      `json:"mu"`
+	CP                   string   `json:"cp"`
+	StartCRB             int      `json:"startCrb"`
+	SizePRB              int      `json:"sizePrb"`
+	LocationAndBandwidth *int     `json:"locationAndBandwidth"` // null when not expressible
+	LowKHz               float64  `json:"lowKHz"`
+	HighKHz              float64  `json:"highKHz"`
+	LowMHz               *float64 `json:"lowMHz,omitempty"`
+	HighMHz              *float64 `json:"highMHz,omitempty"`
+	OccupiedMHz          float64  `json:"occupiedMHz"`
+	SlotsPerSubframe     int      `json:"slotsPerSubframe"`
+	SymbolsPerSlot       int      `json:"symbolsPerSlot"`
+	Slots                int      `json:"slots"`
+	SymbolCount          int      `json:"symbolCount"`
+	SlotUs               float64  `json:"slotUs"`
+	UsefulUs             float64  `json:"usefulUs"`
+	CPUs                 float64  `json:"cpUs"`
+	LongCPUs             float64  `json:"longCpUs"`
+	REPerSlot            int      `json:"rePerSlot"`
+	Direction            string   `json:"direction"`
+	Layers               int      `json:"layers"`
+	Modulation           string   `json:"modulation"`
+	PeakMbps             float64  `json:"peakMbps"`
+	// Share is the fraction of symbols in the partition's direction under
+	// the TDD pattern, by which PeakMbps is scaled; 1 without TDD.
+	Share float64 `json:"share"`
+	// MiniSlotUs gives the length of mini-slots of 2, 4 and 7 symbols away
+	// from the longer CP, for latency.
+	MiniSlotUs map[string]float64 `json:"miniSlotUs"`
+	Symbols    []Symbol           `json:"symbols"`
+}
+
+// Build returns the document of r. With symbols false the per-symbol lists
+// are left empty, for callers that want the summary only.
+func Build(r grid.Result, symbols bool) Document {
+	ch := r.Channel
+	out := Document{
+		Spec: grid.Spec,
+		Plan: r.Plan,
+		Channel: Channel{Range: ch.Range.String(), BandwidthMHz: ch.BandwidthMHz,
+			LowKHz: ch.Low.KHz(), HighKHz: ch.High.KHz(), CenterKHz: ch.Center.KHz(), UsePercent: ch.UsePercent},
+		Carriers:   []Carrier{},
+		Partitions: []Partition{},
+		Findings:   r.Findings,
+	}
+	if out.Findings == nil {
+		out.Findings = []grid.Finding{}
+	}
+	if ch.Absolute {
+		out.Channel.CenterMHz = ptr(ch.CenterHz.MHz())
+		out.Channel.PointAMHz = ptr(ch.PointAHz.MHz())
+		if ch.OnRaster {
+			out.Channel.ARFCN = ptr(ch.ARFCN)
+		}
+		if ch.PointAOnRaster {
+			out.Channel.PointAARFCN = ptr(ch.PointAARFCN)
+		}
+		if ch.HasUL {
+			out.Channel.ULCenterMHz = ptr(ch.ULCenterHz.MHz())
+			out.Channel.ULARFCN = ptr(ch.ULARFCN)
+		}
+	}
+	out.Channel.Band, out.Channel.BandCandidates = ch.Band, ch.BandCandidates
+	out.Channel.Duplex, out.Channel.RasterKHz = ch.Duplex, ch.RasterKHz
+	for _, c := range r.Carriers {
+		out.Carriers = append(out.Carriers, Carrier{SCSKHz: c.SCSKHz, NRB: c.NRB, CarrierBandwidth: c.CarrierBandwidth,
+			OffsetToCarrier: c.OffsetToCarrier, OffsetChosen: c.Chosen, LowKHz: c.Low.KHz(), HighKHz: c.High.KHz(),
+			MinGuardKHz: c.MinGuard.KHz(), GuardLowKHz: c.GuardLow.KHz(), GuardHighKHz: c.GuardHigh.KHz()})
+	}
+	for _, l := range r.Partitions {
+		n := l.Numerology
+		jp := Partition{Name: l.Name, SCSKHz: n.SCSKHz(), Mu: n.Mu, CP: n.CP.String(),
+			StartCRB: l.StartCRB, SizePRB: l.SizePRB, LowKHz: l.Low.KHz(), HighKHz: l.High.KHz(),
+			OccupiedMHz: l.Width().MHz(), SlotsPerSubframe: n.SlotsPerSubframe(), SymbolsPerSlot: n.SymbolsPerSlot(),
+			Slots: l.SlotCount(), SymbolCount: l.SymbolCount(), SlotUs: n.SlotTc().Micros(),
+			UsefulUs: n.UsefulTc().Micros(), CPUs: n.CPTc(1).Micros(), LongCPUs: n.CPTc(0).Micros(),
+			REPerSlot: l.REPerSlot(), Direction: string(l.Direction), Layers: l.Layers, Modulation: l.Modulation,
+			PeakMbps: l.PeakMbps, Share: math.Round(l.Share*1e4) / 1e4, Symbols: []Symbol{},
+			MiniSlotUs: map[string]float64{}}
+		for _, k := range []int{2, 4, 7} {
+			jp.MiniSlotUs[strconv.Itoa(k)] = math.Round((grid.Tc(k)*(n.UsefulTc()+n.CPTc(1))).Micros()*1e4) / 1e4
+		}
+		if l.LocationAndBandwidth >= 0 {
+			jp.LocationAndBandwidth = ptr(l.LocationAndBandwidth)
+		}
+		if ch.Absolute {
+			jp.LowMHz = ptr(ch.Abs(l.Low).MHz())
+			jp.HighMHz = ptr(ch.Abs(l.High).MHz())
+		}
+		if symbols {
+			jp.Symbols = make([]Symbol, l.SymbolCount())
+			for k := range jp.Symbols {
+				jp.Symbols[k].Symbol = n.SymbolAt(k)
+				if l.Dirs != nil {
+					jp.Symbols[k].Direction = l.Dirs[k].String()
+				}
+			}
+		}
+		out.Partitions = append(out.Partitions, jp)
+	}
+	if s := r.SSB; s != nil {
+		js := &SSB{Case: s.Case, SCSKHz: s.Numerology.SCSKHz(), Candidates: s.Candidates, BitmapForm: s.BitmapForm,
+			PeriodMs: s.PeriodMs, OffsetToPointA: s.OffsetToPointA, KSSB: s.KSSB, ScsCommonKHz: s.ScsCommonKHz,
+			SSRefKHz: s.SSRef.KHz(), Blocks: []SSBBlock{}}
+		if s.Absolute {
+			js.SSRefMHz = ptr(s.SSRefHz.MHz())
+			if s.OnARFCNRaster {
+				js.AbsoluteFrequencySSB = ptr(s.AbsoluteFrequencySSB)
+			}
+			if s.OnSyncRaster {
+				js.GSCN = ptr(s.GSCN)
+			}
+		}
+		for _, b := range s.Blocks {
+			js.Blocks = append(js.Blocks, SSBBlock{Index: b.Index, Slot: b.Slot, Symbol: b.Symbol, StartTc: b.Start, EndTc: b.End, LowKHz: b.Low.KHz(), HighKHz: b.High.KHz()})
+		}
+		out.SSB = js
+	}
+	out.Fit = r.Fit
+	if t := r.TDD; t != nil {
+		out.TDD = &TDD{ReferenceSCSKHz: t.Reference.SCSKHz(), PeriodMs: float64(t.Period) / float64(grid.TcPerSubframe), Slots: t.SlotString()}
+	}
+	return out
+}
+
+// Write writes the document of r, symbols included, to w as JSON and a
+// newline; with indent each value stands on its own line, two spaces deep,
+// as the command line and the web API give it. Callers write through it
+// rather than marshal Build's value so that the document can later be
+// streamed without changing them.
+func Write(w io.Writer, r grid.Result, indent bool) error {
+	enc := json.NewEncoder(w)
+	if indent {
+		enc.SetIndent("", "  ")
+	}
+	return enc.Encode(Build(r, true))
+}
+
+func ptr[T any](v T) *T { return &v }

@@ -1,0 +1,91 @@
+package report
+
+import (
+	"bytes"
+	"encoding/json"
+	"testing"
+
+	"gridloom/grid"
+	"gridloom/grid/demo"
+)
+
+func sample() grid.Result {
+	start := 0
+	return grid.Compute(grid.Plan{Name: "sample", Carrier: grid.CarrierPlan{BandwidthMHz: 20},
+		Partitions: []grid.PartitionPlan{{Name: "a", SCSKHz: 30, StartCRB: &start, SizePRB: 51}},
+		TDD:        &grid.TDDPlan{ReferenceSCSKHz: 30, Pattern1: grid.TDDPattern{PeriodMs: 2.5, DownlinkSlots: 3, DownlinkSymbols: 6, UplinkSlots: 1, UplinkSymbols: 4}}})
+}
+
+// Write gives the bytes that marshalling Build's document gives, so a
+// caller may use either; the command line's golden files pin the bytes.
+func TestWriteMatchesBuild(t *testing.T) {
+	r := sample()
+	for _, indent := range []bool{true, false} {
+		var buf bytes.Buffer
+		if err := Write(&buf, r, indent); err != nil {
+			t.Fatal(err)
+		}
+		var want []byte
+		var err error
+		if indent {
+			want, err = json.MarshalIndent(Build(r, true), "", "  ")
+		} else {
+			want, err = json.Marshal(Build(r, true))
+		}
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Equal(buf.Bytes(), append(want, '\n')) {
+			t.Errorf("indent %v: Write and Build differ", indent)
+		}
+	}
+}
+
+// The summary keeps empty symbol lists (never null), the full document lists
+// every symbol of the span: 28 per millisecond at 30 kHz (TS 38.211 4.3.2).
+func TestSymbols(t *testing.T) {
+	r := sample()
+	sum, full := Build(r, false), Build(r, true)
+	if len(sum.Partitions) != 1 || sum.Partitions[0].Symbols == nil || len(sum.Partitions[0].Symbols) != 0 {
+		t.Fatalf("summary partitions %+v, want one with an empty symbol list", sum.Partitions)
+	}
+	p := full.Partitions[0]
+	if len(p.Symbols) != 28*r.Plan.SpanMs || p.SymbolCount != len(p.Symbols) {
+		t.Errorf("%d symbols over %d ms, symbolCount %d; want 28 a millisecond", len(p.Symbols), r.Plan.SpanMs, p.SymbolCount)
+	}
+	if p.Symbols[0].Direction != "D" {
+		t.Errorf("first symbol under a DDDSU pattern is %q, want D", p.Symbols[0].Direction)
+	}
+}
+
+// The channel's band fields reach the document under the names the README
+// gives them: an FDD carrier in n3 reports its paired uplink.
+func TestChannelBand(t *testing.T) {
+	// TS 38.101-1 Table 5.2-1: n3 is FDD, UL 1710–1785 MHz, DL 1805–1880 MHz,
+	// so the duplex spacing is 95 MHz and a 1842.5 MHz downlink centre pairs
+	// with 1747.5 MHz; NR-ARFCN 349500 = 1747.5 MHz / 5 kHz (TS 38.104 5.4.2.1).
+	fc := 1842.5
+	r := grid.Compute(grid.Plan{Name: "n3", Carrier: grid.CarrierPlan{Band: "n3", BandwidthMHz: 20, CenterMHz: &fc},
+		Partitions: []grid.PartitionPlan{{Name: "a", SCSKHz: 15, SizePRB: 106}}})
+	c := Build(r, false).Channel
+	if c.Band != "n3" || c.Duplex != "FDD" || c.ULARFCN == nil || *c.ULARFCN != 349500 || c.ULCenterMHz == nil || *c.ULCenterMHz != 1747.5 {
+		t.Errorf("channel %+v; want band n3, FDD, uplink 1747.5 MHz at NR-ARFCN 349500", c)
+	}
+}
+
+// The SS/PBCH block's raster facts reach the document: the campus demo
+// plan places its block by GSCN 8016. TS 38.101-1 Table 5.4.3.1-1 above
+// 3000 MHz: SS_REF = 3000 MHz + (8016 − 7499)·1.44 MHz = 3744.48 MHz; its
+// NR-ARFCN (TS 38.104 5.4.2.1, 15 kHz above 3000 MHz) is
+// 600000 + 744.48 MHz / 15 kHz = 649632.
+func TestSSBRaster(t *testing.T) {
+	p, err := demo.Load("campus")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := Build(grid.Compute(p), false).SSB
+	if s == nil || s.GSCN == nil || *s.GSCN != 8016 || s.SSRefMHz == nil || *s.SSRefMHz != 3744.48 ||
+		s.AbsoluteFrequencySSB == nil || *s.AbsoluteFrequencySSB != 649632 {
+		t.Errorf("ssb %+v; want GSCN 8016, SS_REF 3744.48 MHz, absoluteFrequencySSB 649632", s)
+	}
+}
