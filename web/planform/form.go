@@ -36,56 +36,6 @@ func CarrierBWKey(scsKHz int) string { return keyCarrierBW + strconv.Itoa(scsKHz
 // grid.MaxPartitions, so a plan over the limit still shows and gets its finding.
 const maxPartIndex = 4*grid.MaxPartitions - 1
 
-// Form is the plan form as the user typed it: every value a string, so that
-// a value that does not parse is kept and shown again beside its control.
-//
-// The query string of a page holds the whole plan, so that a link reproduces
-// it. Keys are short and stable; they are part of every shared link:
-//
-//	name span range band bw fc arfcn gap         plan and carrier
-//	off.SCS cbw.SCS                              offsetToCarrier, carrierBandwidth per SCS (kHz)
-//	tdd.ref tdd.ms tdd.dl tdd.dlsym tdd.ul tdd.ulsym   TDD reference SCS and pattern1
-//	tdd2.ms tdd2.dl tdd2.dlsym tdd2.ul tdd2.ulsym      pattern2
-//	ssb.scs ssb.case ssb.bitmap ssb.off ssb.k ssb.common ssb.period ssb.gscn
-//	env.ds env.profile env.speed env.fc          radio channel for the numerology fit
-//	pI.name pI.scs pI.cp pI.start pI.size        partition I, from 0
-//	pI.riv pI.dir pI.layers pI.mod
-//
-// Fields lists them with their plan paths. An absent key and an empty value
-// mean the same: the plan field is left out, and a block (tdd, pattern2,
-// ssb, env) is in the plan when any of its keys has a value. Other keys are
-// ignored, so "op" and "download" can ride along.
-type Form struct {
-	Name, Span, Range, Band, Bandwidth, Center, ARFCN, Gap string
-	Offset                                                 map[int]string // subcarrier spacing (kHz) → offsetToCarrier as typed
-	CarrierBW                                              map[int]string // subcarrier spacing (kHz) → carrierBandwidth as typed
-	TDD                                                    TDDForm
-	SSB                                                    SSBForm
-	Env                                                    EnvForm
-	Parts                                                  []PartForm
-}
-
-// TDDForm is the TDD pattern of a Form: the reference spacing and up to two
-// patterns.
-type TDDForm struct {
-	Ref    string
-	P1, P2 PatternForm
-}
-
-// PatternForm is one TDD-UL-DL-Pattern of a Form.
-type PatternForm struct{ Ms, DL, DLSym, UL, ULSym string }
-
-// SSBForm is the SS/PBCH block configuration of a Form.
-type SSBForm struct{ SCS, Case, Bitmap, Off, K, Common, Period, GSCN string }
-
-// EnvForm is the radio channel of a Form, for the numerology fit.
-type EnvForm struct{ DelayNs, Profile, Speed, CarrierMHz string }
-
-// PartForm is one partition of a Form.
-type PartForm struct {
-	Name, SCS, CP, Start, Size, RIV, Dir, Layers, Mod string
-}
-
 // Value returns the text of a query key in f, plan-level ("bw") or of a
 // partition ("p2.size"), or nil when f has no such field.
 func (f *Form) Value(key string) *string {
