@@ -122,7 +122,8 @@ func NewFigureState(ff FigureForm, planName string) FigureState {
 		st.Opt.Theme = th
 	}
 	if ls, err := render.ParseLayers(ff.Layers); err != nil {
-		st.Msgs.Add(KeyFigLayers, "Figure layers (fig.layers): %s", strings.TrimPrefix(err.Error(), "layers: "))
+		st.Msgs.Add(KeyFigLayers, "Figure layers (fig.layers): %q is not a figure layer; list the layers to show from %s, separated by commas, or give all or none.",
+			ShortText(badLayer(ff.Layers)), joinAnd(render.LayerNames()))
 	} else {
 		st.Opt.Layers = ls
 	}
@@ -136,6 +137,24 @@ func NewFigureState(ff FigureForm, planName string) FigureState {
 		st.Opt.Caption = ff.Caption
 	}
 	return st
+}
+
+// badLayer is the first item of a layer list that names no layer.
+func badLayer(list string) string {
+	for item := range strings.SplitSeq(list, ",") {
+		if _, err := render.ParseLayers(item); err != nil {
+			return strings.TrimSpace(item)
+		}
+	}
+	return list
+}
+
+// joinAnd lists words as a sentence does: "a, b and c".
+func joinAnd(words []string) string {
+	if len(words) < 2 {
+		return strings.Join(words, "")
+	}
+	return strings.Join(words[:len(words)-1], ", ") + " and " + words[len(words)-1]
 }
 
 // ShortText cuts a value quoted back in a message to 40 characters.
