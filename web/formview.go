@@ -117,52 +117,96 @@ func noteID(id string) string { return "n-" + id }
 // buttonID is the id of the partition's edit button verb.
 func (p partView) buttonID(verb string) string { return p.IDPrefix + planform.ButtonID(verb, p.Index) }
 
+// buildForm makes the form's view of a state; notes are the messages by
+// control id. A message no control takes goes on top of the form.
 func buildForm(s planform.State, notes map[string][]note) formView {
-	f := s.Form
-	rng := planform.RangeOf(f.Range)
-	shown := map[string]bool{} // ids of the controls and groups on the form
-	take := func(id string) []note {
-		shown[id] = true
-		return notes[id]
+	fb := &formBuilder{s: s, f: s.Form, rng: planform.RangeOf(s.Form.Range), notes: notes, shown: map[string]bool{}}
+	fv := formView{CanAdd: len(fb.f.Parts) < grid.MaxPartitions, OpName: planform.KeyOp}
+	fv.Plan = fb.planControls()
+	fv.Carrier = fb.carrierControls()
+	var scsList []int
+	fv.SCSRows, scsList, fv.SCSOpen = fb.scsRows()
+	fv.Carriers = group{ID: planform.IDCarriers, Notes: fb.take(planform.IDCarriers)}
+	fv.SCSOpen = fv.SCSOpen || hasSerious(fv.Carriers.Notes)
+	fv.TDD, fv.SSB, fv.Env = fb.tddSection(), fb.ssbSection(), fb.envSection()
+	fv.PartsBox = group{ID: planform.IDParts, Notes: fb.take(planform.IDParts)}
+	for i := range fb.f.Parts {
+		fv.Parts = append(fv.Parts, fb.part(i))
 	}
-	// text and choice make the control of a plan-level field from its key.
-	// Each control takes its label and value from the field's row of
-	// planform.Fields; the view adds only the layout.
-	text := func(key, size, mode, placeholder string) control {
-		id := planform.KeyID(key)
-		f := f
-		return control{ID: id, Name: key, Label: planform.FieldOf(key).Label, Value: *f.Value(key), Size: size, InputMode: mode,
-			Placeholder: placeholder, Notes: take(id)}
+	fb.take(planform.IDAdd)
+	fb.take(planform.IDFile)
+	for _, id := range sortedKeys(notes) {
+		if !fb.shown[id] {
+			fv.General = append(fv.General, notes[id]...)
+		}
 	}
-	choice := func(key, size string, opts []option) control {
-		c := text(key, size, "", "")
-		c.Options = opts
-		return c
-	}
-	fv := formView{CanAdd: len(f.Parts) < grid.MaxPartitions, OpName: planform.KeyOp}
+	fv.Shape = formShape(fb.f, scsList)
+	return fv
+}
 
+// formBuilder makes the controls of one form, handing each the messages of
+// its id and noting which ids the form shows.
+type formBuilder struct {
+	s     planform.State
+	f     planform.Form
+	rng   grid.Range
+	notes map[string][]note
+	shown map[string]bool // ids of the controls and groups on the form
+}
+
+// take returns the messages of a control or group, noting that the form
+// shows it.
+func (fb *formBuilder) take(id string) []note {
+	fb.shown[id] = true
+	return fb.notes[id]
+}
+
+// text makes the control of a plan-level field from its key: its label and
+// value come from the field's row of planform.Fields, the layout from the
+// view (size in columns of 12, input mode, placeholder).
+func (fb *formBuilder) text(key, size, mode, placeholder string) control {
+	id := planform.KeyID(key)
+	return control{ID: id, Name: key, Label: planform.FieldOf(key).Label, Value: *fb.f.Value(key), Size: size, InputMode: mode,
+		Placeholder: placeholder, Notes: fb.take(id)}
+}
+
+// choice is text as a select of opts.
+func (fb *formBuilder) choice(key, size string, opts []option) control {
+	c := fb.text(key, size, "", "")
+	c.Options = opts
+	return c
+}
+
+func (fb *formBuilder) planControls() []control {
 	spans := []option{{Value: "", Label: "auto (TDD period or 1)"}}
 	for i := 1; i <= grid.MaxSpanMs; i++ {
 		spans = append(spans, option{Value: strconv.Itoa(i), Label: strconv.Itoa(i)})
 	}
-	fv.Plan = []control{
-		text("name", "12", "", "untitled"),
-		choice("span", "6", pick(spans, f.Span, nil)),
-		text("gap", "6", "decimal", "1 PRB of the wider SCS"),
+	return []control{
+		fb.text("name", "12", "", "untitled"),
+		fb.choice("span", "6", pick(spans, fb.f.Span, nil)),
+		fb.text("gap", "6", "decimal", "1 PRB of the wider SCS"),
 	}
+}
 
-	scsInUse := s.Plan.SCSInUse()
-	fv.Carrier = []control{
-		choice("range", "6", pick(plain(grid.RangeNames()), orDefault(f.Range, grid.DefaultRange), nil)),
-		text("band", "6", "", placeholderBand(s.Result)),
-		choice("bw", "6", bandwidthOptions(rng, scsInUse, f.Bandwidth)),
-		text("fc", "6", "decimal", placeholderCenter(s.Result)),
-		text("arfcn", "6", "numeric", placeholderARFCN(s.Result)),
+func (fb *formBuilder) carrierControls() []control {
+	res := fb.s.Result
+	return []control{
+		fb.choice("range", "6", pick(plain(grid.RangeNames()), orDefault(fb.f.Range, grid.DefaultRange), nil)),
+		fb.text("band", "6", "", placeholderBand(res)),
+		fb.choice("bw", "6", bandwidthOptions(fb.rng, fb.s.Plan.SCSInUse(), fb.f.Bandwidth)),
+		fb.text("fc", "6", "decimal", placeholderCenter(res)),
+		fb.text("arfcn", "6", "numeric", placeholderARFCN(res)),
 	}
+}
 
-	// One row per data SCS of the range, and per spacing the form names
-	// besides, so that nothing typed disappears when the range changes.
-	scsList := rng.DataSCS()
+// scsRows are the SCS-specific carriers: one row per data SCS of the
+// range, and per spacing the form names besides, so that nothing typed
+// disappears when the range changes. open says whether a row holds a value
+// or a message worth unfolding them for.
+func (fb *formBuilder) scsRows() (rows []scsRow, scsList []int, open bool) {
+	f, s := fb.f, fb.s
+	scsList = fb.rng.DataSCS()
 	for _, m := range []map[int]string{f.Offset, f.CarrierBW} {
 		for scs := range m {
 			if !slices.Contains(scsList, scs) {
@@ -171,33 +215,32 @@ func buildForm(s planform.State, notes map[string][]note) formView {
 		}
 	}
 	slices.Sort(scsList)
+	inUse := s.Plan.SCSInUse()
 	for _, scs := range scsList {
-		row := scsRow{SCSKHz: scs, InUse: slices.Contains(scsInUse, scs)}
+		row := scsRow{SCSKHz: scs, InUse: slices.Contains(inUse, scs)}
 		offKey, cbwKey := planform.OffsetKey(scs), planform.CarrierBWKey(scs)
 		offID, cbwID := planform.KeyID(offKey), planform.KeyID(cbwKey)
 		row.Offset = control{ID: offID, Name: offKey, Label: fmt.Sprintf("offsetToCarrier at %d kHz (CRBs)", scs),
-			Value: f.Offset[scs], Size: "12", InputMode: "numeric", Notes: take(offID)}
+			Value: f.Offset[scs], Size: "12", InputMode: "numeric", Notes: fb.take(offID)}
 		row.CarrierBW = control{ID: cbwID, Name: cbwKey, Label: fmt.Sprintf("carrierBandwidth at %d kHz (PRBs)", scs),
-			Value: f.CarrierBW[scs], Size: "12", InputMode: "numeric", Notes: take(cbwID)}
+			Value: f.CarrierBW[scs], Size: "12", InputMode: "numeric", Notes: fb.take(cbwID)}
 		if c, ok := s.Result.Carrier(scs); ok {
 			row.Offset.Placeholder = strconv.Itoa(c.OffsetToCarrier)
 			row.CarrierBW.Placeholder = strconv.Itoa(c.CarrierBandwidth)
-		} else if n, ok := rng.NRB(scs, s.Plan.Carrier.BandwidthMHz); ok {
+		} else if n, ok := fb.rng.NRB(scs, s.Plan.Carrier.BandwidthMHz); ok {
 			row.CarrierBW.Placeholder = strconv.Itoa(n)
 		}
 		if row.Offset.Value != "" || row.CarrierBW.Value != "" || hasSerious(row.Offset.Notes) || hasSerious(row.CarrierBW.Notes) {
-			fv.SCSOpen = true
+			open = true
 		}
-		fv.SCSRows = append(fv.SCSRows, row)
+		rows = append(rows, row)
 	}
-	fv.Carriers = group{ID: planform.IDCarriers, Notes: take(planform.IDCarriers)}
-	if hasSerious(fv.Carriers.Notes) {
-		fv.SCSOpen = true
-	}
+	return rows, scsList, open
+}
 
-	// TDD pattern.
+func (fb *formBuilder) tddSection() section {
 	refOpts := []option{{Value: "", Label: "—"}}
-	for _, scs := range rng.DataSCS() {
+	for _, scs := range fb.rng.DataSCS() {
 		refOpts = append(refOpts, option{Value: strconv.Itoa(scs), Label: strconv.Itoa(scs)})
 	}
 	periods := []option{{Value: "", Label: "—"}}
@@ -207,103 +250,96 @@ func buildForm(s planform.State, notes map[string][]note) formView {
 	}
 	patternRow := func(prefix, label string) sectionRow {
 		return sectionRow{Label: label, Controls: []control{
-			choice(prefix+".ms", "4", pick(periods, *f.Value(prefix + ".ms"), nil)),
-			text(prefix+".dl", "2", "numeric", ""),
-			text(prefix+".dlsym", "2", "numeric", ""),
-			text(prefix+".ulsym", "2", "numeric", ""),
-			text(prefix+".ul", "2", "numeric", ""),
+			fb.choice(prefix+".ms", "4", pick(periods, *fb.f.Value(prefix + ".ms"), nil)),
+			fb.text(prefix+".dl", "2", "numeric", ""),
+			fb.text(prefix+".dlsym", "2", "numeric", ""),
+			fb.text(prefix+".ulsym", "2", "numeric", ""),
+			fb.text(prefix+".ul", "2", "numeric", ""),
 		}}
 	}
-	fv.TDD = section{
-		Group: group{ID: planform.IDTDD, Notes: take(planform.IDTDD)}, Title: "TDD pattern", ClearOp: "clear.tdd",
+	sec := section{
+		Group: group{ID: planform.IDTDD, Notes: fb.take(planform.IDTDD)}, Title: "TDD pattern", ClearOp: "clear.tdd",
 		Hint: "TDD-UL-DL-ConfigCommon: downlink slots and symbols open each period, uplink symbols and slots close it, the rest is flexible. Leave it empty for no pattern.",
 		Rows: []sectionRow{
-			{Label: "Reference", Controls: []control{choice("tdd.ref", "6", pick(refOpts, f.TDD.Ref, nil))}},
+			{Label: "Reference", Controls: []control{fb.choice("tdd.ref", "6", pick(refOpts, fb.f.TDD.Ref, nil))}},
 			patternRow("tdd", "Pattern 1"),
 			patternRow("tdd2", "Pattern 2 (optional)"),
 		},
 	}
-	if t := s.Result.TDD; t != nil {
-		fv.TDD.Summary = fmt.Sprintf("%s on %d kHz, every %s ms", t.SlotString(), t.Reference.SCSKHz(),
+	if t := fb.s.Result.TDD; t != nil {
+		sec.Summary = fmt.Sprintf("%s on %d kHz, every %s ms", t.SlotString(), t.Reference.SCSKHz(),
 			strconv.FormatFloat(float64(t.Period)/float64(grid.TcPerSubframe), 'f', -1, 64))
 	}
+	return finishSection(sec)
+}
 
-	// SS/PBCH blocks.
+func (fb *formBuilder) ssbSection() section {
 	cases := []option{{Value: "", Label: "from the SCS"}}
 	for _, c := range []string{"A", "B", "C", "D", "E", "F", "G"} { // TS 38.213 4.1
 		cases = append(cases, option{Value: c, Label: c})
 	}
-	ssbPeriods := []option{{Value: "", Label: "20 (default)"}}
+	periods := []option{{Value: "", Label: "20 (default)"}}
 	for _, ms := range grid.SSBPeriodsMs {
-		ssbPeriods = append(ssbPeriods, option{Value: strconv.Itoa(ms), Label: strconv.Itoa(ms)})
+		periods = append(periods, option{Value: strconv.Itoa(ms), Label: strconv.Itoa(ms)})
 	}
-	fv.SSB = section{
-		Group: group{ID: planform.IDSSB, Notes: take(planform.IDSSB)}, Title: "SS/PBCH blocks", ClearOp: "clear.ssb",
+	sec := section{
+		Group: group{ID: planform.IDSSB, Notes: fb.take(planform.IDSSB)}, Title: "SS/PBCH blocks", ClearOp: "clear.ssb",
 		Hint: "offsetToPointA counts RBs of 15 kHz (FR1) or 60 kHz (FR2); k_SSB counts subcarriers. A GSCN places the block on the synchronization raster and sets both. The bitmap is ssb-PositionsInBurst, empty for every candidate.",
 		Rows: []sectionRow{
 			{Label: "Blocks", Controls: []control{
-				text("ssb.scs", "4", "numeric", ""),
-				choice("ssb.case", "4", pick(cases, f.SSB.Case, nil)),
-				choice("ssb.period", "4", pick(ssbPeriods, f.SSB.Period, nil)),
-				text("ssb.bitmap", "12", "numeric", "all candidates"),
+				fb.text("ssb.scs", "4", "numeric", ""),
+				fb.choice("ssb.case", "4", pick(cases, fb.f.SSB.Case, nil)),
+				fb.choice("ssb.period", "4", pick(periods, fb.f.SSB.Period, nil)),
+				fb.text("ssb.bitmap", "12", "numeric", "all candidates"),
 			}},
 			{Label: "Position", Controls: []control{
-				text("ssb.off", "4", "numeric", ""),
-				text("ssb.k", "4", "numeric", "0"),
-				text("ssb.common", "4", "numeric", ""),
-				text("ssb.gscn", "6", "numeric", "or the offsets"),
+				fb.text("ssb.off", "4", "numeric", ""),
+				fb.text("ssb.k", "4", "numeric", "0"),
+				fb.text("ssb.common", "4", "numeric", ""),
+				fb.text("ssb.gscn", "6", "numeric", "or the offsets"),
 			}},
 		},
 	}
-	if b := s.Result.SSB; b != nil {
-		fv.SSB.Summary = fmt.Sprintf("case %s, %d of %d candidates sent in the span", b.Case, len(b.Blocks), b.Candidates)
+	if b := fb.s.Result.SSB; b != nil {
+		sec.Summary = fmt.Sprintf("case %s, %d of %d candidates sent in the span", b.Case, len(b.Blocks), b.Candidates)
 	}
+	return finishSection(sec)
+}
 
-	// Radio channel for the numerology fit.
+func (fb *formBuilder) envSection() section {
 	profiles := []option{{Value: "", Label: "— (give a spread)"}}
 	for _, d := range grid.DelayProfiles {
 		profiles = append(profiles, option{Value: d.Name, Label: fmt.Sprintf("%s (%s ns)", d.Name, strconv.FormatFloat(d.Ns, 'f', -1, 64))})
 	}
-	fv.Env = section{
-		Group: group{ID: planform.IDEnv, Notes: take(planform.IDEnv)}, Title: "Radio channel", ClearOp: "clear.env",
+	sec := section{
+		Group: group{ID: planform.IDEnv, Notes: fb.take(planform.IDEnv)}, Title: "Radio channel", ClearOp: "clear.env",
 		Hint: "For the numerology fit: first-order rules that weigh CP against delay spread and SCS against Doppler. Leave it empty to skip the fit.",
 		Rows: []sectionRow{{Label: "Channel", Controls: []control{
-			choice("env.profile", "6", pick(profiles, f.Env.Profile, nil)),
-			text("env.ds", "6", "decimal", ""),
-			text("env.speed", "6", "decimal", "0"),
-			text("env.fc", "6", "decimal", placeholderCenter(s.Result)),
+			fb.choice("env.profile", "6", pick(profiles, fb.f.Env.Profile, nil)),
+			fb.text("env.ds", "6", "decimal", ""),
+			fb.text("env.speed", "6", "decimal", "0"),
+			fb.text("env.fc", "6", "decimal", placeholderCenter(fb.s.Result)),
 		}}},
 	}
-	if fit := s.Result.Fit; fit != nil {
-		fv.Env.Summary = fmt.Sprintf("the rules favour %d kHz %s CP", fit.Suggested.SCSKHz, fit.Suggested.CP)
+	if fit := fb.s.Result.Fit; fit != nil {
+		sec.Summary = fmt.Sprintf("the rules favour %d kHz %s CP", fit.Suggested.SCSKHz, fit.Suggested.CP)
 	}
-	for _, sec := range []*section{&fv.TDD, &fv.SSB, &fv.Env} {
-		sec.OpName, sec.ClearID = planform.KeyOp, "b-"+sec.ClearOp
-		sec.Open = sec.Summary != "" || hasSerious(sec.Group.Notes)
-		for _, row := range sec.Rows {
-			for _, c := range row.Controls {
-				if strings.TrimSpace(c.Value) != "" || hasSerious(c.Notes) {
-					sec.Open = true
-				}
+	return finishSection(sec)
+}
+
+// finishSection names a section's clear button and opens it when the plan
+// makes something of it or it holds a value or a message worth seeing.
+func finishSection(sec section) section {
+	sec.OpName, sec.ClearID = planform.KeyOp, "b-"+sec.ClearOp
+	sec.Open = sec.Summary != "" || hasSerious(sec.Group.Notes)
+	for _, row := range sec.Rows {
+		for _, c := range row.Controls {
+			if strings.TrimSpace(c.Value) != "" || hasSerious(c.Notes) {
+				sec.Open = true
 			}
 		}
 	}
-
-	fv.PartsBox = group{ID: planform.IDParts, Notes: take(planform.IDParts)}
-	for i, p := range f.Parts {
-		fv.Parts = append(fv.Parts, buildPart(s, i, p, rng, take))
-	}
-	take(planform.IDAdd)
-	take(planform.IDFile)
-
-	// Whatever no control on the form took goes on top of the form.
-	for _, id := range sortedKeys(notes) {
-		if !shown[id] {
-			fv.General = append(fv.General, notes[id]...)
-		}
-	}
-	fv.Shape = formShape(f, scsList)
-	return fv
+	return sec
 }
 
 func plain(vals []string) []option {
@@ -314,7 +350,10 @@ func plain(vals []string) []option {
 	return out
 }
 
-func buildPart(s planform.State, i int, p planform.PartForm, rng grid.Range, take func(string) []note) partView {
+// part makes the fieldset of partition i: its controls, from the rows of
+// planform.Fields, with the placement grid made of it as placeholders.
+func (fb *formBuilder) part(i int) partView {
+	s, rng, p := fb.s, fb.rng, fb.f.Parts[i]
 	id := func(k string) string { return planform.PartControlID(i, k) }
 	scsOpts := make([]string, 0, 4)
 	for _, scs := range rng.DataSCS() {
@@ -331,7 +370,7 @@ func buildPart(s planform.State, i int, p planform.PartForm, rng grid.Range, tak
 		label = fmt.Sprintf("partition %d", i+1)
 	}
 	pv := partView{
-		Index: i, Group: group{ID: planform.PartGroupID(i), Notes: take(planform.PartGroupID(i))},
+		Index: i, Group: group{ID: planform.PartGroupID(i), Notes: fb.take(planform.PartGroupID(i))},
 		Legend: fmt.Sprintf("%d · %s", i+1, label), Label: label, LegendID: fmt.Sprintf("l-p%d", i),
 		First: i == 0, Last: i == len(s.Form.Parts)-1, OpName: planform.KeyOp,
 	}
@@ -341,13 +380,10 @@ func buildPart(s planform.State, i int, p planform.PartForm, rng grid.Range, tak
 			placed = &s.Result.Partitions[k]
 		}
 	}
-	// Each control takes its key, label and value from the field's row of
-	// planform.Fields; the view adds only the layout and the choices.
-	f := s.Form
 	ctl := func(key, size, mode string, opts []option) control {
 		fl := planform.PartFieldOf(key)
-		return control{ID: id(key), Name: fl.FullKey(i), Label: fl.Label, Value: *fl.Value(&f, i), Size: size, InputMode: mode,
-			Options: opts, Notes: take(id(key))}
+		return control{ID: id(key), Name: fl.FullKey(i), Label: fl.Label, Value: *fl.Value(&fb.f, i), Size: size, InputMode: mode,
+			Options: opts, Notes: fb.take(id(key))}
 	}
 	start, size, riv := ctl("start", "3", "numeric", nil), ctl("size", "3", "numeric", nil), ctl("riv", "6", "numeric", nil)
 	if placed != nil {
@@ -359,7 +395,7 @@ func buildPart(s planform.State, i int, p planform.PartForm, rng grid.Range, tak
 	}
 	pv.Controls = []control{
 		ctl("name", "5", "", nil),
-		ctl("scs", "3", "", pick(plain(scsOpts), p.SCS, func(v string) string { return "not a data SCS of " + rng.String() })),
+		ctl("scs", "3", "", pick(plain(scsOpts), p.SCS, func(string) string { return "not a data SCS of " + rng.String() })),
 		ctl("cp", "4", "", pick(plain([]string{"normal", "extended"}), orDefault(p.CP, grid.DefaultCP), nil)),
 		start, size, riv,
 		ctl("dir", "4", "", pick(plain([]string{"DL", "UL"}), dir, nil)),
@@ -367,7 +403,7 @@ func buildPart(s planform.State, i int, p planform.PartForm, rng grid.Range, tak
 		ctl("mod", "4", "", pick(plain(grid.ModulationNames()), orDefault(p.Mod, grid.DefaultModulation), nil)),
 	}
 	for _, b := range []string{"up", "down", "dup", "del"} {
-		take(planform.ButtonID(b, i))
+		fb.take(planform.ButtonID(b, i))
 	}
 	return pv
 }

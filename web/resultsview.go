@@ -218,7 +218,19 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 		{Label: "Compare with…", Href: "/compare?" + planform.CompareQuery(s.Form, planform.CopyOf(s.Form), s.Fig.Form), TestID: "open-compare", Hint: "this plan as A against an editable copy as B"},
 	}
 
+	rv.Parts = partRows(res)
+	rv.Carriers = carrierRows(res)
+	rv.Channel, rv.HasTDD = channelFacts(res), res.TDD != nil
+	rv.SSB = ssbOf(res)
+	rv.Fit = fitOf(res)
+	rv.Lattice = latticeOf(res)
+	return rv
+}
+
+// partRows are the rows of the timing and frequency table, one per placed partition.
+func partRows(res grid.Result) []partRow {
 	ch := res.Channel
+	var rows []partRow
 	for _, l := range res.Partitions {
 		n := l.Numerology
 		row := partRow{
@@ -245,11 +257,17 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 		if ch.Absolute {
 			row.LowMHz, row.HighMHz = exact(ch.Abs(l.Low).MHz()), exact(ch.Abs(l.High).MHz())
 		}
-		rv.Parts = append(rv.Parts, row)
+		rows = append(rows, row)
 	}
+	return rows
+}
+
+// carrierRows are the rows of the SCS-specific carriers' table.
+func carrierRows(res grid.Result) []carrierRow {
+	var rows []carrierRow
 	for _, c := range res.Carriers {
 		nrb, cbw := c.NRB, c.CarrierBandwidth
-		rv.Carriers = append(rv.Carriers, carrierRow{
+		rows = append(rows, carrierRow{
 			SCS: strconv.Itoa(c.SCSKHz), NRB: strconv.Itoa(nrb), CarrierBW: strconv.Itoa(cbw),
 			Offset: strconv.Itoa(c.OffsetToCarrier), Chosen: yesNo(c.Chosen, "chosen", "given"),
 			CRBs:     crbRange(c.OffsetToCarrier, cbw),
@@ -257,7 +275,13 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 			GuardLowShort: c.GuardLow < c.MinGuard, GuardHighShort: c.GuardHigh < c.MinGuard, SizeReduced: cbw < nrb,
 		})
 	}
-	rv.Channel = []fact{
+	return rows
+}
+
+// channelFacts describe the channel: range, edges, centre, point A, use, TDD pattern.
+func channelFacts(res grid.Result) []fact {
+	ch := res.Channel
+	facts := []fact{
 		{"Range", ch.Range.String()},
 		{"Channel", fmt.Sprintf("%d MHz: %s to %s kHz from point A", ch.BandwidthMHz, exact(ch.Low.KHz()), exact(ch.High.KHz()))},
 	}
@@ -266,20 +290,24 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 		if ch.OnRaster {
 			centre += fmt.Sprintf(" (NR-ARFCN %d)", ch.ARFCN)
 		}
-		rv.Channel = append(rv.Channel, fact{"Centre", centre})
+		facts = append(facts, fact{"Centre", centre})
 		pa := exact(ch.PointAHz.MHz()) + " MHz"
 		if ch.PointAOnRaster {
 			pa += fmt.Sprintf(" (absoluteFrequencyPointA %d)", ch.PointAARFCN)
 		}
-		rv.Channel = append(rv.Channel, fact{"Point A", pa})
+		facts = append(facts, fact{"Point A", pa})
 	} else {
-		rv.Channel = append(rv.Channel, fact{"Centre", exact(ch.Center.KHz()) + " kHz from point A (no absolute frequency given)"})
+		facts = append(facts, fact{"Centre", exact(ch.Center.KHz()) + " kHz from point A (no absolute frequency given)"})
 	}
-	rv.Channel = append(rv.Channel, fact{"Channel use", strconv.FormatFloat(ch.UsePercent, 'f', 2, 64) + " %"})
+	facts = append(facts, fact{"Channel use", strconv.FormatFloat(ch.UsePercent, 'f', 2, 64) + " %"})
 	if t := res.TDD; t != nil {
-		rv.HasTDD = true
-		rv.Channel = append(rv.Channel, fact{"TDD pattern", tddText(t, "%s on %d kHz slots, period %s ms")})
+		facts = append(facts, fact{"TDD pattern", tddText(t, "%s on %d kHz slots, period %s ms")})
 	}
+	return facts
+}
+
+// ssbOf is the SS/PBCH table, or nil without blocks.
+func ssbOf(res grid.Result) *ssbView {
 	if b := res.SSB; b != nil {
 		sv := &ssbView{Facts: []fact{
 			{"Case", fmt.Sprintf("%s at %d kHz", b.Case, b.Numerology.SCSKHz())},
@@ -307,8 +335,13 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 			sv.Blocks = append(sv.Blocks, ssbRow{Index: strconv.Itoa(blk.Index), Slot: strconv.Itoa(blk.Slot), Symbol: strconv.Itoa(blk.Symbol),
 				StartUs: us(blk.Start.Micros()), EndUs: us(blk.End.Micros())})
 		}
-		rv.SSB = sv
+		return sv
 	}
+	return nil
+}
+
+// fitOf is the numerology fit's table, or nil without an environment.
+func fitOf(res grid.Result) *fitView {
 	if fit := res.Fit; fit != nil {
 		fv := &fitView{Caution: fit.Caution, Facts: []fact{
 			{"RMS delay spread", exact(fit.DelaySpreadNs) + " ns"},
@@ -335,30 +368,36 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 			}
 			fv.Rows = append(fv.Rows, row)
 		}
-		rv.Fit = fv
+		return fv
 	}
 
-	rv.Lattice = latticeData{SpanTc: int64(grid.TcPerSubframe) * int64(res.Plan.SpanMs), Parts: []latticePart{}}
+	return nil
+}
+
+// latticeOf is what the page script reads the figure with.
+func latticeOf(res grid.Result) latticeData {
+	ch := res.Channel
+	lat := latticeData{SpanTc: int64(grid.TcPerSubframe) * int64(res.Plan.SpanMs), Parts: []latticePart{}}
 	if ch.Absolute {
 		pa := int64(ch.PointAHz)
-		rv.Lattice.PointAHz = &pa
+		lat.PointAHz = &pa
 	}
 	for _, l := range res.Partitions {
 		n := l.Numerology
-		rv.Lattice.Parts = append(rv.Lattice.Parts, latticePart{
+		lat.Parts = append(lat.Parts, latticePart{
 			Plan: l.Index, Name: l.Name, Mu: n.Mu, Extended: n.CP == grid.ExtendedCP, SCSHz: int64(n.SCS()),
 			StartCRB: l.StartCRB, SizePRB: l.SizePRB, LowHz: int64(l.Low), HighHz: int64(l.High),
 			Symbols: l.SymbolCount(), SymbolsPerSlot: n.SymbolsPerSlot(), Dirs: dirString(l.Dirs),
 		})
 	}
-	rv.Lattice.SSB = []latticeSSB{}
+	lat.SSB = []latticeSSB{}
 	if b := res.SSB; b != nil {
 		for _, blk := range b.Blocks {
-			rv.Lattice.SSB = append(rv.Lattice.SSB, latticeSSB{Index: blk.Index, StartTc: int64(blk.Start), EndTc: int64(blk.End),
+			lat.SSB = append(lat.SSB, latticeSSB{Index: blk.Index, StartTc: int64(blk.Start), EndTc: int64(blk.End),
 				LowHz: int64(blk.Low), HighHz: int64(blk.High)})
 		}
 	}
-	return rv
+	return lat
 }
 
 // tddText writes a TDD pattern with format's verbs: its slots, reference
