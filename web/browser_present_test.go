@@ -316,7 +316,7 @@ func TestBrowserDropFigure(t *testing.T) {
 	}
 	// The refused drop's answer is logged by the browser as a failed load,
 	// once; anything else on the console is a failure.
-	time.Sleep(100 * time.Millisecond)
+	tb.flushConsole()
 	tb.mu.Lock()
 	defer tb.mu.Unlock()
 	refused := 0

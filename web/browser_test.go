@@ -8,6 +8,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"slices"
 	"strings"
 	"sync"
 	"testing"
@@ -44,6 +45,7 @@ type tab struct {
 
 	mu      sync.Mutex
 	console []chromedp.ConsoleMessage
+	flushes int
 }
 
 // One Chromium serves every browser test of the package: the first test
@@ -180,13 +182,38 @@ func (tb *tab) waitFor(what, cond string) {
 // checkConsole fails the test for any console error or uncaught exception.
 func (tb *tab) checkConsole() {
 	tb.t.Helper()
-	time.Sleep(100 * time.Millisecond) // let the last messages arrive
+	tb.flushConsole()
 	tb.mu.Lock()
 	defer tb.mu.Unlock()
 	for _, m := range tb.console {
 		if m.Type == chromedp.ConsoleError || m.IsException() || m.Type == chromedp.ConsoleWarning {
 			tb.t.Errorf("browser console %s: %s (%s:%d)", m.Type, m.Text, m.URL, m.Line)
 		}
+	}
+}
+
+// flushConsole waits until every console message the page sent so far has
+// reached tb.console: it logs a marker and polls until the marker arrives,
+// since the messages arrive in the order they were sent.
+func (tb *tab) flushConsole() {
+	tb.t.Helper()
+	tb.mu.Lock()
+	tb.flushes++
+	marker := fmt.Sprintf("gl-test-flush-%d", tb.flushes)
+	tb.mu.Unlock()
+	tb.do("logging a marker", chromedp.Evaluate[chromedp.Void](`console.debug('`+marker+`')`))
+	deadline := time.Now().Add(10 * time.Second)
+	for {
+		tb.mu.Lock()
+		arrived := slices.ContainsFunc(tb.console, func(m chromedp.ConsoleMessage) bool { return m.Text == marker })
+		tb.mu.Unlock()
+		if arrived {
+			return
+		}
+		if time.Now().After(deadline) {
+			tb.t.Fatalf("the console marker %s did not arrive", marker)
+		}
+		time.Sleep(10 * time.Millisecond)
 	}
 }
 
