@@ -24,6 +24,12 @@ type Result struct {
 	// Spectrum is how the carriers and partitions divide the channel.
 	Spectrum Spectrum
 	Findings []Finding
+	// Timing is the carrier's timing: N_TA,offset, the guard against the
+	// cell range, the BWP switch delays (timingplan.go).
+	Timing *PlanTiming
+	// Advice weighs every numerology of the range against the environment,
+	// when the plan describes one (advice.go).
+	Advice *Advice
 }
 
 // HasErrors reports whether any finding is an Error.
@@ -112,6 +118,9 @@ type Lattice struct {
 	SpanMs   int
 	// Dirs holds the TDD direction of every symbol of the span; nil without TDD.
 	Dirs []SymbolDir
+	// Timing is what the numerology buys in time on the plan's pattern;
+	// nil when the partition sits below the TDD reference spacing.
+	Timing *PartitionTiming
 }
 
 // SymbolCount is the number of OFDM symbols in the span.
@@ -268,10 +277,15 @@ func Compute(plan Plan) Result {
 			}
 		}
 	}
-	if p.Environment != nil {
+	tin := checkTimingKeys(&fs, rng, &p)
+	if p.Environment != nil && wantsFit(p.Environment) {
 		if f, ok := checkFit(&fs, rng, p.Environment, res.Channel, res.Partitions); ok {
 			res.Fit = f
 		}
+	}
+	computeTiming(&fs, rng, tin, p.TDD != nil && tdd == nil, &res)
+	if e := p.Environment; e != nil && res.Timing != nil && (res.Fit != nil || !wantsFit(e)) {
+		res.Advice = computeAdvice(rng, e, tin, res.Fit, &res)
 	}
 	res.Spectrum = spectrumOf(res.Channel, res.Carriers, res.Partitions)
 	res.Channel.UsePercent = usePercent(res.Channel, res.Spectrum)

@@ -19,7 +19,7 @@ const (
 	CodeEmpty          = "empty"           // no partitions
 	CodeLimit          = "limit"           // a count, length or span beyond its bound
 	CodeName           = "name"            // a partition name missing or repeated
-	CodeRange          = "range"           // carrier.range unknown
+	CodeRange          = "range"           // carrier.range unknown (error); a cell radius beyond the guard or timing advance (warning)
 	CodeBandwidth      = "bandwidth"       // channel or carrier bandwidth not in the tables
 	CodeSCSRange       = "scs-range"       // a subcarrier spacing that carries no data in the range
 	CodeCP             = "cp"              // cyclic prefix unknown or not allowed at the spacing
@@ -43,6 +43,7 @@ const (
 	CodeFit            = "fit"             // a numerology that suits the radio channel poorly (rules of thumb)
 	CodeBand           = "band"            // band unknown, channel outside it, or a bandwidth or spacing it does not allow
 	CodeChannelRaster  = "channel-raster"  // centre off the band's channel raster (TS 38.101-1/-2 Table 5.4.2.3-1)
+	CodeTiming         = "timing"          // ueCapability, dmrsAdditionalPosition or carrier.nTaOffset not defined; capability 2 falling back to 1
 )
 
 // Finding is one result of checking a plan. Field is the path of the plan

@@ -17,6 +17,13 @@ type EnvironmentPlan struct {
 	// CarrierMHz is the carrier frequency for the Doppler shift when the
 	// plan gives no centerMHz or arfcn.
 	CarrierMHz float64 `json:"carrierMHz,omitempty" yaml:"carrierMHz,omitempty"`
+	// CellRadiusKm is the radius the cell must cover, judged against the
+	// guard period and the timing advance range (a range warning) and in
+	// the numerology advice; 0 means not stated.
+	CellRadiusKm float64 `json:"cellRadiusKm,omitempty" yaml:"cellRadiusKm,omitempty"`
+	// LatencyTargetMs is the one-way user-plane latency the numerology advice
+	// judges against; 0 means none.
+	LatencyTargetMs float64 `json:"latencyTargetMs,omitempty" yaml:"latencyTargetMs,omitempty"`
 }
 
 // DelayProfiles are the RMS delay spread scaling values of TR 38.901

@@ -41,6 +41,11 @@ type CarrierPlan struct {
 	// CarrierBandwidth maps a subcarrier spacing (kHz) to the carrier's size
 	// in PRBs; absent spacings take N_RB of TS 38.101 Table 5.3.2-1.
 	CarrierBandwidth map[int]int `json:"carrierBandwidth,omitempty" yaml:"carrierBandwidth,omitempty"`
+	// NTAOffset is n-TimingAdvanceOffset of TS 38.331
+	// ServingCellConfigCommon: n0, n25600 or n39936 (N_TA,offset in Tc,
+	// TS 38.133 Table 7.1.2-2). "" means the value for the range: 25600 in
+	// FR1, 13792 in FR2, where the field does not apply.
+	NTAOffset string `json:"nTaOffset,omitempty" yaml:"nTaOffset,omitempty"`
 }
 
 // PartitionPlan is one bandwidth part. Place it by StartCRB and SizePRB, or
@@ -59,6 +64,14 @@ type PartitionPlan struct {
 	Direction            string `json:"direction,omitempty" yaml:"direction,omitempty"`   // "DL" or "UL"; "" means DL
 	Layers               int    `json:"layers,omitempty" yaml:"layers,omitempty"`         // 1…8 DL, 1…4 UL; 0 means 1
 	Modulation           string `json:"modulation,omitempty" yaml:"modulation,omitempty"` // see Modulations; "" means 64QAM
+	// UECapability is the UE processing capability of TS 38.214 5.3 and 6.4
+	// that the timing assumes: 1 or 2; 0 means 1.
+	UECapability int `json:"ueCapability,omitempty" yaml:"ueCapability,omitempty"`
+	// DMRSAdditionalPosition is dmrs-AdditionalPosition of TS 38.331
+	// DMRS-DownlinkConfig, which picks the column of TS 38.214 Table 5.3-1:
+	// pos0, pos1, pos2 or pos3; "" means pos2, the value a UE applies when
+	// the field is absent (TS 38.331 DMRS-DownlinkConfig).
+	DMRSAdditionalPosition string `json:"dmrsAdditionalPosition,omitempty" yaml:"dmrsAdditionalPosition,omitempty"`
 }
 
 // Limits on a plan: they bound the work of Compute for any input.

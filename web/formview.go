@@ -197,6 +197,7 @@ func (fb *formBuilder) carrierControls() []control {
 		fb.choice("bw", "6", bandwidthOptions(fb.rng, fb.s.Plan.SCSInUse(), fb.f.Bandwidth)),
 		fb.text("fc", "6", "decimal", placeholderCenter(res)),
 		fb.text("arfcn", "6", "numeric", placeholderARFCN(res)),
+		fb.choice("nta", "6", pick(append([]option{{Value: "", Label: "for the range"}}, plain(grid.NTAOffsets)...), fb.f.NTA, nil)),
 	}
 }
 
@@ -313,12 +314,15 @@ func (fb *formBuilder) envSection() section {
 	}
 	sec := section{
 		Group: group{ID: planform.IDEnv, Notes: fb.take(planform.IDEnv)}, Title: "Radio channel", ClearOp: "clear.env",
-		Hint: "For the numerology fit: first-order rules that weigh CP against delay spread and SCS against Doppler. Leave it empty to skip the fit.",
+		Hint: "For the numerology fit: first-order rules that weigh CP against delay spread and SCS against Doppler; the cell radius and the latency target are judged in the timing advice. Leave it empty to skip the fit.",
 		Rows: []sectionRow{{Label: "Channel", Controls: []control{
 			fb.choice("env.profile", "6", pick(profiles, fb.f.Env.Profile, nil)),
 			fb.text("env.ds", "6", "decimal", ""),
 			fb.text("env.speed", "6", "decimal", "0"),
 			fb.text("env.fc", "6", "decimal", placeholderCenter(fb.s.Result)),
+		}}, {Label: "Timing", Controls: []control{
+			fb.text("env.radius", "6", "decimal", ""),
+			fb.text("env.latency", "6", "decimal", ""),
 		}}},
 	}
 	if fit := fb.s.Result.Fit; fit != nil {
@@ -401,6 +405,8 @@ func (fb *formBuilder) part(i int) partView {
 		ctl("dir", "4", "", pick(plain([]string{"DL", "UL"}), dir, nil)),
 		ctl("layers", "4", "", pick(plain(layerOpts), orDefault(p.Layers, "1"), func(string) string { return fmt.Sprintf("%s allows 1 to %d", dir, maxLayers) })),
 		ctl("mod", "4", "", pick(plain(grid.ModulationNames()), orDefault(p.Mod, grid.DefaultModulation), nil)),
+		ctl("cap", "4", "", pick([]option{{Value: "", Label: "1 (default)"}, {Value: "1", Label: "1"}, {Value: "2", Label: "2"}}, p.Cap, nil)),
+		ctl("dmrs", "4", "", pick(append([]option{{Value: "", Label: "pos2 (default)"}}, plain(grid.DMRSPositions)...), p.DMRS, nil)),
 	}
 	for _, b := range []string{"up", "down", "dup", "del"} {
 		fb.take(planform.ButtonID(b, i))

@@ -7,6 +7,7 @@
 //	gridloom check [-format text|json] [-strict] PLAN          list the findings
 //	gridloom version                                           the version and the 3GPP release
 //	gridloom ssb [-band nBAND] [-format table|json] PLAN      where the SS/PBCH block fits on the sync raster
+//	gridloom timing PLAN                                       the timing tables and the numerology advice
 //
 // PLAN is a JSON or YAML plan file, or "-" for standard input. Ctrl-C or
 // SIGTERM ends render and check at once and lets the server drain; a
@@ -99,6 +100,8 @@ Usage:
   gridloom check [flags] PLAN       list the plan's findings: -format text or json, -strict
   gridloom ssb [flags] PLAN         list the GSCNs where the SS/PBCH block fits, with
                                     offsetToPointA and k_SSB: -band, -format table or json
+  gridloom timing PLAN              processing times, HARQ, latency, guard range, BWP
+                                    switching and the numerology advice, as text tables
   gridloom version                  print the version and the 3GPP release it follows
   gridloom help                     print this text
 
@@ -130,10 +133,12 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 		return runVersion(args, stdout, stderr)
 	case "ssb":
 		return runSSB(ctx, args, stdin, stdout, stderr)
+	case "timing":
+		return runTiming(ctx, args, stdin, stdout, stderr)
 	case "help":
 		fmt.Fprint(stdout, usage)
 		return nil
 	}
 	fmt.Fprint(stderr, usage)
-	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check, ssb, version or help", cmd)}
+	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check, ssb, timing, version or help", cmd)}
 }

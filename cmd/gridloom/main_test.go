@@ -146,6 +146,14 @@ func TestCheckExitCodes(t *testing.T) {
 		{"warnings only", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":15,"sizePrb":24},{"name":"b","scsKHz":30,"startCrb":13,"sizePrb":10}]}`,
 			[]string{"check", "-"}, 0, "numerology-gap"},
 		{"errors", `{"carrier":{"bandwidthMHz":40},"partitions":[{"name":"a","scsKHz":120,"sizePrb":24}]}`, []string{"check", "-"}, 1, "scs-range"},
+		// DDDSU at 30 kHz with a 10:2:2 special slot: two guard symbols
+		// reach 6.79 km (TS 38.211 4.3.1), so a 10 km cell is a range warning.
+		{"cell range", `{"carrier":{"bandwidthMHz":40},"environment":{"cellRadiusKm":10},
+			"tdd":{"referenceScsKHz":30,"pattern1":{"periodMs":2.5,"downlinkSlots":3,"downlinkSymbols":10,"uplinkSlots":1,"uplinkSymbols":2}},
+			"partitions":[{"name":"a","scsKHz":30,"sizePrb":24}]}`, []string{"check", "-"}, 0, "warning range (environment.cellRadiusKm): environment.cellRadiusKm 10 km is beyond the 6.79 km the TDD guard allows"},
+		// The campus guard: two 15 kHz symbols, 280576 Tc, less 25600 + 25600
+		// Tc, is 116.67 µs: c·t/2 = 17.49 km (TS 38.211 4.3.1).
+		{"timing tables", "", []string{"timing", "../../grid/demo/campus.yaml"}, 0, "the largest cell radius is 17.49 km"},
 		{"unreadable", "", []string{"check", "../../grid/demo/no-such-plan.yaml"}, 2, "no-such-plan"},
 		{"undecodable", `{"carrier":`, []string{"check", "-"}, 2, "not valid JSON"},
 		{"no plan argument", "", []string{"check"}, 2, "exactly one plan"},
@@ -230,7 +238,7 @@ func TestBrokenPlansExitOne(t *testing.T) {
 }
 
 func TestHelpOnEverySubcommand(t *testing.T) {
-	for _, cmd := range []string{"render", "check", "ssb"} {
+	for _, cmd := range []string{"render", "check", "ssb", "timing"} {
 		_, errOut, code := runCLI(t, "", cmd, "-h")
 		if code != 0 || !strings.Contains(errOut, "Usage: gridloom "+cmd) {
 			t.Errorf("%s -h: exit %d, output %q", cmd, code, errOut)

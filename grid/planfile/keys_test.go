@@ -16,15 +16,15 @@ func full() grid.Plan {
 	f := func(v float64) *float64 { return &v }
 	return grid.Plan{Name: "all", SpanMs: 2,
 		Carrier: grid.CarrierPlan{Range: "FR1", Band: "n78", BandwidthMHz: 40, CenterMHz: f(3750), ARFCN: i(650000),
-			OffsetToCarrier: map[int]int{15: 1}, CarrierBandwidth: map[int]int{15: 200}},
+			OffsetToCarrier: map[int]int{15: 1}, CarrierBandwidth: map[int]int{15: 200}, NTAOffset: "n39936"},
 		Partitions: []grid.PartitionPlan{{Name: "p", SCSKHz: 15, CP: "normal", StartCRB: i(1), SizePRB: 10,
-			LocationAndBandwidth: i(9), Direction: "UL", Layers: 2, Modulation: "256QAM"}},
+			LocationAndBandwidth: i(9), Direction: "UL", Layers: 2, Modulation: "256QAM", UECapability: 2, DMRSAdditionalPosition: "pos0"}},
 		NumerologyGapKHz: f(180),
 		TDD: &grid.TDDPlan{ReferenceSCSKHz: 15,
 			Pattern1: grid.TDDPattern{PeriodMs: 5, DownlinkSlots: 3, DownlinkSymbols: 6, UplinkSlots: 1, UplinkSymbols: 4},
 			Pattern2: &grid.TDDPattern{PeriodMs: 1, DownlinkSlots: 1, DownlinkSymbols: 1, UplinkSlots: 1, UplinkSymbols: 1}},
 		SSB:         &grid.SSBPlan{SCSKHz: 30, Case: "C", Bitmap: "1010", OffsetToPointA: 4, KSSB: 2, ScsCommonKHz: 30, PeriodMs: 20, GSCN: i(8016)},
-		Environment: &grid.EnvironmentPlan{DelaySpreadNs: 300, DelayProfile: "nominal", SpeedKmh: 120, CarrierMHz: 3500},
+		Environment: &grid.EnvironmentPlan{DelaySpreadNs: 300, DelayProfile: "nominal", SpeedKmh: 120, CarrierMHz: 3500, CellRadiusKm: 5, LatencyTargetMs: 1},
 	}
 }
 
@@ -85,19 +85,19 @@ func TestKeysFromTags(t *testing.T) {
 		want string
 	}{
 		{keys.plan, "name spanMs carrier partitions numerologyGapKHz tdd ssb environment"},
-		{keys.carrier, "range band bandwidthMHz centerMHz arfcn offsetToCarrier carrierBandwidth"},
-		{keys.partition, "name scsKHz cp startCrb sizePrb locationAndBandwidth direction layers modulation"},
+		{keys.carrier, "range band bandwidthMHz centerMHz arfcn offsetToCarrier carrierBandwidth nTaOffset"},
+		{keys.partition, "name scsKHz cp startCrb sizePrb locationAndBandwidth direction layers modulation ueCapability dmrsAdditionalPosition"},
 		{keys.tdd, "referenceScsKHz pattern1 pattern2"},
 		{keys.tddPattern, "periodMs downlinkSlots downlinkSymbols uplinkSlots uplinkSymbols"},
 		{keys.ssb, "scsKHz case bitmap offsetToPointA kSsb scsCommonKHz periodMs gscn"},
-		{keys.environment, "delaySpreadNs delayProfile speedKmh carrierMHz"},
+		{keys.environment, "delaySpreadNs delayProfile speedKmh carrierMHz cellRadiusKm latencyTargetMs"},
 	} {
 		if got := strings.Join(c.got, " "); got != c.want {
 			t.Errorf("keys %q, want %q", got, c.want)
 		}
 	}
 	_, err := DecodeJSON([]byte(`{"carrier": {"bandwidth": 40}}`))
-	want := `carrier.bandwidth: unknown key "bandwidth"; the keys here are range, band, bandwidthMHz, centerMHz, arfcn, offsetToCarrier, carrierBandwidth. Did you mean bandwidthMHz?`
+	want := `carrier.bandwidth: unknown key "bandwidth"; the keys here are range, band, bandwidthMHz, centerMHz, arfcn, offsetToCarrier, carrierBandwidth, nTaOffset. Did you mean bandwidthMHz?`
 	if err == nil || err.Error() != want {
 		t.Errorf("unknown key: %v\nwant %s", err, want)
 	}

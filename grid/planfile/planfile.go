@@ -676,6 +676,7 @@ func (w *walker) carrier(v any) grid.CarrierPlan {
 		ARFCN:            w.optInt(m["arfcn"], "carrier.arfcn"),
 		OffsetToCarrier:  w.scsMap(m["offsetToCarrier"], "carrier.offsetToCarrier"),
 		CarrierBandwidth: w.scsMap(m["carrierBandwidth"], "carrier.carrierBandwidth"),
+		NTAOffset:        w.str(m["nTaOffset"], "carrier.nTaOffset"),
 	}
 	return c
 }
@@ -686,15 +687,17 @@ func (w *walker) partition(v any, f string) grid.PartitionPlan {
 		return grid.PartitionPlan{}
 	}
 	pp := grid.PartitionPlan{
-		Name:                 w.str(m["name"], f+".name"),
-		SCSKHz:               w.intOr0(m["scsKHz"], f+".scsKHz"),
-		CP:                   w.str(m["cp"], f+".cp"),
-		StartCRB:             w.optInt(m["startCrb"], f+".startCrb"),
-		SizePRB:              w.intOr0(m["sizePrb"], f+".sizePrb"),
-		LocationAndBandwidth: w.optInt(m["locationAndBandwidth"], f+".locationAndBandwidth"),
-		Direction:            w.str(m["direction"], f+".direction"),
-		Layers:               w.intOr0(m["layers"], f+".layers"),
-		Modulation:           w.str(m["modulation"], f+".modulation"),
+		Name:                   w.str(m["name"], f+".name"),
+		SCSKHz:                 w.intOr0(m["scsKHz"], f+".scsKHz"),
+		CP:                     w.str(m["cp"], f+".cp"),
+		StartCRB:               w.optInt(m["startCrb"], f+".startCrb"),
+		SizePRB:                w.intOr0(m["sizePrb"], f+".sizePrb"),
+		LocationAndBandwidth:   w.optInt(m["locationAndBandwidth"], f+".locationAndBandwidth"),
+		Direction:              w.str(m["direction"], f+".direction"),
+		Layers:                 w.intOr0(m["layers"], f+".layers"),
+		Modulation:             w.str(m["modulation"], f+".modulation"),
+		UECapability:           w.intOr0(m["ueCapability"], f+".ueCapability"),
+		DMRSAdditionalPosition: w.str(m["dmrsAdditionalPosition"], f+".dmrsAdditionalPosition"),
 	}
 	return pp
 }
@@ -774,6 +777,12 @@ func (w *walker) environment(v any) *grid.EnvironmentPlan {
 	}
 	if m["carrierMHz"] != nil {
 		e.CarrierMHz, _ = w.float(m["carrierMHz"], "environment.carrierMHz")
+	}
+	if m["cellRadiusKm"] != nil {
+		e.CellRadiusKm, _ = w.float(m["cellRadiusKm"], "environment.cellRadiusKm")
+	}
+	if m["latencyTargetMs"] != nil {
+		e.LatencyTargetMs, _ = w.float(m["latencyTargetMs"], "environment.latencyTargetMs")
 	}
 	return e
 }

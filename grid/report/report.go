@@ -25,6 +25,10 @@ type Document struct {
 	SSB        *SSB           `json:"ssb,omitempty"`
 	Fit        *grid.Fit      `json:"fit,omitempty"`
 	Findings   []grid.Finding `json:"findings"`
+	// Timing is the carrier's timing (timing.go); Advice the numerology
+	// advice, present when the plan describes its environment.
+	Timing *Timing      `json:"timing,omitempty"`
+	Advice *grid.Advice `json:"advice,omitempty"`
 }
 
 // SSB is the SS/PBCH configuration of a Document. Slot and symbol
@@ -148,6 +152,9 @@ type Partition struct {
 	// from the longer CP, for latency.
 	MiniSlotUs map[string]float64 `json:"miniSlotUs"`
 	Symbols    []Symbol           `json:"symbols"`
+	// Timing is what the numerology buys in time (timing.go); absent for a
+	// partition below the TDD reference spacing.
+	Timing *PartitionTiming `json:"timing,omitempty"`
 }
 
 // Build returns the document of r. With symbols false the per-symbol lists
@@ -216,8 +223,11 @@ func Build(r grid.Result, symbols bool) Document {
 				}
 			}
 		}
+		jp.Timing = partitionTiming(l.Timing, r.TDD != nil)
 		out.Partitions = append(out.Partitions, jp)
 	}
+	out.Timing = planTiming(r.Timing)
+	out.Advice = r.Advice
 	if s := r.SSB; s != nil {
 		js := &SSB{Case: s.Case, SCSKHz: s.Numerology.SCSKHz(), Candidates: s.Candidates, BitmapForm: s.BitmapForm,
 			PeriodMs: s.PeriodMs, OffsetToPointA: s.OffsetToPointA, KSSB: s.KSSB, ScsCommonKHz: s.ScsCommonKHz,

@@ -89,3 +89,23 @@ func TestSSBRaster(t *testing.T) {
 		t.Errorf("ssb %+v; want GSCN 8016, SS_REF 3744.48 MHz, absoluteFrequencySSB 649632", s)
 	}
 }
+
+// The cross-link JSON of the sample's pattern (DDDSU at 30 kHz, special
+// slot 6:4:4) against itself: aligned, an empty list; one slot (500 µs)
+// late, B's uplink slot 4 falls on A's downlink slot 0 (0 to 500 µs).
+func TestBuildCrossLink(t *testing.T) {
+	tdd := *sample().TDD
+	cl, err := grid.CrossLinkConflicts(tdd, tdd, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, _ := json.Marshal(BuildCrossLink(cl))
+	if got := string(b); got != `{"frameOffsetUs":0,"cycleUs":2500,"conflicts":[],"totalPer10msUs":0,"totalPerCycleTc":0}` {
+		t.Errorf("aligned: %s", got)
+	}
+	cl, _ = grid.CrossLinkConflicts(tdd, tdd, 500)
+	doc := BuildCrossLink(cl)
+	if len(doc.Conflicts) == 0 || doc.Conflicts[0] != (CrossLinkConflict{StartUs: 0, EndUs: 500, StartTc: 0, EndTc: 983040, A: "D", B: "U"}) {
+		t.Errorf("one slot late: %+v", doc.Conflicts)
+	}
+}

@@ -9,10 +9,19 @@ func (p Pattern) searchLimit(from int, wait Tc) int {
 }
 
 // firstULRun returns the first symbol k ≥ from whose uplink start is at or
-// after t and which begins a run of n uplink symbols inside one slot.
+// after t and which begins a run of n uplink symbols inside one slot. It
+// starts at the first symbol late enough and, on an indexed pattern, jumps
+// over downlink and flexible runs.
 func (p Pattern) firstULRun(from int, t Tc, n int) (int, bool) {
 	limit := p.searchLimit(from, t-p.dlStart(from)+p.ULAdvance)
-	for k := from; k < limit; k++ {
+	for k := max(from, firstAtOrAfter(p.Mu, t+p.ULAdvance)); k < limit; k++ {
+		if p.toUL != nil {
+			d := p.toUL[k%len(p.Dir)]
+			if d < 0 {
+				return 0, false
+			}
+			k += int(d)
+		}
 		if !p.IsUL(k) || p.ulStart(k) < t {
 			continue
 		}
@@ -48,6 +57,12 @@ func EarliestK1(p Pattern, slot, lastSymbol int, tproc1 Tc) (AckTiming, error) {
 	if err := p.Check(); err != nil {
 		return AckTiming{}, err
 	}
+	return p.earliestK1(slot, lastSymbol, tproc1)
+}
+
+// earliestK1 is EarliestK1 on a checked pattern: the walks over a cycle
+// check it once, not once per slot (Check reads every symbol).
+func (p Pattern) earliestK1(slot, lastSymbol int, tproc1 Tc) (AckTiming, error) {
 	if slot < 0 || lastSymbol < 0 || lastSymbol >= SymbolsPerSlot {
 		return AckTiming{}, fmt.Errorf("The PDSCH must end in a slot ≥ 0 at symbol 0 to 13; got slot %d, symbol %d.", slot, lastSymbol)
 	}
@@ -78,6 +93,11 @@ func EarliestK2(p Pattern, slot, lastSymbol, length int, tproc2 Tc) (GrantTiming
 	if err := p.Check(); err != nil {
 		return GrantTiming{}, err
 	}
+	return p.earliestK2(slot, lastSymbol, length, tproc2)
+}
+
+// earliestK2 is EarliestK2 on a checked pattern.
+func (p Pattern) earliestK2(slot, lastSymbol, length int, tproc2 Tc) (GrantTiming, error) {
 	if slot < 0 || lastSymbol < 0 || lastSymbol >= SymbolsPerSlot {
 		return GrantTiming{}, fmt.Errorf("The PDCCH must end in a slot ≥ 0 at symbol 0 to 13; got slot %d, symbol %d.", slot, lastSymbol)
 	}
@@ -127,6 +147,7 @@ func HARQRoundTrips(p Pattern, tproc1, gnbProc Tc) (RoundTrips, error) {
 	if gnbProc < 0 || tproc1 < 0 {
 		return RoundTrips{}, fmt.Errorf("The processing times must be zero or more Tc; got T_proc,1 = %d and gNB processing %d.", tproc1, gnbProc)
 	}
+	p = p.indexed()
 	var out RoundTrips
 	var sum Tc
 	for s := 0; s < p.CycleSlots(); s++ {
@@ -138,7 +159,7 @@ func HARQRoundTrips(p Pattern, tproc1, gnbProc Tc) (RoundTrips, error) {
 		for last+1 < SymbolsPerSlot && p.IsDL(first+last+1) {
 			last++
 		}
-		ack, err := EarliestK1(p, s, last, tproc1)
+		ack, err := p.earliestK1(s, last, tproc1)
 		if err != nil {
 			return RoundTrips{}, err
 		}
@@ -166,6 +187,105 @@ func HARQRoundTrips(p Pattern, tproc1, gnbProc Tc) (RoundTrips, error) {
 	}
 	if len(out.PerSlot) == 0 {
 		return RoundTrips{}, fmt.Errorf("The pattern has no slot that starts with a downlink symbol, so no PDSCH to acknowledge.")
+	}
+	out.Mean = float64(sum) / float64(len(out.PerSlot))
+	return out, nil
+}
+
+// LeastK2 returns the least K2 over the slots of one cycle that start with
+// two downlink symbols, for a PDCCH in symbols 0–1 granting a PUSCH of
+// length symbols in one slot (EarliestK2's rule).
+func LeastK2(p Pattern, length int, tproc2 Tc) (int, error) {
+	if err := p.Check(); err != nil {
+		return 0, err
+	}
+	p = p.indexed()
+	least := -1
+	for s := range p.CycleSlots() {
+		if !p.IsDL(s*SymbolsPerSlot) || !p.IsDL(s*SymbolsPerSlot+1) {
+			continue
+		}
+		g, err := p.earliestK2(s, 1, length, tproc2)
+		if err != nil {
+			return 0, err
+		}
+		if least < 0 || g.K2 < least {
+			least = g.K2
+		}
+	}
+	if least < 0 {
+		return 0, fmt.Errorf("The pattern has no slot that starts with two downlink symbols for a PDCCH.")
+	}
+	return least, nil
+}
+
+// ULRoundTrip is the uplink HARQ round trip of the PUSCH sent in one slot.
+type ULRoundTrip struct {
+	Slot  int         // the slot of the first transmission, within the cycle
+	Grant GrantTiming // the retransmission's grant, from the slot of its PDCCH
+	Retx  int         // the slot of the retransmission
+	RTT   Tc          // from the start of the first PUSCH to the start of the retransmission
+}
+
+// ULRoundTrips sums up the uplink HARQ round trips of one cycle.
+type ULRoundTrips struct {
+	PerSlot  []ULRoundTrip
+	Min, Max Tc
+	Mean     float64 // Tc
+}
+
+// ULHARQRoundTrips walks every whole uplink slot of one cycle: a PUSCH
+// fills it; the gNB has it at the end of the slot on its own lattice (the
+// timing advance undoes the propagation), decodes it for gnbProc, and
+// grants a retransmission with a PDCCH in symbols 0–1 of the first slot
+// that starts with two downlink symbols no earlier than that; the new PUSCH,
+// a whole slot again, goes at EarliestK2 (T_proc,2 after the PDCCH). The
+// round trip runs between the two PUSCHs' slot starts on the gNB's lattice.
+// gnbProc is the gNB's implementation time, which no specification fixes.
+func ULHARQRoundTrips(p Pattern, tproc2, gnbProc Tc) (ULRoundTrips, error) {
+	if err := p.Check(); err != nil {
+		return ULRoundTrips{}, err
+	}
+	if gnbProc < 0 || tproc2 < 0 {
+		return ULRoundTrips{}, fmt.Errorf("The processing times must be zero or more Tc; got T_proc,2 = %d and gNB processing %d.", tproc2, gnbProc)
+	}
+	p = p.indexed()
+	const n = SymbolsPerSlot
+	var out ULRoundTrips
+	var sum Tc
+	for s := range p.CycleSlots() {
+		full := true
+		for j := 0; j < n && full; j++ {
+			full = p.IsUL(s*n + j)
+		}
+		if !full {
+			continue
+		}
+		ready := p.dlEnd(s*n+n-1) + gnbProc
+		r, found := s+1, false
+		for limit := r + 2*p.CycleSlots() + int(gnbProc/SlotTc(p.Mu)) + 2; r < limit; r++ {
+			if p.IsDL(r*n) && p.IsDL(r*n+1) && p.dlStart(r*n) >= ready {
+				found = true
+				break
+			}
+		}
+		if !found {
+			return ULRoundTrips{}, fmt.Errorf("The pattern has no slot starting with two downlink symbols for the grant after the PUSCH of slot %d.", s)
+		}
+		g, err := p.earliestK2(r, 1, n, tproc2)
+		if err != nil {
+			return ULRoundTrips{}, err
+		}
+		rt := ULRoundTrip{Slot: s, Grant: g, Retx: g.Symbol / n, RTT: p.dlStart(g.Symbol) - p.dlStart(s*n)}
+		if len(out.PerSlot) == 0 || rt.RTT < out.Min {
+			out.Min = rt.RTT
+		}
+		out.Max = max(out.Max, rt.RTT)
+		sum += rt.RTT
+		out.PerSlot = append(out.PerSlot, rt)
+	}
+	if len(out.PerSlot) == 0 {
+		return ULRoundTrips{}, fmt.Errorf("The pattern has no whole uplink slot for a PUSCH.")
 	}
 	out.Mean = float64(sum) / float64(len(out.PerSlot))
 	return out, nil

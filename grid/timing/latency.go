@@ -83,28 +83,31 @@ func EvaluationProcessing(mu int, c Capability) (Tc, error) {
 
 type opportunity struct{ start, end Tc }
 
-// opportunities lists the transmission starts of one cycle, in order.
-func (c LatencyConfig) opportunities() []opportunity {
+// eachOpportunity calls f with the transmission opportunities of one
+// cycle, latest first. It walks the cycle backwards once, counting the run
+// of symbols of the direction that starts at each symbol and stays in its
+// slot, and keeps no list: the cycle of a 960 kHz pattern holds thousands.
+func (c LatencyConfig) eachOpportunity(f func(opportunity)) {
 	p := c.Pattern
 	is := p.IsDL
 	if c.Dir == Uplink {
 		is = p.IsUL
 	}
-	var out []opportunity
-	for k := 0; k < p.CycleSymbols(); k++ {
+	run := 0
+	for k := p.CycleSymbols() - 1; k >= 0; k-- {
 		l := k % SymbolsPerSlot
-		if c.Length == SymbolsPerSlot && l != 0 || l+c.Length > SymbolsPerSlot {
-			continue
+		switch {
+		case !is(k):
+			run = 0
+		case l == SymbolsPerSlot-1:
+			run = 1
+		default:
+			run++
 		}
-		ok := true
-		for j := 0; j < c.Length && ok; j++ {
-			ok = is(k + j)
-		}
-		if ok {
-			out = append(out, opportunity{p.dlStart(k), p.dlEnd(k + c.Length - 1)})
+		if run >= c.Length && (c.Length != SymbolsPerSlot || l == 0) {
+			f(opportunity{p.dlStart(k), p.dlEnd(k + c.Length - 1)})
 		}
 	}
-	return out
 }
 
 // UserPlaneLatency computes the latency of c. Times are on the gNB's
@@ -134,25 +137,33 @@ func UserPlaneLatency(c LatencyConfig) (Latency, error) {
 	if c.MaxRetx < 0 {
 		return Latency{}, fmt.Errorf("The number of retransmissions must be zero or more; got %d.", c.MaxRetx)
 	}
-	ops := c.opportunities()
-	if len(ops) == 0 {
-		return Latency{}, fmt.Errorf("The pattern has no run of %d %s symbols in one slot to transmit in.", c.Length, c.Dir)
-	}
 	period := c.Pattern.CycleTc()
 	fixed := c.TxProc + c.RxProc
-	out := Latency{Best: math.MaxInt64, Opportunities: len(ops)}
+	out := Latency{Best: math.MaxInt64}
 	var num float64 // Σ g_i·(g_i/2 + d_i), in Tc²
-	for i, o := range ops {
-		prev := ops[(i+len(ops)-1)%len(ops)].start
-		g := o.start - prev
-		if g <= 0 {
-			g += period
-		}
-		d := o.end - o.start
+	// term adds opportunity o, whose predecessor starts at prev.
+	term := func(o opportunity, prev Tc) {
+		g, d := o.start-prev, o.end-o.start
 		num += float64(g) * (float64(g)/2 + float64(d))
 		out.Worst = max(out.Worst, fixed+g+d)
 		out.Best = min(out.Best, fixed+d)
 	}
+	// Latest first: each opportunity closes the term of the one after it;
+	// the earliest closes with the latest of the cycle before.
+	var latest, later opportunity
+	c.eachOpportunity(func(o opportunity) {
+		if out.Opportunities == 0 {
+			latest = o
+		} else {
+			term(later, o.start)
+		}
+		later = o
+		out.Opportunities++
+	})
+	if out.Opportunities == 0 {
+		return Latency{}, fmt.Errorf("The pattern has no run of %d %s symbols in one slot to transmit in.", c.Length, c.Dir)
+	}
+	term(later, latest.start-period)
 	out.Mean = float64(fixed) + num/float64(period)
 	out.WithHARQ = out.Mean + ExpectedRetxTime(c.RetxProb, c.MaxRetx, c.HARQRTT)
 	return out, nil

@@ -23,6 +23,56 @@ type Pattern struct {
 	Mu        int
 	Dir       []byte
 	ULAdvance Tc
+	// toUL[i] is the number of symbols from symbol i of the period to the
+	// next uplink symbol (0 when i is one), −1 without any: an index the
+	// walks over a whole cycle build once (indexed), so that the search for
+	// the next uplink symbol does not step through long downlink runs.
+	toUL []int32
+}
+
+// indexed returns p with toUL built; FDD needs none.
+func (p Pattern) indexed() Pattern {
+	if p.Dir == nil || p.toUL != nil {
+		return p
+	}
+	n := len(p.Dir)
+	p.toUL = make([]int32, n)
+	next := -1 // distance from the symbol after the current one, walking backwards twice round
+	for pass := 0; pass < 2; pass++ {
+		for i := n - 1; i >= 0; i-- {
+			switch {
+			case p.Dir[i] == 'U':
+				next = 0
+			case next >= 0:
+				next++
+			}
+			p.toUL[i] = int32(next)
+		}
+	}
+	return p
+}
+
+// firstAtOrAfter is the first symbol k of the lattice of μ whose start is
+// at or after t (t ≥ 0), the inverse of SymbolStart.
+func firstAtOrAfter(mu int, t Tc) int {
+	if t <= 0 {
+		return 0
+	}
+	per := SymbolsPerHalfSub(mu)
+	h, rem := int(t/TcPerHalfSub), t%TcPerHalfSub
+	if rem == 0 {
+		return h * per
+	}
+	// Symbol l ≥ 1 of a half subframe starts 16κ + l·nominal in.
+	nom := NominalSymbolTc(mu)
+	l := 1
+	if rem > 16*Kappa {
+		l = max(1, int((rem-16*Kappa+nom-1)/nom))
+	}
+	if l >= per {
+		return (h + 1) * per
+	}
+	return h*per + l
 }
 
 // Check reports whether p is a pattern this package can walk.
@@ -93,9 +143,8 @@ func (p Pattern) IsUL(k int) bool { return p.Dir == nil || p.Dir[k%len(p.Dir)] =
 func (p Pattern) dlStart(k int) Tc { s, _ := SymbolStart(p.Mu, k); return s }
 func (p Pattern) dlEnd(k int) Tc   { s, l := SymbolStart(p.Mu, k); return s + l }
 
-// ulStart and ulEnd are the edges of symbol k as the UE transmits it.
+// ulStart is the start of symbol k as the UE transmits it.
 func (p Pattern) ulStart(k int) Tc { return p.dlStart(k) - p.ULAdvance }
-func (p Pattern) ulEnd(k int) Tc   { return p.dlEnd(k) - p.ULAdvance }
 
 // ExpandSlots turns a direction per slot into a direction per symbol:
 // 'D', 'U' and 'F' fill a slot's 14 symbols, 'S' takes special, which gives

@@ -68,3 +68,38 @@ func TestExpandSlots(t *testing.T) {
 		}
 	}
 }
+
+// firstAtOrAfter inverts SymbolStart: for every instant of two half
+// subframes (at symbol edges and one Tc either side), the symbol it names
+// is the first that starts at or after it.
+func TestFirstAtOrAfter(t *testing.T) {
+	for mu := 0; mu <= MaxMu; mu++ {
+		n := 2 * SymbolsPerHalfSub(mu)
+		for k := 0; k <= n; k++ {
+			s, _ := SymbolStart(mu, k)
+			for _, at := range []Tc{s - 1, s, s + 1} {
+				want := k
+				if at > s {
+					want = k + 1
+				}
+				if at < 0 {
+					continue
+				}
+				if got := firstAtOrAfter(mu, at); got != want {
+					t.Fatalf("μ %d: first symbol at or after %d Tc is %d, want %d", mu, at, got, want)
+				}
+			}
+		}
+	}
+}
+
+// The index of the next uplink symbol wraps round the period.
+func TestIndexedToUL(t *testing.T) {
+	p := Pattern{Mu: 1, Dir: []byte("UDDF" + strings.Repeat("D", 10))}.indexed()
+	if p.toUL[0] != 0 || p.toUL[1] != 13 || p.toUL[13] != 1 {
+		t.Errorf("toUL %v", p.toUL)
+	}
+	if q := (Pattern{Mu: 1, Dir: []byte(strings.Repeat("D", 14))}).indexed(); q.toUL[5] != -1 {
+		t.Errorf("no uplink: toUL %v", q.toUL)
+	}
+}

@@ -266,3 +266,42 @@ func TestExpectedRetxTime(t *testing.T) {
 		t.Errorf("two retransmissions: %v, want 110", got)
 	}
 }
+
+// The least K2 on DDDSU at 30 kHz for a 14-symbol PUSCH, T_proc,2 =
+// 911 872 Tc: a PDCCH in symbols 0–1 of slot s ends 141 312 Tc after the
+// slot starts, so the PUSCH may start 1 053 184 Tc (1.07 slots) later.
+// Slots 0, 1 and 2 reach slot 4 (K2 4, 3, 2); slot 3's PDCCH would need
+// 3 932 160 + 1 053 184 − 983 040 = 4 002 304 > 3 932 160, so slot 4 is too
+// early and it waits for slot 9 (K2 6). The least is 2.
+func TestLeastK2DDDSU(t *testing.T) {
+	tp, _ := TProc2(1, Cap1, Adders{})
+	k2, err := LeastK2(dddsu, 14, tp)
+	if err != nil || k2 != 2 {
+		t.Errorf("LeastK2 = %d, %v; want 2", k2, err)
+	}
+	if _, err := LeastK2(Pattern{Mu: 1, Dir: []byte(strings.Repeat("U", 14))}, 14, tp); err == nil {
+		t.Error("a pattern without downlink gave a K2")
+	}
+}
+
+// The uplink round trip on DDDSU at 30 kHz, T_proc,2 = 911 872 Tc and
+// 350 720 Tc (5 symbols) of gNB processing. The PUSCH of slot 4 ends at
+// 2.5 ms = 4 915 200 Tc; decoded by 5 265 920. Slot 5 (4 915 200) starts
+// too early, slot 6 (5 898 240) carries the grant; its PDCCH ends 141 312 Tc
+// in, and the PUSCH may start 1 053 184 Tc after slot 6 starts, which only
+// slot 9 (the next whole uplink slot, 8 847 360) meets. Round trip:
+// 8 847 360 − 3 932 160 = 4 915 200 Tc, 2.5 ms, five slots.
+func TestULHARQRoundTripsDDDSU(t *testing.T) {
+	tp, _ := TProc2(1, Cap1, Adders{})
+	rt, err := ULHARQRoundTrips(dddsu, tp, 350720)
+	if err != nil || len(rt.PerSlot) != 1 {
+		t.Fatalf("%+v, %v; want one uplink slot", rt, err)
+	}
+	r := rt.PerSlot[0]
+	if r.Slot != 4 || r.Retx != 9 || r.Grant.K2 != 3 || r.RTT != 4915200 || rt.Max != 4915200 || rt.Min != 4915200 {
+		t.Errorf("%+v; want slot 4, grant in slot 6 with K2 3, retransmission in slot 9, 4915200 Tc", rt)
+	}
+	if _, err := ULHARQRoundTrips(Pattern{Mu: 1, Dir: []byte(strings.Repeat("D", 14))}, tp, 0); err == nil {
+		t.Error("a pattern without uplink gave a round trip")
+	}
+}

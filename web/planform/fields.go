@@ -15,27 +15,28 @@ import (
 // The query string of a page holds the whole plan, so that a link reproduces
 // it. Keys are short and stable; they are part of every shared link:
 //
-//	name span range band bw fc arfcn gap         plan and carrier
+//	name span range band bw fc arfcn nta gap     plan and carrier
 //	off.SCS cbw.SCS                              offsetToCarrier, carrierBandwidth per SCS (kHz)
 //	tdd.ref tdd.ms tdd.dl tdd.dlsym tdd.ul tdd.ulsym   TDD reference SCS and pattern1
 //	tdd2.ms tdd2.dl tdd2.dlsym tdd2.ul tdd2.ulsym      pattern2
 //	ssb.scs ssb.case ssb.bitmap ssb.off ssb.k ssb.common ssb.period ssb.gscn
 //	env.ds env.profile env.speed env.fc          radio channel for the numerology fit
+//	env.radius env.latency                       and for the timing advice
 //	pI.name pI.scs pI.cp pI.start pI.size        partition I, from 0
-//	pI.riv pI.dir pI.layers pI.mod
+//	pI.riv pI.dir pI.layers pI.mod pI.cap pI.dmrs
 //
 // Fields lists them with their plan paths. An absent key and an empty value
 // mean the same: the plan field is left out, and a block (tdd, pattern2,
 // ssb, env) is in the plan when any of its keys has a value. Other keys are
 // ignored, so "op" and "download" can ride along.
 type Form struct {
-	Name, Span, Range, Band, Bandwidth, Center, ARFCN, Gap string
-	Offset                                                 map[int]string // subcarrier spacing (kHz) → offsetToCarrier as typed
-	CarrierBW                                              map[int]string // subcarrier spacing (kHz) → carrierBandwidth as typed
-	TDD                                                    TDDForm
-	SSB                                                    SSBForm
-	Env                                                    EnvForm
-	Parts                                                  []PartForm
+	Name, Span, Range, Band, Bandwidth, Center, ARFCN, NTA, Gap string
+	Offset                                                      map[int]string // subcarrier spacing (kHz) → offsetToCarrier as typed
+	CarrierBW                                                   map[int]string // subcarrier spacing (kHz) → carrierBandwidth as typed
+	TDD                                                         TDDForm
+	SSB                                                         SSBForm
+	Env                                                         EnvForm
+	Parts                                                       []PartForm
 }
 
 // TDDForm is the TDD pattern of a Form: the reference spacing and up to two
@@ -52,11 +53,11 @@ type PatternForm struct{ Ms, DL, DLSym, UL, ULSym string }
 type SSBForm struct{ SCS, Case, Bitmap, Off, K, Common, Period, GSCN string }
 
 // EnvForm is the radio channel of a Form, for the numerology fit.
-type EnvForm struct{ DelayNs, Profile, Speed, CarrierMHz string }
+type EnvForm struct{ DelayNs, Profile, Speed, CarrierMHz, RadiusKm, LatencyMs string }
 
 // PartForm is one partition of a Form.
 type PartForm struct {
-	Name, SCS, CP, Start, Size, RIV, Dir, Layers, Mod string
+	Name, SCS, CP, Start, Size, RIV, Dir, Layers, Mod, Cap, DMRS string
 }
 
 // Block is the part of the plan a field belongs to. An optional block (TDD,
@@ -231,6 +232,8 @@ var Fields = func() []Field {
 		{Key: "arfcn", Path: "carrier.arfcn", Label: "NR-ARFCN", Noun: "NR-ARFCN",
 			Allowed: fixed(fmt.Sprintf("a whole number from 0 to %d, or nothing", grid.MaxARFCN)),
 			form:    func(f *Form, _ int) *string { return &f.ARFCN }, plan: func(p *grid.Plan, _ int) any { return &p.Carrier.ARFCN }},
+		{Key: "nta", Path: "carrier.nTaOffset", Label: "n-TimingAdvanceOffset", Noun: "n-TimingAdvanceOffset",
+			form: func(f *Form, _ int) *string { return &f.NTA }, plan: func(p *grid.Plan, _ int) any { return &p.Carrier.NTAOffset }},
 		{Key: "gap", Path: "numerologyGapKHz", Label: "Numerology gap (kHz)", Noun: "Gap between numerologies",
 			Allowed: fixed("a spacing in kHz (0 turns the check off), or nothing for one PRB of the wider spacing"),
 			form:    func(f *Form, _ int) *string { return &f.Gap }, plan: func(p *grid.Plan, _ int) any { return &p.NumerologyGapKHz }},
@@ -275,6 +278,12 @@ var Fields = func() []Field {
 		{Key: "env.fc", Path: "environment.carrierMHz", Block: BlockEnv, Label: "Carrier for Doppler (MHz)", Noun: "Carrier for Doppler",
 			Allowed: fixed("a frequency in MHz, or nothing when the carrier has a centre"),
 			form:    func(f *Form, _ int) *string { return &f.Env.CarrierMHz }, plan: func(p *grid.Plan, _ int) any { return &env(p).CarrierMHz }},
+		{Key: "env.radius", Path: "environment.cellRadiusKm", Block: BlockEnv, Label: "Cell radius (km)", Noun: "Cell radius",
+			Allowed: fixed("a radius in km, such as 2.5, or nothing"),
+			form:    func(f *Form, _ int) *string { return &f.Env.RadiusKm }, plan: func(p *grid.Plan, _ int) any { return &env(p).CellRadiusKm }},
+		{Key: "env.latency", Path: "environment.latencyTargetMs", Block: BlockEnv, Label: "Latency target (ms)", Noun: "Latency target",
+			Allowed: fixed("a one-way latency in ms, such as 1 or 0.5, or nothing"),
+			form:    func(f *Form, _ int) *string { return &f.Env.LatencyMs }, plan: func(p *grid.Plan, _ int) any { return &env(p).LatencyTargetMs }},
 
 		// Partition fields, in the order a partition's keys are written.
 		{Key: "name", Path: "name", Block: BlockPartition, Label: "Name", Noun: "Name",
@@ -299,6 +308,11 @@ var Fields = func() []Field {
 			form:    func(f *Form, i int) *string { return &f.Parts[i].Layers }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].Layers }},
 		{Key: "mod", Path: "modulation", Block: BlockPartition, Label: "Modulation", Noun: "Modulation",
 			form: func(f *Form, i int) *string { return &f.Parts[i].Mod }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].Modulation }},
+		{Key: "cap", Path: "ueCapability", Block: BlockPartition, Label: "UE capability", Noun: "UE capability",
+			Allowed: fixed("1 or 2, or nothing for 1"),
+			form:    func(f *Form, i int) *string { return &f.Parts[i].Cap }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].UECapability }},
+		{Key: "dmrs", Path: "dmrsAdditionalPosition", Block: BlockPartition, Label: "dmrs-AdditionalPosition", Noun: "dmrs-AdditionalPosition",
+			form: func(f *Form, i int) *string { return &f.Parts[i].DMRS }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].DMRSAdditionalPosition }},
 	}...)
 	return fs
 }()
