@@ -30,6 +30,9 @@ type Result struct {
 	// Advice weighs every numerology of the range against the environment,
 	// when the plan describes one (advice.go).
 	Advice *Advice
+	// InitialAccess is CORESET#0, its monitoring occasions, the MIB fields
+	// and the initial BWPs, when the plan asks for them and CORESET#0 fits.
+	InitialAccess *InitialAccess
 }
 
 // HasErrors reports whether any finding is an Error.
@@ -276,6 +279,9 @@ func Compute(plan Plan) Result {
 				fs = append(fs, s.CheckBand(res.Channel.Band)...)
 			}
 		}
+	}
+	if p.InitialAccess != nil {
+		res.InitialAccess = checkInitialAccess(&fs, rng, p.InitialAccess, p.SSB, &res, tdd)
 	}
 	tin := checkTimingKeys(&fs, rng, &p)
 	if p.Environment != nil && wantsFit(p.Environment) {

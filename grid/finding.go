@@ -44,6 +44,7 @@ const (
 	CodeBand           = "band"            // band unknown, channel outside it, or a bandwidth or spacing it does not allow
 	CodeChannelRaster  = "channel-raster"  // centre off the band's channel raster (TS 38.101-1/-2 Table 5.4.2.3-1)
 	CodeTiming         = "timing"          // ueCapability, dmrsAdditionalPosition or carrier.nTaOffset not defined; capability 2 falling back to 1
+	CodeInitialAccess  = "initial-access"  // CORESET#0, Type0-PDCCH occasions or initial BWPs that do not fit (TS 38.213 12, 13)
 )
 
 // Finding is one result of checking a plan. Field is the path of the plan

@@ -21,6 +21,9 @@ type Plan struct {
 	SSB *SSBPlan `json:"ssb,omitempty" yaml:"ssb,omitempty"`
 	// Environment describes the radio channel for the numerology fit; optional.
 	Environment *EnvironmentPlan `json:"environment,omitempty" yaml:"environment,omitempty"`
+	// InitialAccess is pdcch-ConfigSIB1, dmrs-TypeA-Position and the
+	// initial BWPs; optional, and it needs SSB.
+	InitialAccess *InitialAccessPlan `json:"initialAccess,omitempty" yaml:"initialAccess,omitempty"`
 }
 
 // CarrierPlan is the channel and its SCS-specific carriers.
@@ -106,6 +109,7 @@ func (p Plan) Clone() Plan {
 		q.SSB = &s
 	}
 	q.Environment = clonePtr(p.Environment)
+	q.InitialAccess = p.InitialAccess.clone()
 	if p.TDD != nil {
 		t := *p.TDD
 		t.Pattern2 = clonePtr(p.TDD.Pattern2)

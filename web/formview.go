@@ -63,7 +63,8 @@ type formView struct {
 	TDD      section
 	SSB      section
 	Env      section
-	PartsBox group // partitions as a whole
+	Init     section // initial access: CORESET#0, Type0-PDCCH, the initial BWPs
+	PartsBox group   // partitions as a whole
 	Parts    []partView
 	CanAdd   bool
 	Figure   *figureView // the figure's options; nil where the page has its own box
@@ -128,7 +129,7 @@ func buildForm(s planform.State, notes map[string][]note) formView {
 	fv.SCSRows, scsList, fv.SCSOpen = fb.scsRows()
 	fv.Carriers = group{ID: planform.IDCarriers, Notes: fb.take(planform.IDCarriers)}
 	fv.SCSOpen = fv.SCSOpen || hasSerious(fv.Carriers.Notes)
-	fv.TDD, fv.SSB, fv.Env = fb.tddSection(), fb.ssbSection(), fb.envSection()
+	fv.TDD, fv.SSB, fv.Env, fv.Init = fb.tddSection(), fb.ssbSection(), fb.envSection(), fb.initSection()
 	fv.PartsBox = group{ID: planform.IDParts, Notes: fb.take(planform.IDParts)}
 	for i := range fb.f.Parts {
 		fv.Parts = append(fv.Parts, fb.part(i))
@@ -327,6 +328,39 @@ func (fb *formBuilder) envSection() section {
 	}
 	if fit := fb.s.Result.Fit; fit != nil {
 		sec.Summary = fmt.Sprintf("the rules favour %d kHz %s CP", fit.Suggested.SCSKHz, fit.Suggested.CP)
+	}
+	return finishSection(sec)
+}
+
+func (fb *formBuilder) initSection() section {
+	dmrs := []option{{Value: "", Label: "pos2 (default)"}, {Value: "pos2", Label: "pos2"}, {Value: "pos3", Label: "pos3"}}
+	cps := []option{{Value: "", Label: "normal (default)"}, {Value: "normal", Label: "normal"}, {Value: "extended", Label: "extended"}}
+	bwpRow := func(prefix, label string, bwp planform.BWPForm) sectionRow {
+		return sectionRow{Label: label, Controls: []control{
+			fb.text(prefix+".part", "4", "", "or a place"),
+			fb.text(prefix+".start", "2", "numeric", ""),
+			fb.text(prefix+".size", "2", "numeric", ""),
+			fb.text(prefix+".riv", "4", "numeric", ""),
+			fb.text(prefix+".scs", "4", "numeric", "SCS common"),
+			fb.choice(prefix+".cp", "4", pick(cps, bwp.CP, nil)),
+		}}
+	}
+	sec := section{
+		Group: group{ID: planform.IDInit, Notes: fb.take(planform.IDInit)}, Title: "Initial access", ClearOp: "clear.init",
+		Hint: "pdcch-ConfigSIB1 is controlResourceSetZero (the CORESET#0 row, TS 38.213 Tables 13-1 to 13-10) and searchSpaceZero (the Type0-PDCCH row, Tables 13-11 to 13-15). An initial BWP names a partition, or gives a place as a partition does; without one, the downlink BWP is CORESET#0. Leave it empty for no initial access.",
+		Rows: []sectionRow{
+			{Label: "CORESET#0", Controls: []control{
+				fb.text("ia.coreset", "4", "numeric", ""),
+				fb.text("ia.ss0", "4", "numeric", ""),
+				fb.choice("ia.dmrs", "4", pick(dmrs, fb.f.Init.DMRS, nil)),
+			}},
+			bwpRow("ia.dl", "Initial DL BWP", fb.f.Init.DL),
+			bwpRow("ia.ul", "Initial UL BWP", fb.f.Init.UL),
+		},
+	}
+	if ia := fb.s.Result.InitialAccess; ia != nil {
+		c := ia.CORESET0
+		sec.Summary = fmt.Sprintf("CORESET#0 of %d RBs × %d symbols from CRB %d at %d kHz", c.NRB, c.Symbols, c.StartCRB, c.SCSKHz)
 	}
 	return finishSection(sec)
 }

@@ -21,7 +21,7 @@ import (
 // decoder accepted. The seeds are the demo plans, the hostile corpus and
 // the extreme numbers that once made the numerology fit infinite.
 func FuzzPipeline(f *testing.F) {
-	for _, glob := range []string{"../../grid/demo/*.yaml", "../../testdata/hostile/*.json", "../../testdata/hostile/*.yaml"} {
+	for _, glob := range []string{"../../grid/demo/*.yaml", "../../testdata/initial/*.yaml", "../../testdata/stress/fr2-1-initial-access.yaml", "../../testdata/hostile/*.json", "../../testdata/hostile/*.yaml"} {
 		files, err := filepath.Glob(glob)
 		if err != nil {
 			f.Fatal(err)

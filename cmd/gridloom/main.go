@@ -5,9 +5,10 @@
 //	gridloom [serve] [-addr 127.0.0.1:8080] [-plan FILE]       the web app
 //	gridloom render [-format svg|png|json|csv] [-o FILE] PLAN  draw or export a plan
 //	gridloom check [-format text|json] [-strict] PLAN          list the findings
-//	gridloom version                                           the version and the 3GPP release
-//	gridloom ssb [-band nBAND] [-format table|json] PLAN      where the SS/PBCH block fits on the sync raster
+//	gridloom ssb [-band nBAND] [-format table|json] PLAN       where the SS/PBCH block fits on the sync raster
+//	gridloom initial [-band nBAND] [-format table|json] PLAN   the GSCNs and pdcch-ConfigSIB1 values that fit
 //	gridloom timing PLAN                                       the timing tables and the numerology advice
+//	gridloom version                                           the version and the 3GPP release
 //
 // PLAN is a JSON or YAML plan file, or "-" for standard input. Ctrl-C or
 // SIGTERM ends render and check at once and lets the server drain; a
@@ -100,6 +101,8 @@ Usage:
   gridloom check [flags] PLAN       list the plan's findings: -format text or json, -strict
   gridloom ssb [flags] PLAN         list the GSCNs where the SS/PBCH block fits, with
                                     offsetToPointA and k_SSB: -band, -format table or json
+  gridloom initial [flags] PLAN     list the GSCNs, controlResourceSetZero and searchSpaceZero
+                                    that fit CORESET#0: -band, -format table or json
   gridloom timing PLAN              processing times, HARQ, latency, guard range, BWP
                                     switching and the numerology advice, as text tables
   gridloom version                  print the version and the 3GPP release it follows
@@ -133,6 +136,8 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 		return runVersion(args, stdout, stderr)
 	case "ssb":
 		return runSSB(ctx, args, stdin, stdout, stderr)
+	case "initial":
+		return runInitial(ctx, args, stdin, stdout, stderr)
 	case "timing":
 		return runTiming(ctx, args, stdin, stdout, stderr)
 	case "help":
@@ -140,5 +145,5 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 		return nil
 	}
 	fmt.Fprint(stderr, usage)
-	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check, ssb, timing, version or help", cmd)}
+	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check, ssb, initial, timing, version or help", cmd)}
 }

@@ -238,7 +238,7 @@ func TestBrokenPlansExitOne(t *testing.T) {
 }
 
 func TestHelpOnEverySubcommand(t *testing.T) {
-	for _, cmd := range []string{"render", "check", "ssb", "timing"} {
+	for _, cmd := range []string{"render", "check", "ssb", "initial", "timing"} {
 		_, errOut, code := runCLI(t, "", cmd, "-h")
 		if code != 0 || !strings.Contains(errOut, "Usage: gridloom "+cmd) {
 			t.Errorf("%s -h: exit %d, output %q", cmd, code, errOut)

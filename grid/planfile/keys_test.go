@@ -25,6 +25,11 @@ func full() grid.Plan {
 			Pattern2: &grid.TDDPattern{PeriodMs: 1, DownlinkSlots: 1, DownlinkSymbols: 1, UplinkSlots: 1, UplinkSymbols: 1}},
 		SSB:         &grid.SSBPlan{SCSKHz: 30, Case: "C", Bitmap: "1010", OffsetToPointA: 4, KSSB: 2, ScsCommonKHz: 30, PeriodMs: 20, GSCN: i(8016)},
 		Environment: &grid.EnvironmentPlan{DelaySpreadNs: 300, DelayProfile: "nominal", SpeedKmh: 120, CarrierMHz: 3500, CellRadiusKm: 5, LatencyTargetMs: 1},
+		InitialAccess: &grid.InitialAccessPlan{ControlResourceSetZero: 2, SearchSpaceZero: 4, DMRSTypeAPosition: "pos3",
+			InitialDownlinkBWP: &grid.InitialBWPPlan{Partition: "p", StartCRB: i(3), SizePRB: 24, LocationAndBandwidth: i(7),
+				SubcarrierSpacingKHz: 30, CyclicPrefix: "normal"},
+			InitialUplinkBWP: &grid.InitialBWPPlan{Partition: "q", StartCRB: i(4), SizePRB: 25, LocationAndBandwidth: i(8),
+				SubcarrierSpacingKHz: 15, CyclicPrefix: "extended"}},
 	}
 }
 
@@ -84,13 +89,15 @@ func TestKeysFromTags(t *testing.T) {
 		got  []string
 		want string
 	}{
-		{keys.plan, "name spanMs carrier partitions numerologyGapKHz tdd ssb environment"},
+		{keys.plan, "name spanMs carrier partitions numerologyGapKHz tdd ssb environment initialAccess"},
 		{keys.carrier, "range band bandwidthMHz centerMHz arfcn offsetToCarrier carrierBandwidth nTaOffset"},
 		{keys.partition, "name scsKHz cp startCrb sizePrb locationAndBandwidth direction layers modulation ueCapability dmrsAdditionalPosition"},
 		{keys.tdd, "referenceScsKHz pattern1 pattern2"},
 		{keys.tddPattern, "periodMs downlinkSlots downlinkSymbols uplinkSlots uplinkSymbols"},
 		{keys.ssb, "scsKHz case bitmap offsetToPointA kSsb scsCommonKHz periodMs gscn"},
 		{keys.environment, "delaySpreadNs delayProfile speedKmh carrierMHz cellRadiusKm latencyTargetMs"},
+		{keys.initialAccess, "controlResourceSetZero searchSpaceZero dmrsTypeAPosition initialDownlinkBWP initialUplinkBWP"},
+		{keys.initialBWP, "partition startCrb sizePrb locationAndBandwidth subcarrierSpacing cyclicPrefix"},
 	} {
 		if got := strings.Join(c.got, " "); got != c.want {
 			t.Errorf("keys %q, want %q", got, c.want)

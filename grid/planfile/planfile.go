@@ -388,6 +388,7 @@ func FromTree(tree any) (grid.Plan, error) {
 // own the format, and the walk accepts exactly the keys they write.
 var keys = struct {
 	plan, carrier, partition, tdd, tddPattern, ssb, environment []string
+	initialAccess, initialBWP                                   []string
 }{
 	plan:        tagKeys(reflect.TypeFor[grid.Plan]()),
 	carrier:     tagKeys(reflect.TypeFor[grid.CarrierPlan]()),
@@ -396,6 +397,9 @@ var keys = struct {
 	tddPattern:  tagKeys(reflect.TypeFor[grid.TDDPattern]()),
 	ssb:         tagKeys(reflect.TypeFor[grid.SSBPlan]()),
 	environment: tagKeys(reflect.TypeFor[grid.EnvironmentPlan]()),
+
+	initialAccess: tagKeys(reflect.TypeFor[grid.InitialAccessPlan]()),
+	initialBWP:    tagKeys(reflect.TypeFor[grid.InitialBWPPlan]()),
 }
 
 // tagKeys lists the json keys of a struct's fields. A field without a key,
@@ -647,6 +651,9 @@ func (w *walker) plan(v any) grid.Plan {
 	if e := m["environment"]; e != nil {
 		p.Environment = w.environment(e)
 	}
+	if ia := m["initialAccess"]; ia != nil {
+		p.InitialAccess = w.initialAccess(ia)
+	}
 	switch ps := m["partitions"].(type) {
 	case nil:
 	case []any:
@@ -785,6 +792,41 @@ func (w *walker) environment(v any) *grid.EnvironmentPlan {
 		e.LatencyTargetMs, _ = w.float(m["latencyTargetMs"], "environment.latencyTargetMs")
 	}
 	return e
+}
+
+func (w *walker) initialAccess(v any) *grid.InitialAccessPlan {
+	const f = "initialAccess"
+	m := w.object(v, f, keys.initialAccess...)
+	if m == nil {
+		return nil
+	}
+	ia := &grid.InitialAccessPlan{
+		ControlResourceSetZero: w.intOr0(m["controlResourceSetZero"], f+".controlResourceSetZero"),
+		SearchSpaceZero:        w.intOr0(m["searchSpaceZero"], f+".searchSpaceZero"),
+		DMRSTypeAPosition:      w.str(m["dmrsTypeAPosition"], f+".dmrsTypeAPosition"),
+	}
+	if b := m["initialDownlinkBWP"]; b != nil {
+		ia.InitialDownlinkBWP = w.initialBWP(b, f+".initialDownlinkBWP")
+	}
+	if b := m["initialUplinkBWP"]; b != nil {
+		ia.InitialUplinkBWP = w.initialBWP(b, f+".initialUplinkBWP")
+	}
+	return ia
+}
+
+func (w *walker) initialBWP(v any, f string) *grid.InitialBWPPlan {
+	m := w.object(v, f, keys.initialBWP...)
+	if m == nil {
+		return nil
+	}
+	return &grid.InitialBWPPlan{
+		Partition:            w.str(m["partition"], f+".partition"),
+		StartCRB:             w.optInt(m["startCrb"], f+".startCrb"),
+		SizePRB:              w.intOr0(m["sizePrb"], f+".sizePrb"),
+		LocationAndBandwidth: w.optInt(m["locationAndBandwidth"], f+".locationAndBandwidth"),
+		SubcarrierSpacingKHz: w.intOr0(m["subcarrierSpacing"], f+".subcarrierSpacing"),
+		CyclicPrefix:         w.str(m["cyclicPrefix"], f+".cyclicPrefix"),
+	}
 }
 
 func periodList() string {

@@ -29,6 +29,79 @@ type Document struct {
 	// advice, present when the plan describes its environment.
 	Timing *Timing      `json:"timing,omitempty"`
 	Advice *grid.Advice `json:"advice,omitempty"`
+	// InitialAccess is present when the plan has an initialAccess block
+	// whose CORESET#0 could be placed.
+	InitialAccess *InitialAccess `json:"initialAccess,omitempty"`
+}
+
+// InitialAccess is the initial access of a Document: CORESET#0, the
+// Type0-PDCCH occasions, the MIB fields and the initial BWPs. CRBs count in
+// subCarrierSpacingCommon; slots count in CORESET#0's numerology from the
+// start of frame 0, over windowMs.
+type InitialAccess struct {
+	CORESET0           CORESET0     `json:"coreset0"`
+	SearchSpace0       SearchSpace0 `json:"searchSpace0"`
+	MIB                MIB          `json:"mib"`
+	InitialDownlinkBWP InitialBWP   `json:"initialDownlinkBWP"`
+	InitialUplinkBWP   *InitialBWP  `json:"initialUplinkBWP,omitempty"`
+}
+
+// CORESET0 is CORESET#0 as TS 38.213 Tables 13-1 to 13-10 place it.
+type CORESET0 struct {
+	Table    string   `json:"table"`
+	Index    int      `json:"index"`
+	Pattern  int      `json:"pattern"`
+	NRB      int      `json:"nrb"`
+	Symbols  int      `json:"symbols"`
+	OffsetRB int      `json:"offsetRb"`
+	SCSKHz   int      `json:"scsKHz"`
+	StartCRB int      `json:"startCrb"`
+	LowKHz   float64  `json:"lowKHz"`
+	HighKHz  float64  `json:"highKHz"`
+	LowMHz   *float64 `json:"lowMHz,omitempty"`
+	HighMHz  *float64 `json:"highMHz,omitempty"`
+}
+
+// SearchSpace0 is the Type0-PDCCH CSS set: the row read and its
+// monitoring occasions, one per slot.
+type SearchSpace0 struct {
+	Index     int        `json:"index"`
+	Table     string     `json:"table"`
+	WindowMs  int        `json:"windowMs"`
+	Occasions []Occasion `json:"occasions"`
+}
+
+// Occasion is one Type0-PDCCH monitoring occasion of a SearchSpace0.
+type Occasion struct {
+	SSBIndex    int     `json:"ssbIndex"`
+	Slot        int     `json:"slot"`
+	FirstSymbol int     `json:"firstSymbol"`
+	StartTc     grid.Tc `json:"startTc"`
+	EndTc       grid.Tc `json:"endTc"`
+}
+
+// MIB holds the MIB fields a plan implies, by their TS 38.331 names.
+// kSsbMsb is the PBCH payload bit that carries k_SSB's fifth bit in FR1.
+type MIB struct {
+	SubCarrierSpacingCommon string `json:"subCarrierSpacingCommon"`
+	SSBSubcarrierOffset     int    `json:"ssbSubcarrierOffset"`
+	KSSBMsb                 int    `json:"kSsbMsb"`
+	DMRSTypeAPosition       string `json:"dmrsTypeAPosition"`
+	PDCCHConfigSIB1         int    `json:"pdcchConfigSIB1"`
+}
+
+// InitialBWP is an initial BWP of a Document; source says where it came
+// from (coreset0, plan, partition, initialDownlinkBWP).
+type InitialBWP struct {
+	Source               string  `json:"source"`
+	Partition            string  `json:"partition,omitempty"`
+	SCSKHz               int     `json:"scsKHz"`
+	CP                   string  `json:"cp"`
+	StartCRB             int     `json:"startCrb"`
+	SizePRB              int     `json:"sizePrb"`
+	LocationAndBandwidth *int    `json:"locationAndBandwidth"` // null when not expressible
+	LowKHz               float64 `json:"lowKHz"`
+	HighKHz              float64 `json:"highKHz"`
 }
 
 // SSB is the SS/PBCH configuration of a Document. Slot and symbol
@@ -247,6 +320,9 @@ func Build(r grid.Result, symbols bool) Document {
 		out.SSB = js
 	}
 	out.Fit = r.Fit
+	if ia := r.InitialAccess; ia != nil {
+		out.InitialAccess = initialAccess(ia, ch)
+	}
 	if t := r.TDD; t != nil {
 		out.TDD = &TDD{ReferenceSCSKHz: t.Reference.SCSKHz(), PeriodMs: float64(t.Period) / float64(grid.TcPerSubframe), Slots: t.SlotString()}
 	}
@@ -264,6 +340,40 @@ func Write(w io.Writer, r grid.Result, indent bool) error {
 		enc.SetIndent("", "  ")
 	}
 	return enc.Encode(Build(r, true))
+}
+
+func initialAccess(ia *grid.InitialAccess, ch grid.Channel) *InitialAccess {
+	c := ia.CORESET0
+	out := &InitialAccess{
+		CORESET0: CORESET0{Table: c.Table, Index: c.Index, Pattern: c.Pattern, NRB: c.NRB, Symbols: c.Symbols,
+			OffsetRB: c.OffsetRB, SCSKHz: c.SCSKHz, StartCRB: c.StartCRB, LowKHz: c.Low.KHz(), HighKHz: c.High.KHz()},
+		SearchSpace0: SearchSpace0{Index: ia.SearchSpaceZero, Table: ia.OccasionTable, WindowMs: ia.WindowMs,
+			Occasions: make([]Occasion, len(ia.Occasions))},
+		MIB: MIB{SubCarrierSpacingCommon: ia.MIB.SubCarrierSpacingCommon, SSBSubcarrierOffset: ia.MIB.SSBSubcarrierOffset,
+			KSSBMsb: ia.MIB.KSSBMsb, DMRSTypeAPosition: ia.MIB.DMRSTypeAPosition, PDCCHConfigSIB1: ia.MIB.PDCCHConfigSIB1},
+		InitialDownlinkBWP: initialBWP(ia.InitialDL),
+	}
+	if ch.Absolute {
+		out.CORESET0.LowMHz = ptr(ch.Abs(c.Low).MHz())
+		out.CORESET0.HighMHz = ptr(ch.Abs(c.High).MHz())
+	}
+	for i, o := range ia.Occasions {
+		out.SearchSpace0.Occasions[i] = Occasion{SSBIndex: o.SSBIndex, Slot: o.Slot, FirstSymbol: o.FirstSymbol, StartTc: o.Start, EndTc: o.End}
+	}
+	if ul := ia.InitialUL; ul != nil {
+		b := initialBWP(*ul)
+		out.InitialUplinkBWP = &b
+	}
+	return out
+}
+
+func initialBWP(b grid.InitialBWP) InitialBWP {
+	out := InitialBWP{Source: b.Source, Partition: b.Partition, SCSKHz: b.SCSKHz, CP: b.CP, StartCRB: b.StartCRB,
+		SizePRB: b.SizePRB, LowKHz: b.Low.KHz(), HighKHz: b.High.KHz()}
+	if b.LocationAndBandwidth >= 0 {
+		out.LocationAndBandwidth = ptr(b.LocationAndBandwidth)
+	}
+	return out
 }
 
 func ptr[T any](v T) *T { return &v }

@@ -13,8 +13,8 @@ import (
 // Edits change the list of partitions, or empty an optional block. They
 // work on the Form, not the plan, so every other value stays as typed,
 // including ones that do not parse. The op key names one: "add"; "del.I",
-// "dup.I", "up.I" or "down.I" for partition I; "clear.tdd", "clear.ssb" or
-// "clear.env".
+// "dup.I", "up.I" or "down.I" for partition I; "clear.tdd", "clear.ssb",
+// "clear.env" or "clear.init".
 
 // OpError is an edit that cannot be made; its text is a whole sentence for
 // the user, shown beside the partitions.
@@ -49,6 +49,9 @@ func ApplyOp(f Form, op string, res grid.Result) (Form, string, error) {
 		case "env":
 			g.Env = EnvForm{}
 			return g, KeyID("env.profile"), nil
+		case "init":
+			g.Init = InitForm{}
+			return g, KeyID("ia.coreset"), nil
 		}
 	}
 	i, ok := Index(num)

@@ -22,6 +22,9 @@ import (
 //	ssb.scs ssb.case ssb.bitmap ssb.off ssb.k ssb.common ssb.period ssb.gscn
 //	env.ds env.profile env.speed env.fc          radio channel for the numerology fit
 //	env.radius env.latency                       and for the timing advice
+//	ia.coreset ia.ss0 ia.dmrs                    initial access: pdcch-ConfigSIB1, dmrs-TypeA-Position
+//	ia.dl.part ia.dl.start ia.dl.size ia.dl.riv ia.dl.scs ia.dl.cp   initial downlink BWP
+//	ia.ul.*                                      initial uplink BWP, the same keys
 //	pI.name pI.scs pI.cp pI.start pI.size        partition I, from 0
 //	pI.riv pI.dir pI.layers pI.mod pI.cap pI.dmrs
 //
@@ -36,6 +39,7 @@ type Form struct {
 	TDD                                                         TDDForm
 	SSB                                                         SSBForm
 	Env                                                         EnvForm
+	Init                                                        InitForm
 	Parts                                                       []PartForm
 }
 
@@ -55,6 +59,16 @@ type SSBForm struct{ SCS, Case, Bitmap, Off, K, Common, Period, GSCN string }
 // EnvForm is the radio channel of a Form, for the numerology fit.
 type EnvForm struct{ DelayNs, Profile, Speed, CarrierMHz, RadiusKm, LatencyMs string }
 
+// InitForm is the initial access of a Form: pdcch-ConfigSIB1's two rows,
+// dmrs-TypeA-Position, and the initial BWPs.
+type InitForm struct {
+	CORESET, SS0, DMRS string
+	DL, UL             BWPForm
+}
+
+// BWPForm is an initial BWP of a Form: a partition's name, or a place.
+type BWPForm struct{ Part, Start, Size, RIV, SCS, CP string }
+
 // PartForm is one partition of a Form.
 type PartForm struct {
 	Name, SCS, CP, Start, Size, RIV, Dir, Layers, Mod, Cap, DMRS string
@@ -72,7 +86,10 @@ const (
 	BlockPattern2  Block = "tdd.pattern2" // pattern 2, which brings the TDD block with it
 	BlockSSB       Block = "ssb"
 	BlockEnv       Block = "environment"
-	BlockPartition Block = "partitions" // one set per partition, keys after "pI.", paths after "partitions[I]."
+	BlockInit      Block = "initialAccess"
+	BlockInitDL    Block = "initialAccess.initialDownlinkBWP" // brings the initial access with it
+	BlockInitUL    Block = "initialAccess.initialUplinkBWP"   // brings the initial access with it
+	BlockPartition Block = "partitions"                       // one set per partition, keys after "pI.", paths after "partitions[I]."
 )
 
 // Field is one plan field of the form: everything the codec, the messages,
@@ -92,6 +109,10 @@ type Field struct {
 	KeepZero bool
 	// Trim takes white space off a text value on its way to the plan.
 	Trim bool
+	// Anchor writes a zero value into the query when its block is in the
+	// plan but no other field of the block has a value, so that the block
+	// stays in the plan.
+	Anchor bool
 
 	// form is the field's string in a Form (partition i for a partition field).
 	form func(f *Form, i int) *string
@@ -177,6 +198,52 @@ func ssb(p *grid.Plan) *grid.SSBPlan {
 		p.SSB = &grid.SSBPlan{}
 	}
 	return p.SSB
+}
+
+func initial(p *grid.Plan) *grid.InitialAccessPlan {
+	if p.InitialAccess == nil {
+		p.InitialAccess = &grid.InitialAccessPlan{}
+	}
+	return p.InitialAccess
+}
+
+func initialDL(p *grid.Plan) *grid.InitialBWPPlan {
+	ia := initial(p)
+	if ia.InitialDownlinkBWP == nil {
+		ia.InitialDownlinkBWP = &grid.InitialBWPPlan{}
+	}
+	return ia.InitialDownlinkBWP
+}
+
+func initialUL(p *grid.Plan) *grid.InitialBWPPlan {
+	ia := initial(p)
+	if ia.InitialUplinkBWP == nil {
+		ia.InitialUplinkBWP = &grid.InitialBWPPlan{}
+	}
+	return ia.InitialUplinkBWP
+}
+
+// bwpFields are the six fields of an initial BWP: prefix "ia.dl" or
+// "ia.ul", path its plan path.
+func bwpFields(prefix, path string, block Block, form func(*Form) *BWPForm, plan func(*grid.Plan) *grid.InitialBWPPlan) []Field {
+	return []Field{
+		{Key: prefix + ".part", Path: path + ".partition", Block: block, Label: "Partition", Noun: "The BWP's partition",
+			form: func(f *Form, _ int) *string { return &form(f).Part }, plan: func(p *grid.Plan, _ int) any { return &plan(p).Partition }},
+		{Key: prefix + ".start", Path: path + ".startCrb", Block: block, Label: "Start CRB", Noun: "The BWP's start CRB",
+			Allowed: fixed(fmt.Sprintf("a CRB index from 0 to %d, or nothing", grid.MaxStartCRB)),
+			form:    func(f *Form, _ int) *string { return &form(f).Start }, plan: func(p *grid.Plan, _ int) any { return &plan(p).StartCRB }},
+		{Key: prefix + ".size", Path: path + ".sizePrb", Block: block, Label: "Size (PRB)", Noun: "The BWP's size", Anchor: true,
+			Allowed: fixed(fmt.Sprintf("a whole number of PRBs from 1 to %d, or nothing", grid.MaxPRB)),
+			form:    func(f *Form, _ int) *string { return &form(f).Size }, plan: func(p *grid.Plan, _ int) any { return &plan(p).SizePRB }},
+		{Key: prefix + ".riv", Path: path + ".locationAndBandwidth", Block: block, Label: "locationAndBandwidth", Noun: "The BWP's locationAndBandwidth",
+			Allowed: fixed(fmt.Sprintf("a whole number from 0 to %d, or nothing", grid.MaxRIV)),
+			form:    func(f *Form, _ int) *string { return &form(f).RIV }, plan: func(p *grid.Plan, _ int) any { return &plan(p).LocationAndBandwidth }},
+		{Key: prefix + ".scs", Path: path + ".subcarrierSpacing", Block: block, Label: "SCS (kHz)", Noun: "The BWP's subcarrierSpacing",
+			Allowed: func(rng grid.Range) string { return dataSCS(rng) + ", or nothing for subCarrierSpacingCommon" },
+			form:    func(f *Form, _ int) *string { return &form(f).SCS }, plan: func(p *grid.Plan, _ int) any { return &plan(p).SubcarrierSpacingKHz }},
+		{Key: prefix + ".cp", Path: path + ".cyclicPrefix", Block: block, Label: "CP", Noun: "The BWP's cyclic prefix",
+			form: func(f *Form, _ int) *string { return &form(f).CP }, plan: func(p *grid.Plan, _ int) any { return &plan(p).CyclicPrefix }},
+	}
 }
 
 func env(p *grid.Plan) *grid.EnvironmentPlan {
@@ -272,7 +339,7 @@ var Fields = func() []Field {
 			form:    func(f *Form, _ int) *string { return &f.Env.DelayNs }, plan: func(p *grid.Plan, _ int) any { return &env(p).DelaySpreadNs }},
 		{Key: "env.profile", Path: "environment.delayProfile", Block: BlockEnv, Label: "Delay profile", Noun: "Delay profile",
 			form: func(f *Form, _ int) *string { return &f.Env.Profile }, plan: func(p *grid.Plan, _ int) any { return &env(p).DelayProfile }},
-		{Key: "env.speed", Path: "environment.speedKmh", Block: BlockEnv, Label: "Speed (km/h)", Noun: "Speed",
+		{Key: "env.speed", Path: "environment.speedKmh", Block: BlockEnv, Label: "Speed (km/h)", Noun: "Speed", Anchor: true,
 			Allowed: fixed("a speed in km/h from 0 to 1000"),
 			form:    func(f *Form, _ int) *string { return &f.Env.Speed }, plan: func(p *grid.Plan, _ int) any { return &env(p).SpeedKmh }},
 		{Key: "env.fc", Path: "environment.carrierMHz", Block: BlockEnv, Label: "Carrier for Doppler (MHz)", Noun: "Carrier for Doppler",
@@ -284,7 +351,20 @@ var Fields = func() []Field {
 		{Key: "env.latency", Path: "environment.latencyTargetMs", Block: BlockEnv, Label: "Latency target (ms)", Noun: "Latency target",
 			Allowed: fixed("a one-way latency in ms, such as 1 or 0.5, or nothing"),
 			form:    func(f *Form, _ int) *string { return &f.Env.LatencyMs }, plan: func(p *grid.Plan, _ int) any { return &env(p).LatencyTargetMs }},
-
+		{Key: "ia.coreset", Path: "initialAccess.controlResourceSetZero", Block: BlockInit, Label: "controlResourceSetZero", Noun: "controlResourceSetZero", KeepZero: true,
+			Allowed: fixed("a row of the CORESET#0 table from 0 to 15"),
+			form:    func(f *Form, _ int) *string { return &f.Init.CORESET }, plan: func(p *grid.Plan, _ int) any { return &initial(p).ControlResourceSetZero }},
+		{Key: "ia.ss0", Path: "initialAccess.searchSpaceZero", Block: BlockInit, Label: "searchSpaceZero", Noun: "searchSpaceZero", KeepZero: true,
+			Allowed: fixed("a row of the Type0-PDCCH monitoring table from 0 to 15"),
+			form:    func(f *Form, _ int) *string { return &f.Init.SS0 }, plan: func(p *grid.Plan, _ int) any { return &initial(p).SearchSpaceZero }},
+		{Key: "ia.dmrs", Path: "initialAccess.dmrsTypeAPosition", Block: BlockInit, Label: "dmrs-TypeA-Position", Noun: "dmrs-TypeA-Position",
+			form: func(f *Form, _ int) *string { return &f.Init.DMRS }, plan: func(p *grid.Plan, _ int) any { return &initial(p).DMRSTypeAPosition }},
+	}...)
+	fs = append(fs, bwpFields("ia.dl", "initialAccess.initialDownlinkBWP", BlockInitDL,
+		func(f *Form) *BWPForm { return &f.Init.DL }, initialDL)...)
+	fs = append(fs, bwpFields("ia.ul", "initialAccess.initialUplinkBWP", BlockInitUL,
+		func(f *Form) *BWPForm { return &f.Init.UL }, initialUL)...)
+	fs = append(fs, []Field{
 		// Partition fields, in the order a partition's keys are written.
 		{Key: "name", Path: "name", Block: BlockPartition, Label: "Name", Noun: "Name",
 			form: func(f *Form, i int) *string { return &f.Parts[i].Name }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].Name }},

@@ -205,6 +205,9 @@ func (f *Form) givenBlocks() map[Block]bool {
 	if given[BlockPattern2] {
 		given[BlockTDD] = true
 	}
+	if given[BlockInitDL] || given[BlockInitUL] {
+		given[BlockInit] = true
+	}
 	return given
 }
 
@@ -342,6 +345,9 @@ func FormOf(p grid.Plan) Form {
 	present := map[Block]bool{
 		BlockPlan: true, BlockTDD: p.TDD != nil, BlockPattern2: p.TDD != nil && p.TDD.Pattern2 != nil,
 		BlockSSB: p.SSB != nil, BlockEnv: p.Environment != nil,
+		BlockInit:   p.InitialAccess != nil,
+		BlockInitDL: p.InitialAccess != nil && p.InitialAccess.InitialDownlinkBWP != nil,
+		BlockInitUL: p.InitialAccess != nil && p.InitialAccess.InitialUplinkBWP != nil,
 	}
 	for k := range Fields {
 		fl := &Fields[k]
@@ -357,10 +363,13 @@ func FormOf(p grid.Plan) Form {
 			*fl.form(&f, 0) = text(fl, fl.plan(&p, 0))
 		}
 	}
-	if present[BlockEnv] && !f.givenBlocks()[BlockEnv] {
-		// A block of zeros is still in the plan: its speed, written as
-		// 0, keeps it there, as offsetToPointA does for the SS/PBCH block.
-		f.Env.Speed = "0"
+	// A block of zeros is still in the plan: its anchor, written as 0,
+	// keeps it there, as offsetToPointA does for the SS/PBCH block.
+	given := f.givenBlocks()
+	for k := range Fields {
+		if fl := &Fields[k]; fl.Anchor && present[fl.Block] && !given[fl.Block] {
+			*fl.form(&f, 0) = "0"
+		}
 	}
 	for scs, n := range p.Carrier.OffsetToCarrier {
 		f.Offset = setMap(f.Offset, scs, strconv.Itoa(n))

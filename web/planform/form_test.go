@@ -92,6 +92,8 @@ func TestRoundTripPlans(t *testing.T) {
 			Partitions:  []grid.PartitionPlan{{Name: "x", SCSKHz: 120, SizePRB: 66}}},
 		"no partitions":           {Name: "empty"},
 		"an environment of zeros": {Environment: &grid.EnvironmentPlan{}, Partitions: []grid.PartitionPlan{{Name: "a"}}},
+		"initial access, row 0, BWPs of zeros": {InitialAccess: &grid.InitialAccessPlan{InitialDownlinkBWP: &grid.InitialBWPPlan{},
+			InitialUplinkBWP: &grid.InitialBWPPlan{Partition: "a"}}, Partitions: []grid.PartitionPlan{{Name: "a"}}},
 	}
 	for name, p := range cases {
 		t.Run(name, func(t *testing.T) { roundTrip(t, p) })
@@ -313,5 +315,20 @@ func TestControlID(t *testing.T) {
 		if got := ControlID(field); got != want {
 			t.Errorf("ControlID(%q) = %q, want %q", field, got, want)
 		}
+	}
+}
+
+// TestClearInit: clear.init empties the initial access and keeps the rest.
+func TestClearInit(t *testing.T) {
+	st := NewState(formOf(t, "bw=40&ia.coreset=3&ia.dl.part=a&p0.name=a&p0.scs=30"), nil)
+	if st.Plan.InitialAccess == nil || st.Plan.InitialAccess.InitialDownlinkBWP == nil {
+		t.Fatalf("ia.coreset and ia.dl.part give no initial access: %+v", st.Plan.InitialAccess)
+	}
+	g, focus, err := ApplyOp(st.Form, "clear.init", st.Result)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if q := g.Query(); strings.Contains(q, "ia.") || !strings.Contains(q, "p0.name=a") || focus != "f-ia-coreset" {
+		t.Errorf("clear.init: query %s, focus %s; want no ia. keys, the partition kept, focus f-ia-coreset", q, focus)
 	}
 }

@@ -17,6 +17,7 @@ const (
 	IDTDD      = "g-tdd"
 	IDSSB      = "g-ssb"
 	IDEnv      = "g-env"
+	IDInit     = "g-init" // the initial access
 	IDForm     = "gl-form"
 	IDFigure   = "g-fig" // the figure's options
 )
@@ -39,6 +40,7 @@ var groupIDs = map[string]string{
 	"carrier.offsetToCarrier": IDCarriers, "carrier.carrierBandwidth": IDCarriers, "carrier": IDCarriers,
 	"partitions": IDParts, "tdd": IDTDD, "tdd.pattern1": IDTDD, "tdd.pattern2": IDTDD,
 	"ssb": IDSSB, "environment": IDEnv,
+	"initialAccess": IDInit, "initialAccess.initialDownlinkBWP": IDInit, "initialAccess.initialUplinkBWP": IDInit,
 }
 
 // ControlID is the id of the control or group that a plan path concerns,
