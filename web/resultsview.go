@@ -34,7 +34,21 @@ type resultsView struct {
 	SpanMs                  int
 	HasTDD                  bool
 	SSB                     *ssbView
+	Cell                    *cellView
 	Fit                     *fitView
+}
+
+// cellView is the summary's cell and initial-access section (cellview.go
+// builds it).
+type cellView struct {
+	Band     []fact
+	Block    []fact
+	Coreset  []fact
+	MIB      []fact
+	BWPs     []fact
+	Findings []findingView
+	// FindSSB and FindInitial are the finders' pages for this plan.
+	FindSSB, FindInitial string
 }
 
 type ssbView struct {

@@ -25,7 +25,7 @@ func TestWalkthroughCampus(t *testing.T) {
 			t.Errorf("step %s has %d sentences", s.Key, len(s.Narration))
 		}
 	}
-	if got, want := strings.Join(keys, " "), "channel grids part-0 part-1 part-2 align tdd ssb findings"; got != want {
+	if got, want := strings.Join(keys, " "), "channel grids part-0 part-1 part-2 align tdd ssb band initial findings"; got != want {
 		t.Errorf("steps %q, want %q", got, want)
 	}
 	say := func(key string) string {
@@ -45,6 +45,10 @@ func TestWalkthroughCampus(t *testing.T) {
 		"align":  {"7 symbols of 15 kHz", "14 symbols of 30 kHz", "10 times in the 5 ms"},
 		"tdd":    {"DDDSU", "every 5 ms on 15 kHz slots"},
 		"ssb":    {"Case C at 30 kHz has 8 candidate", "4 symbols by 240 subcarriers"},
+		// GSCN 8016: 3000 MHz + (8016 − 7499) × 1.44 MHz = 3744.48 MHz (TS 38.101-1 Table 5.4.3.1-1).
+		"band": {"band n78 (TDD)", "GSCN 8016, SS_REF 3744.48 MHz"},
+		// pdcch-ConfigSIB1 = 2·16 + 0 = 32 = 00100000; Table 13-4 row 2: 24 RBs, 2 symbols (TS 38.213 13).
+		"initial": {"pdcch-ConfigSIB1 00100000 picks row 2 of Table 13-4", "24 RBs of 30 kHz and 2 symbols", "CRBs 26–49", "Row 0 of Table 13-11"},
 	} {
 		got := say(key)
 		for _, w := range want {
