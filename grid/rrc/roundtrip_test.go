@@ -1,0 +1,62 @@
+package rrc_test
+
+import (
+	"bytes"
+	"reflect"
+	"testing"
+
+	"gridloom/grid"
+	"gridloom/grid/demo"
+	"gridloom/grid/planfile"
+	"gridloom/grid/rrc"
+	"gridloom/render"
+)
+
+// figure draws a plan as the CLI does, with the plan file embedded, so
+// that a difference anywhere in the plan shows in the bytes.
+func figure(t testing.TB, p grid.Plan) []byte {
+	t.Helper()
+	plan, err := planfile.EncodeJSON(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var b bytes.Buffer
+	if err := render.Figure(&b, grid.Compute(p), render.Options{Caption: p.Name, Plan: plan}); err != nil {
+		t.Fatal(err)
+	}
+	return b.Bytes()
+}
+
+// roundTrip writes p, reads it back and compares plan and figure.
+func roundTrip(t testing.TB, name string, p grid.Plan) {
+	t.Helper()
+	text, err := rrc.Encode(p)
+	if err != nil {
+		t.Fatalf("%s: Encode: %v", name, err)
+	}
+	d, err := rrc.Decode(text)
+	if err != nil {
+		t.Fatalf("%s: Decode: %v\n%s", name, err, text)
+	}
+	if !reflect.DeepEqual(d.Plan, p) {
+		a, _ := planfile.EncodeJSON(p)
+		b, _ := planfile.EncodeJSON(d.Plan)
+		t.Fatalf("%s: plan → value notation → plan changed the plan:\n%s\n---\n%s\n---\n%s", name, a, b, text)
+	}
+	if len(d.Skipped) != 0 || len(d.Assumed) != 0 {
+		t.Errorf("%s: reading gridloom's own text skipped %v and assumed %v", name, d.Skipped, d.Assumed)
+	}
+	if !bytes.Equal(figure(t, p), figure(t, d.Plan)) {
+		t.Errorf("%s: the figure of the re-read plan differs", name)
+	}
+}
+
+func TestRoundTripDemoPlans(t *testing.T) {
+	plans, err := demo.All()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, dp := range plans {
+		t.Run(dp.Name, func(t *testing.T) { roundTrip(t, dp.Name, dp.Plan) })
+	}
+}
