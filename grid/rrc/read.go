@@ -92,6 +92,11 @@ func Decode(text []byte) (Decoded, error) {
 			return Decoded{}, err
 		}
 	}
+	if v := rd.ssbARFCN; v != nil && p.SSB != nil {
+		if n, ok := ssbARFCN(grid.Compute(p)); ok && int64(n) != v.Int {
+			return Decoded{}, fail(v, "absoluteFrequencySSB", "absoluteFrequencySSB %d does not match the SS/PBCH block that offsetToPointA and ssb-SubcarrierOffset place, whose reference frequency is NR-ARFCN %d.", v.Int, n)
+		}
+	}
 	if applied {
 		if err := agree(q, p); err != nil {
 			return Decoded{}, err
@@ -161,6 +166,7 @@ type reader struct {
 	d        Decoded
 	pointA   *asn1v.Value
 	pointAHz grid.Hz
+	ssbARFCN *asn1v.Value // absoluteFrequencySSB, checked once the plan is whole
 }
 
 func (rd *reader) skip(path string, pos asn1v.Pos) {
@@ -595,11 +601,7 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 			if _, err := integer(ssbARFCNv, "absoluteFrequencySSB", 0, maxARFCN); err != nil {
 				return p, err
 			}
-			if pointA != nil {
-				if n, ok := ssbARFCN(grid.Compute(p)); ok && int64(n) != ssbARFCNv.Int {
-					return p, fail(ssbARFCNv, "absoluteFrequencySSB", "absoluteFrequencySSB %d does not match the SS/PBCH block that offsetToPointA and ssb-SubcarrierOffset place, whose reference frequency is NR-ARFCN %d.", ssbARFCNv.Int, n)
-				}
-			}
+			rd.ssbARFCN = ssbARFCNv
 		}
 	}
 	sort.Strings(rd.d.Skipped)

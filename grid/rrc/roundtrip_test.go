@@ -60,3 +60,9 @@ func TestRoundTripDemoPlans(t *testing.T) {
 		t.Run(dp.Name, func(t *testing.T) { roundTrip(t, dp.Name, dp.Plan) })
 	}
 }
+
+func TestRoundTripOtherBranches(t *testing.T) {
+	for name, p := range extraPlans() {
+		t.Run(name, func(t *testing.T) { roundTrip(t, name, p) })
+	}
+}
