@@ -3,10 +3,11 @@
 // the plan, and draws it.
 //
 //	gridloom [serve] [-addr 127.0.0.1:8080] [-plan FILE]   the web app
-//	gridloom render [-format svg|json|csv] [-o FILE] PLAN  draw or export a plan
+//	gridloom render [-format svg|json|csv|asn1] [-o FILE] PLAN  draw or export a plan
 //	gridloom check PLAN                                    list the findings
 //
-// PLAN is a JSON or YAML plan file, or "-" for standard input.
+// PLAN is a JSON or YAML plan file, TS 38.331 ASN.1 value notation (.asn,
+// .asn1, or recognised by its first line), or "-" for standard input.
 package main
 
 import (
@@ -53,10 +54,11 @@ const usage = `gridloom plans 5G NR carriers split into partitions of different 
 
 Usage:
   gridloom [serve] [flags]          start the web app (default 127.0.0.1:8080)
-  gridloom render [flags] PLAN      draw or export a plan: -format svg, json or csv
+  gridloom render [flags] PLAN      draw or export a plan: -format svg, json, csv or asn1
   gridloom check PLAN               list the plan's findings
 
-PLAN is a JSON or YAML plan file, or - for standard input.
+PLAN is a JSON or YAML plan file, TS 38.331 value notation (.asn, .asn1),
+or - for standard input.
 Run "gridloom COMMAND -h" for the flags of a command.
 `
 

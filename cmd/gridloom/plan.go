@@ -11,6 +11,7 @@ import (
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
+	"gridloom/grid/rrc"
 	"gridloom/render"
 )
 
@@ -41,8 +42,9 @@ func parseFlags(fs *flag.FlagSet, args []string) error {
 	return nil
 }
 
-// readPlan reads and decodes the plan named by path, "-" for stdin.
-func readPlan(path string, stdin io.Reader) (grid.Plan, error) {
+// readPlan reads and decodes the plan named by path, "-" for stdin, and
+// writes the decoder's notes (what value notation skipped) to notes.
+func readPlan(path string, stdin io.Reader, notes io.Writer) (grid.Plan, error) {
 	var data []byte
 	var err error
 	if path == "-" {
@@ -54,13 +56,19 @@ func readPlan(path string, stdin io.Reader) (grid.Plan, error) {
 		return grid.Plan{}, &exitError{code: exitBadInput, msg: err.Error()}
 	}
 	var p grid.Plan
+	var said []string
 	switch strings.ToLower(filepath.Ext(path)) {
 	case ".json":
 		p, err = planfile.DecodeJSON(data)
 	case ".yaml", ".yml":
 		p, err = planfile.DecodeYAML(data)
+	case ".asn", ".asn1":
+		p, said, err = planfile.DecodeValueNotation(data)
 	default:
-		p, err = planfile.Decode(data)
+		p, said, err = planfile.DecodeNotes(data)
+	}
+	for _, n := range said {
+		fmt.Fprintf(notes, "%s: note: %s\n", displayName(path), n)
 	}
 	if err != nil {
 		return grid.Plan{}, &exitError{code: exitBadInput, msg: fmt.Sprintf("%s: %v", displayName(path), err)}
@@ -101,7 +109,7 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(path, stdin)
+	p, err := readPlan(path, stdin, stdout)
 	if err != nil {
 		return err
 	}
@@ -125,8 +133,8 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 }
 
 func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
-	fs := newFlags("render", "[-format svg|png|json|csv] [-o FILE] [figure flags] PLAN", stderr)
-	format := fs.String("format", "svg", "output `format`: svg or png (the figure), json (lattice, summary and findings) or csv (one row per symbol)")
+	fs := newFlags("render", "[-format svg|png|json|csv|asn1] [-o FILE] [figure flags] PLAN", stderr)
+	format := fs.String("format", "svg", "output `format`: svg or png (the figure), json (lattice, summary and findings), csv (one row per symbol) or asn1 (TS 38.331 value notation)")
 	out := fs.String("o", "-", "write to `FILE` instead of standard output")
 	width := fs.Int("width", 0, fmt.Sprintf("figure width in px, %d to %d (0 for %d)", render.MinWidth, render.MaxWidth, render.DefaultWidth))
 	theme := fs.String("theme", "light", "figure `theme`: light, or print (greyscale-safe)")
@@ -136,9 +144,9 @@ func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 		return err
 	}
 	switch *format {
-	case "svg", "png", "json", "csv":
+	case "svg", "png", "json", "csv", "asn1":
 	default:
-		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use svg, png, json or csv", *format)}
+		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use svg, png, json, csv or asn1", *format)}
 	}
 	opt := render.Options{Width: *width}
 	var err error
@@ -152,9 +160,17 @@ func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(path, stdin)
+	p, err := readPlan(path, stdin, stderr)
 	if err != nil {
 		return err
+	}
+	var asn1 []byte
+	if *format == "asn1" {
+		// An export is for a checked plan: Encode refuses one with errors,
+		// before an output file is created.
+		if asn1, err = rrc.Encode(p); err != nil {
+			return &exitError{code: exitPlanErrors, msg: err.Error()}
+		}
 	}
 	res := grid.Compute(p)
 	switch c := strings.TrimSpace(*caption); c {
@@ -186,6 +202,8 @@ func runRender(args []string, stdin io.Reader, stdout, stderr io.Writer) error {
 		err = render.SymbolCSV(w, res)
 	case "json":
 		err = writeJSON(w, res)
+	case "asn1":
+		_, err = w.Write(asn1)
 	}
 	if file != nil {
 		if cerr := file.Close(); err == nil {

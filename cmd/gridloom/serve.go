@@ -80,7 +80,7 @@ func runServe(ctx context.Context, args []string, stdout, stderr io.Writer) erro
 		if *planPath == "-" {
 			return &exitError{code: exitBadInput, msg: "-plan needs a file: the web app cannot read its plan from standard input"}
 		}
-		if start, err = readPlan(*planPath, nil); err != nil {
+		if start, err = readPlan(*planPath, nil, stderr); err != nil {
 			return err
 		}
 	}

@@ -223,3 +223,19 @@ func FuzzParse(f *testing.F) {
 		}
 	})
 }
+
+func TestStartsWithAssignment(t *testing.T) {
+	for text, want := range map[string]bool{
+		"-- {a}\n/* b */ mib MIB ::= {": true,
+		"mib MIB ::=":                   true,
+		"name: campus\n":                false,
+		"# comment\nname: x":            false,
+		"--- \nname: x":                 false,
+		"{ \"name\": 1 }":               false,
+		"mib MIB = {}":                  false,
+	} {
+		if got := StartsWithAssignment([]byte(text)); got != want {
+			t.Errorf("StartsWithAssignment(%q) = %v, want %v", text, got, want)
+		}
+	}
+}

@@ -521,3 +521,20 @@ func (p *parser) cstring(start Pos) error {
 	p.tok = token{kind: tCString, text: b.String(), pos: start}
 	return nil
 }
+
+// StartsWithAssignment reports whether text opens, after white space and
+// comments, with "name Type ::=": a cheap test for value notation that
+// reads only the first three tokens.
+func StartsWithAssignment(text []byte) bool {
+	if len(text) > MaxSize {
+		text = text[:MaxSize]
+	}
+	var sink []Comment
+	p := &parser{src: strings.TrimPrefix(string(text), "\ufeff"), line: 1, col: 1, notes: &sink}
+	for _, want := range []tokKind{tIdent, tIdent, tAssign} {
+		if err := p.next(); err != nil || p.tok.kind != want {
+			return false
+		}
+	}
+	return true
+}

@@ -50,18 +50,7 @@ func (d Decoded) Notes() []string {
 
 // Looks reports whether data starts like value notation: after comments,
 // a value assignment "name Type ::=". Plan files in JSON or YAML never do.
-func Looks(data []byte) bool {
-	if len(data) > 4096 {
-		data = data[:4096]
-	}
-	// Cut at the first '{' so that an unfinished value still sniffs.
-	s := string(data)
-	if i := strings.IndexByte(s, '{'); i >= 0 {
-		s = s[:i] + "{}"
-	}
-	doc, err := asn1v.Parse([]byte(s))
-	return err == nil && len(doc.Assignments) > 0 && doc.Assignments[0].Name != ""
-}
+func Looks(data []byte) bool { return asn1v.StartsWithAssignment(data) }
 
 // Decode reads value notation into a plan: the IEs Encode writes, in any
 // order and field order, with comments, as Encode writes them or as a log
@@ -496,6 +485,50 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 	if a, ok := single[typeTDD]; ok {
 		if err := takeTDD(a.Value, typeTDD); err != nil {
 			return p, err
+		}
+	}
+
+	// Every value read is checked against its ASN.1 range before the plan
+	// is judged as a whole.
+	if kSSB != nil {
+		if _, err := integer(kSSB, "ssb-SubcarrierOffset", 0, 15); err != nil {
+			return p, err
+		}
+	}
+	if offsetToPointA != nil {
+		if _, err := integer(offsetToPointA, "offsetToPointA", 0, maxOffset); err != nil {
+			return p, err
+		}
+	}
+	if ssbSCS != nil {
+		if _, err := scsField(ssbSCS, "ssbSubcarrierSpacing"); err != nil {
+			return p, err
+		}
+	}
+	if common != nil {
+		if name, err := ident(common, "subCarrierSpacingCommon", "scs15or60, scs30or120"); err != nil {
+			return p, err
+		} else if name != "scs15or60" && name != "scs30or120" {
+			return p, fail(common, "subCarrierSpacingCommon", "subCarrierSpacingCommon %s is not a value; use scs15or60 or scs30or120.", name)
+		}
+	}
+	if period != nil {
+		name, err := ident(period, "ssb-PeriodicityServingCell", ssbPeriodList())
+		if err != nil {
+			return p, err
+		}
+		if _, ok := ssbPeriodMs(name); !ok {
+			return p, fail(period, "ssb-PeriodicityServingCell", "ssb-PeriodicityServingCell %s is not a value; use %s.", name, ssbPeriodList())
+		}
+	}
+	for _, v := range []struct {
+		v    *asn1v.Value
+		name string
+	}{{pointA, "absoluteFrequencyPointA"}, {ssbARFCNv, "absoluteFrequencySSB"}} {
+		if v.v != nil {
+			if _, err := integer(v.v, v.name, 0, maxARFCN); err != nil {
+				return p, err
+			}
 		}
 	}
 
