@@ -91,7 +91,7 @@ func TestDecodeRefuses(t *testing.T) {
 `
 	cases := []struct {
 		name, text, want string
-		line, col      int
+		line, col        int
 	}{
 		{"syntax", base + "t TDD-UL-DL-ConfigCommon ::= { referenceSubcarrierSpacing kHz30 pattern1 {} }", "expected ',' or '}'", 2, 65},
 		{"symbols out of range", base + "t TDD-UL-DL-ConfigCommon ::= { referenceSubcarrierSpacing kHz30,\n pattern1 { dl-UL-TransmissionPeriodicity ms5, nrofDownlinkSlots 7, nrofDownlinkSymbols 14, nrofUplinkSlots 2, nrofUplinkSymbols 4 } }",
