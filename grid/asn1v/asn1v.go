@@ -192,3 +192,26 @@ func (v *Value) Note(lines ...string) *Value {
 	}
 	return v
 }
+
+// Equal reports whether two values are the same, ignoring positions and
+// comments: the same kind, names, fields in the same order and contents.
+func Equal(a, b *Value) bool {
+	if a == nil || b == nil {
+		return a == b
+	}
+	if a.Kind != b.Kind || a.Name != b.Name || a.Int != b.Int || a.Bool != b.Bool || a.Text != b.Text ||
+		len(a.Fields) != len(b.Fields) || len(a.Elems) != len(b.Elems) {
+		return false
+	}
+	for i := range a.Fields {
+		if a.Fields[i].Name != b.Fields[i].Name || !Equal(a.Fields[i].Value, b.Fields[i].Value) {
+			return false
+		}
+	}
+	for i := range a.Elems {
+		if !Equal(a.Elems[i], b.Elems[i]) {
+			return false
+		}
+	}
+	return true
+}

@@ -47,6 +47,12 @@ func TestDecodeValueNotation(t *testing.T) {
 	if err == nil || !strings.Contains(err.Error(), "line 2, column 24") {
 		t.Errorf("an out-of-range value: %v, want its line and column", err)
 	}
+	// A value standing alone starts with '{' like JSON; it opens all the same.
+	bare := "{ servingCellConfigCommon { downlinkConfigCommon { frequencyInfoDL { scs-SpecificCarrierList {\n" +
+		"  { offsetToCarrier 0, subcarrierSpacing kHz30, carrierBandwidth 106 } } } } } }"
+	if q, err := Decode([]byte(bare)); err != nil || q.Carrier.BandwidthMHz != 40 {
+		t.Errorf("a bare SIB1 value: %+v, %v; want a 40 MHz carrier", q.Carrier, err)
+	}
 	if f := Sniff([]byte("name: x\n")); f != YAML {
 		t.Errorf("Sniff(YAML) = %v", f)
 	}

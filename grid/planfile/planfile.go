@@ -101,6 +101,12 @@ func DecodeNotes(data []byte) (grid.Plan, []string, error) {
 	switch Sniff(data) {
 	case JSON:
 		p, err := DecodeJSON(data)
+		if err != nil {
+			// A value of value notation standing alone opens with '{' too.
+			if q, notes, verr := DecodeValueNotation(data); verr == nil {
+				return q, notes, nil
+			}
+		}
 		return p, nil, err
 	case ValueNotation:
 		return DecodeValueNotation(data)

@@ -156,6 +156,7 @@ type reader struct {
 	pointA   *asn1v.Value
 	pointAHz grid.Hz
 	ssbARFCN *asn1v.Value // absoluteFrequencySSB, checked once the plan is whole
+	bwpIDs   map[string]string
 }
 
 func (rd *reader) skip(path string, pos asn1v.Pos) {
@@ -311,7 +312,7 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 		if v == nil {
 			return nil
 		}
-		if tdd != nil && string(asn1v.FormatValue(tdd)) != string(asn1v.FormatValue(v)) {
+		if tdd != nil && !asn1v.Equal(tdd, v) {
 			return fail(v, path, "%s differs from %s at %s; give one TDD pattern.", path, tddPath, tdd.Pos)
 		}
 		tdd, tddPath = v, path
@@ -763,6 +764,14 @@ func (rd *reader) bwp(a asn1v.Assignment, carriers map[int]carrier, before []gri
 	if err != nil {
 		return grid.PartitionPlan{}, err
 	}
+	key := fmt.Sprintf("%s %d", dir, id)
+	if first, dup := rd.bwpIDs[key]; dup {
+		return grid.PartitionPlan{}, fail(m["bwp-Id"], a.Type+".bwp-Id", "bwp-Id %d of %s is also the bwp-Id of %s; each %s bandwidth part needs its own.", id, a.Name, first, dir)
+	}
+	if rd.bwpIDs == nil {
+		rd.bwpIDs = map[string]string{}
+	}
+	rd.bwpIDs[key] = a.Name
 	name := a.Name
 	if name == "" {
 		name = fmt.Sprintf("%s bwp-Id %d", dir, id)

@@ -100,6 +100,8 @@ func TestDecodeRefuses(t *testing.T) {
 		{"period", "s ServingCellConfigCommonSIB ::= { ssb-PeriodicityServingCell ms7 }\n" + base, "ms7 is not a value; use ms5, ms10, ms20, ms40, ms80, ms160", 1, 63},
 		{"carrier size", "f FrequencyInfoDL ::= { scs-SpecificCarrierList { { offsetToCarrier 0, subcarrierSpacing kHz30, carrierBandwidth 276 } } }", "carrierBandwidth is 276", 1, 114},
 		{"bwp-Id", base + "b BWP-Uplink ::= { bwp-Id 5, bwp-Common { genericParameters { locationAndBandwidth 0, subcarrierSpacing kHz30 } } }", "BWP-Uplink.bwp-Id is 5", 2, 27},
+		{"bwp-Id twice", base + "a BWP-Uplink ::= { bwp-Id 1, bwp-Common { genericParameters { locationAndBandwidth 0, subcarrierSpacing kHz30 } } }\nb BWP-Uplink ::= { bwp-Id 1, bwp-Common { genericParameters { locationAndBandwidth 30, subcarrierSpacing kHz30 } } }", "bwp-Id 1 of b is also the bwp-Id of a", 3, 27},
+		{"TDD copies differ", base + "t TDD-UL-DL-ConfigCommon ::= { referenceSubcarrierSpacing kHz30, pattern1 { dl-UL-TransmissionPeriodicity ms5, nrofDownlinkSlots 7, nrofDownlinkSymbols 6, nrofUplinkSlots 2, nrofUplinkSymbols 4 } }\ns ServingCellConfigCommonSIB ::= { tdd-UL-DL-ConfigurationCommon { referenceSubcarrierSpacing kHz15, pattern1 {} } }", "differs from", 2, 30},
 		{"no carriers", "m MIB ::= { ssb-SubcarrierOffset 3 }", "no scs-SpecificCarrierList", 0, 0},
 		{"misplaced note", base + "b BWP-Uplink ::= { bwp-Id 1, bwp-Common { genericParameters {\n -- gridloom name: \"x\"\n locationAndBandwidth 0, subcarrierSpacing kHz30 } } }", "A gridloom note stands at the top", 3, 2},
 		{"unknown note", "-- gridloom colour: \"red\"\n" + base, `"colour" is not a gridloom note key`, 1, 1},

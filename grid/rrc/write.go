@@ -83,11 +83,7 @@ func build(r grid.Result) (*asn1v.Document, error) {
 		if ssbBits == "" {
 			ssbBits = strings.Repeat("1", r.SSB.Candidates)
 		}
-		mib, err := mibValue(r)
-		if err != nil {
-			return nil, err
-		}
-		add("mib", typeMIB, mib)
+		add("mib", typeMIB, mibValue(r))
 	}
 
 	// ServingCellConfigCommonSIB (TS 38.331 6.3.2), as in SIB1.
@@ -210,7 +206,7 @@ func ssbOffset(r grid.Result) *asn1v.Value {
 
 // mibValue writes the MIB fields a plan sets: ssb-SubcarrierOffset and,
 // in FR2-1, subCarrierSpacingCommon.
-func mibValue(r grid.Result) (*asn1v.Value, error) {
+func mibValue(r grid.Result) *asn1v.Value {
 	s := r.Plan.SSB
 	var common *asn1v.Value
 	v := asn1v.Seq()
@@ -240,7 +236,7 @@ func mibValue(r grid.Result) (*asn1v.Value, error) {
 		v.Fields = append(v.Fields, asn1v.F("subCarrierSpacingCommon", common))
 	}
 	v.Fields = append(v.Fields, asn1v.F("ssb-SubcarrierOffset", asn1v.Int(s.KSSB&15)))
-	return v, nil
+	return v
 }
 
 // sibBitmap splits an SS/PBCH bitmap into ServingCellConfigCommonSIB's
