@@ -5,6 +5,7 @@ import (
 	"strconv"
 	"strings"
 
+	"gridloom/grid"
 	"gridloom/grid/coreset0"
 )
 
@@ -84,7 +85,8 @@ func (m MIBBits) String() string {
 			if f.Len > 1 {
 				pos += fmt.Sprintf("-%d", f.First+f.Len-1)
 			}
-			fmt.Fprintf(&b, "  %-7s %-32s %-9s %s\n", pos, f.Name, f.Bits, f.Value)
+			line := fmt.Sprintf("  %-7s %-40s %-9s %s", pos, f.Name, f.Bits, f.Value)
+			b.WriteString(strings.TrimRight(line, " ") + "\n")
 		}
 	}
 	write(m.Message, "")
@@ -211,4 +213,33 @@ func EncodeMIB(m MIB, t PBCHTiming) (MIBBits, error) {
 		payload[i].First = i
 	}
 	return MIBBits{Message: fields, Payload: payload}, nil
+}
+
+// MIBForPlan starts a MIB from what a computed plan sets — k_SSB and, in
+// FR2-1, subCarrierSpacingCommon from ssb.scsCommonKHz — and returns the
+// PBCH timing of its blocks (frequency range and L_max) for block 0. The
+// rest of the MIB (SFN, pdcch-ConfigSIB1, dmrs-TypeA-Position, cellBarred,
+// intraFreqReselection, and subCarrierSpacingCommon in FR1) is the
+// caller's to choose: the plan does not hold it.
+func MIBForPlan(r grid.Result) (MIB, PBCHTiming, error) {
+	if r.SSB == nil || r.Plan.SSB == nil {
+		return MIB{}, PBCHTiming{}, fmt.Errorf("The plan places no SS/PBCH blocks, so it has no MIB; give ssb.")
+	}
+	m := MIB{KSSB: r.Plan.SSB.KSSB}
+	t := PBCHTiming{FR: coreset0.FR1, LMax: r.SSB.Candidates}
+	if r.Channel.Range.FR2() {
+		t.FR = coreset0.FR2
+	}
+	if r.Channel.Range == grid.FR2_1 {
+		kHz := r.Plan.SSB.ScsCommonKHz
+		if kHz == 0 {
+			kHz = 120
+		}
+		s, err := coreset0.SubCarrierSpacingCommonFor(coreset0.FR2, kHz)
+		if err != nil {
+			return MIB{}, PBCHTiming{}, err
+		}
+		m.SubCarrierSpacingCommon = s
+	}
+	return m, t, nil
 }

@@ -102,7 +102,7 @@ func TestEncodeMIBFR2(t *testing.T) {
 	if payload.String() != "01000100" {
 		t.Errorf("PBCH payload bits %s, want 01000100", payload.String())
 	}
-	if !strings.Contains(got.String(), "13-16   pdcch-ConfigSIB1.controlResourceSetZero") {
+	if !strings.Contains(got.String(), "13-16   pdcch-ConfigSIB1.controlResourceSetZero  1100") {
 		t.Errorf("the layout does not label bits 13-16:\n%s", got)
 	}
 }

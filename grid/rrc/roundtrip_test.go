@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"gridloom/grid"
+	"gridloom/grid/coreset0"
 	"gridloom/grid/demo"
 	"gridloom/grid/planfile"
 	"gridloom/grid/rrc"
@@ -64,5 +65,37 @@ func TestRoundTripDemoPlans(t *testing.T) {
 func TestRoundTripOtherBranches(t *testing.T) {
 	for name, p := range extraPlans() {
 		t.Run(name, func(t *testing.T) { roundTrip(t, name, p) })
+	}
+}
+
+// MIBForPlan takes k_SSB, subCarrierSpacingCommon and L_max from the plan:
+// campus is FR1 at 3750 MHz with 30 kHz case C blocks in unpaired spectrum,
+// so L_max = 8 (TS 38.213 4.1, above 1.88 GHz); stadium is FR2-1 with
+// 120 kHz case D blocks, L_max = 64, and the default common spacing of
+// 120 kHz, scs30or120.
+func TestMIBForPlan(t *testing.T) {
+	for name, want := range map[string]struct {
+		lmax   int
+		fr     coreset0.FR
+		common coreset0.SubCarrierSpacingCommon
+	}{"campus": {8, coreset0.FR1, coreset0.SCS15or60}, "stadium": {64, coreset0.FR2, coreset0.SCS30or120}} {
+		p, err := demo.Load(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		m, timing, err := rrc.MIBForPlan(grid.Compute(p))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if timing.LMax != want.lmax || timing.FR != want.fr || m.SubCarrierSpacingCommon != want.common || m.KSSB != p.SSB.KSSB {
+			t.Errorf("%s: %+v %+v, want L_max %d, %v, %v", name, m, timing, want.lmax, want.fr, want.common)
+		}
+		if _, err := rrc.EncodeMIB(m, timing); err != nil {
+			t.Errorf("%s: %v", name, err)
+		}
+	}
+	port, _ := demo.Load("port")
+	if _, _, err := rrc.MIBForPlan(grid.Compute(port)); err == nil {
+		t.Error("a plan without SS/PBCH blocks gave a MIB")
 	}
 }
