@@ -81,8 +81,14 @@ func Decode(text []byte) (Decoded, error) {
 			return Decoded{}, err
 		}
 	}
+	res := grid.Compute(p)
+	if v := rd.pointA; v != nil && res.Channel.Absolute {
+		if n, ok := res.Channel.PointAARFCN, res.Channel.PointAOnRaster; !ok || int64(n) != v.Int {
+			return Decoded{}, fail(v, "absoluteFrequencyPointA", "absoluteFrequencyPointA %d does not match the carrier the gridloom notes give (carrier.centerMHz or carrier.arfcn), whose point A is at %s MHz; correct the field or delete the note.", v.Int, fmtMHz(res.Channel.PointAHz))
+		}
+	}
 	if v := rd.ssbARFCN; v != nil && p.SSB != nil {
-		if n, ok := ssbARFCN(grid.Compute(p)); ok && int64(n) != v.Int {
+		if n, ok := ssbARFCN(res); ok && int64(n) != v.Int {
 			return Decoded{}, fail(v, "absoluteFrequencySSB", "absoluteFrequencySSB %d does not match the SS/PBCH block that offsetToPointA and ssb-SubcarrierOffset place, whose reference frequency is NR-ARFCN %d.", v.Int, n)
 		}
 	}
@@ -94,6 +100,8 @@ func Decode(text []byte) (Decoded, error) {
 	d.Plan = p
 	return d, nil
 }
+
+func fmtMHz(f grid.Hz) string { return fmt.Sprintf("%.6f", f.MHz()) }
 
 // agree checks that the notes do not contradict the RRC fields: the plan
 // they make, written again, must give the fields as read. A plan with

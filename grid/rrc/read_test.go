@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"gridloom/grid"
+	"gridloom/grid/demo"
 	"gridloom/grid/rrc"
 )
 
@@ -149,5 +150,28 @@ func TestNotesContradictingFields(t *testing.T) {
 	d, err := rrc.Decode([]byte(strings.ReplaceAll(edited, "-- gridloom carrier.offsetToCarrier: null\n", "")))
 	if err != nil || d.Plan.Carrier.OffsetToCarrier[30] != 2 {
 		t.Errorf("Decode without the note = %+v, %v; want offsetToCarrier 2", d.Plan.Carrier, err)
+	}
+}
+
+// absoluteFrequencyPointA edited against a carrier.arfcn note is refused.
+func TestPointAAgainstNote(t *testing.T) {
+	// port: NR-ARFCN 660000 = 3000 MHz + 15 kHz·60000 = 3900 MHz; 273 RBs of
+	// 30 kHz from offset 0 centred on it put point A 273·12·30 kHz / 2 =
+	// 49.14 MHz lower, at 3850.86 MHz = NR-ARFCN 600000 + 850.86 MHz / 15 kHz
+	// = 656724.
+	p, err := demo.Load("port")
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, err := rrc.Encode(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	edited := strings.Replace(string(text), "absoluteFrequencyPointA 656724", "absoluteFrequencyPointA 656730", 1)
+	if edited == string(text) {
+		t.Fatalf("absoluteFrequencyPointA 656724 not in\n%s", text)
+	}
+	if _, err := rrc.Decode([]byte(edited)); err == nil || !strings.Contains(err.Error(), "absoluteFrequencyPointA 656730 does not match") {
+		t.Errorf("Decode = %v, want a refusal of absoluteFrequencyPointA", err)
 	}
 }
