@@ -8,7 +8,10 @@ import (
 )
 
 // A MIB worked by hand from TS 38.331 6.2.2 (field order and sizes) and the
-// unaligned PER of X.691, with every bit position written out.
+// unaligned PER of X.691, with every bit position written out. The same bit
+// positions (0 message, 1-6 systemFrameNumber … 23 spare, then ā(A) …
+// ā(A+7)) appear in an independent published layout of the PBCH payload
+// (liuyonggang1.github.io/resgrid/nr/pbch_payload).
 //
 //	SFN 612 = 10 0110 0100 (binary, 10 bits)
 //	bit  0      message CHOICE index: mib is alternative 0 of 2  → 0
