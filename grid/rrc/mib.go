@@ -216,26 +216,24 @@ func EncodeMIB(m MIB, t PBCHTiming) (MIBBits, error) {
 }
 
 // MIBForPlan starts a MIB from what a computed plan sets — k_SSB and, in
-// FR2-1, subCarrierSpacingCommon from ssb.scsCommonKHz — and returns the
-// PBCH timing of its blocks (frequency range and L_max) for block 0. The
-// rest of the MIB (SFN, pdcch-ConfigSIB1, dmrs-TypeA-Position, cellBarred,
-// intraFreqReselection, and subCarrierSpacingCommon in FR1) is the
+// FR1 and FR2-1, subCarrierSpacingCommon from ssb.scsCommonKHz — and returns the
+// PBCH timing of its blocks (frequency range and L_max) for block 0, with
+// k_SSB and subCarrierSpacingCommon as Compute resolved them (a block
+// placed by ssb.gscn, the default common spacing). The rest of the MIB
+// (SFN, pdcch-ConfigSIB1, dmrs-TypeA-Position, cellBarred,
+// intraFreqReselection, and subCarrierSpacingCommon in FR2-2) is the
 // caller's to choose: the plan does not hold it.
 func MIBForPlan(r grid.Result) (MIB, PBCHTiming, error) {
-	if r.SSB == nil || r.Plan.SSB == nil {
+	if r.SSB == nil {
 		return MIB{}, PBCHTiming{}, fmt.Errorf("The plan places no SS/PBCH blocks, so it has no MIB; give ssb.")
 	}
-	m := MIB{KSSB: r.Plan.SSB.KSSB}
+	m := MIB{KSSB: r.SSB.KSSB}
 	t := PBCHTiming{FR: coreset0.FR1, LMax: r.SSB.Candidates}
 	if r.Channel.Range.FR2() {
 		t.FR = coreset0.FR2
 	}
-	if r.Channel.Range == grid.FR2_1 {
-		kHz := r.Plan.SSB.ScsCommonKHz
-		if kHz == 0 {
-			kHz = 120
-		}
-		s, err := coreset0.SubCarrierSpacingCommonFor(coreset0.FR2, kHz)
+	if r.Channel.Range != grid.FR2_2 {
+		s, err := coreset0.SubCarrierSpacingCommonFor(t.FR, r.SSB.ScsCommonKHz)
 		if err != nil {
 			return MIB{}, PBCHTiming{}, err
 		}

@@ -113,6 +113,8 @@ const (
 	maxSymbol    = 13      // nrofDownlinkSymbols, nrofUplinkSymbols: 0..maxNrofSymbols-1
 	maxOffset    = 2199    // offsetToPointA, offsetToCarrier
 	maxCarrierBW = 275     // carrierBandwidth 1..maxNrofPhysicalResourceBlocks
+	maxBand      = 1024    // FreqBandIndicatorNR ::= INTEGER (1..1024)
+	maxBands     = 8       // frequencyBandList: SIZE (1..maxNrofMultiBands), maxNrofMultiBands = 8
 )
 
 func rangeMsg(name string, lo, hi int) string {

@@ -37,6 +37,7 @@ var planKeys = []planKey{
 	{"numerologyGapKHz", false, func(p *grid.Plan) any { return &p.NumerologyGapKHz }},
 	{"environment", false, func(p *grid.Plan) any { return &p.Environment }},
 	{"carrier.range", true, func(p *grid.Plan) any { return &p.Carrier.Range }},
+	{"carrier.band", false, func(p *grid.Plan) any { return &p.Carrier.Band }},
 	{"carrier.bandwidthMHz", true, func(p *grid.Plan) any { return &p.Carrier.BandwidthMHz }},
 	{"carrier.centerMHz", false, func(p *grid.Plan) any { return &p.Carrier.CenterMHz }},
 	{"carrier.arfcn", false, func(p *grid.Plan) any { return &p.Carrier.ARFCN }},
@@ -50,6 +51,9 @@ var planKeys = []planKey{
 	{"ssb.kSsb", false, ssbField(func(s *grid.SSBPlan) any { return &s.KSSB })},
 	{"ssb.scsCommonKHz", false, ssbField(func(s *grid.SSBPlan) any { return &s.ScsCommonKHz })},
 	{"ssb.periodMs", false, ssbField(func(s *grid.SSBPlan) any { return &s.PeriodMs })},
+	// A block placed by GSCN is written with the offsetToPointA and k_SSB
+	// Compute derives; the notes give back the GSCN and the zero fields.
+	{"ssb.gscn", false, ssbField(func(s *grid.SSBPlan) any { return &s.GSCN })},
 }
 
 type partitionKey struct {

@@ -326,6 +326,22 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 		tdd, tddPath = v, path
 		return nil
 	}
+	var bandAt *asn1v.Value
+	var bandN int
+	takeBand := func(v *asn1v.Value, path string, sib bool) error {
+		if v == nil {
+			return nil
+		}
+		n, err := rd.bandList(v, path, sib)
+		if err != nil {
+			return err
+		}
+		if bandAt != nil && n != bandN {
+			return fail(v, path, "%s starts with band n%d, but the frequencyBandList at %s with n%d; gridloom plans one channel in one band, so the first bands must be the same.", path, n, bandAt.Pos, bandN)
+		}
+		bandAt, bandN = v, n
+		return nil
+	}
 	var ssbSCS, offsetToPointA, kSSB, common, period, pointA, ssbARFCNv *asn1v.Value
 	var bitmap string
 	var bitmapAt *asn1v.Value
@@ -376,11 +392,14 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 				return p, err
 			}
 			if f := dm["frequencyInfoDL"]; f != nil {
-				fm, err := rd.seq(f, "FrequencyInfoDL-SIB", "offsetToPointA", "scs-SpecificCarrierList")
+				fm, err := rd.seq(f, "FrequencyInfoDL-SIB", "frequencyBandList", "offsetToPointA", "scs-SpecificCarrierList")
 				if err != nil {
 					return p, err
 				}
 				offsetToPointA = fm["offsetToPointA"]
+				if err := takeBand(fm["frequencyBandList"], "FrequencyInfoDL-SIB.frequencyBandList", true); err != nil {
+					return p, err
+				}
 				if err := takeCarriers(fm["scs-SpecificCarrierList"], "FrequencyInfoDL-SIB.scs-SpecificCarrierList"); err != nil {
 					return p, err
 				}
@@ -482,8 +501,11 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 		freqDL = a.Value
 	}
 	if freqDL != nil {
-		m, err := rd.seq(freqDL, typeFreqDL, "absoluteFrequencySSB", "absoluteFrequencyPointA", "scs-SpecificCarrierList")
+		m, err := rd.seq(freqDL, typeFreqDL, "absoluteFrequencySSB", "frequencyBandList", "absoluteFrequencyPointA", "scs-SpecificCarrierList")
 		if err != nil {
+			return p, err
+		}
+		if err := takeBand(m["frequencyBandList"], "FrequencyInfoDL.frequencyBandList", false); err != nil {
 			return p, err
 		}
 		pointA, ssbARFCNv = m["absoluteFrequencyPointA"], m["absoluteFrequencySSB"]
@@ -545,6 +567,9 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 	if carriers == nil {
 		return p, &Error{Msg: "The text has no scs-SpecificCarrierList (in FrequencyInfoDL-SIB or FrequencyInfoDL), so gridloom cannot place the carrier; give one."}
 	}
+	if bandAt != nil {
+		p.Carrier.Band = fmt.Sprintf("n%d", bandN)
+	}
 	p.Carrier.OffsetToCarrier = map[int]int{}
 	p.Carrier.CarrierBandwidth = map[int]int{}
 	for scs, c := range carriers {
@@ -604,15 +629,21 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 		} else {
 			rd.d.Assumed = append(rd.d.Assumed, "The text has no MIB, so k_SSB (ssb-SubcarrierOffset) is taken as 0.")
 		}
-		if common != nil && p.Carrier.Range != grid.FR1.String() {
+		if common != nil && p.Carrier.Range != grid.FR2_2.String() {
 			name, err := ident(common, "subCarrierSpacingCommon", "scs15or60, scs30or120")
 			if err != nil {
 				return p, err
 			}
-			switch name {
-			case "scs15or60":
+			// 15 or 30 kHz in FR1, 60 or 120 kHz in FR2-1 (TS 38.331 MIB).
+			fr1 := p.Carrier.Range == grid.FR1.String()
+			switch {
+			case name == "scs15or60" && fr1:
+				s.ScsCommonKHz = 15
+			case name == "scs30or120" && fr1:
+				s.ScsCommonKHz = 30
+			case name == "scs15or60":
 				s.ScsCommonKHz = 60
-			case "scs30or120":
+			case name == "scs30or120":
 				s.ScsCommonKHz = 120
 			default:
 				return p, fail(common, "subCarrierSpacingCommon", "subCarrierSpacingCommon %s is not a value; use scs15or60 or scs30or120.", name)
@@ -638,16 +669,81 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 				s.Bitmap = bitmap[:4]
 			}
 		}
-		p.SSB = s
 		if ssbARFCNv != nil {
 			if _, err := integer(ssbARFCNv, "absoluteFrequencySSB", 0, maxARFCN); err != nil {
 				return p, err
 			}
 			rd.ssbARFCN = ssbARFCNv
+			if kSSB != nil && p.Carrier.Range == grid.FR1.String() {
+				s.KSSB = fifthBit(p, *s, ssbARFCNv.Int)
+			}
 		}
+		p.SSB = s
 	}
 	sort.Strings(rd.d.Skipped)
 	return p, nil
+}
+
+// bandList reads a frequencyBandList — MultiFrequencyBandListNR-SIB
+// (SEQUENCE OF NR-MultiBandInfo) when sib, else MultiFrequencyBandListNR
+// (SEQUENCE OF FreqBandIndicatorNR), TS 38.331 — and returns its first
+// band: a plan names one band, and the UE takes the first it supports.
+func (rd *reader) bandList(v *asn1v.Value, path string, sib bool) (int, error) {
+	form := "{ 78 }"
+	if sib {
+		form = "{ { freqBandIndicatorNR 78 } }"
+	}
+	if v.Kind != asn1v.SequenceOf || len(v.Elems) == 0 || len(v.Elems) > maxBands {
+		return 0, fail(v, path, "%s must be a SEQUENCE OF 1 to %d bands (maxNrofMultiBands, TS 38.331), such as %s.", path, maxBands, form)
+	}
+	first := 0
+	for i, e := range v.Elems {
+		iv := e
+		if sib {
+			m, err := rd.seq(e, "NR-MultiBandInfo", "freqBandIndicatorNR")
+			if err != nil {
+				return 0, err
+			}
+			if iv = m["freqBandIndicatorNR"]; iv == nil {
+				if i == 0 {
+					return 0, fail(e, path, "The first NR-MultiBandInfo of %s has no freqBandIndicatorNR; gridloom reads the band from it, so give one, such as %s.", path, form)
+				}
+				continue
+			}
+		}
+		n, err := integer(iv, "freqBandIndicatorNR", 1, maxBand)
+		if err != nil {
+			return 0, err
+		}
+		if i == 0 {
+			first = n
+		}
+	}
+	if len(v.Elems) > 1 {
+		rd.d.Assumed = append(rd.d.Assumed, fmt.Sprintf("%s lists %d bands; the plan takes the first, n%d.", path, len(v.Elems), first))
+	}
+	return first, nil
+}
+
+// fifthBit returns k_SSB with its fifth bit restored. In FR1 k_SSB runs to
+// 23 (subCarrierSpacingCommon 30 kHz), but ssb-SubcarrierOffset holds its
+// 4 least significant bits and the fifth rides in the PBCH payload
+// (TS 38.212 7.1.1), which value notation does not show.
+// absoluteFrequencySSB fixes it: k_SSB + 16 is kept when it, and not k_SSB,
+// puts SS_REF at that NR-ARFCN.
+func fifthBit(p grid.Plan, s grid.SSBPlan, want int64) int {
+	at := func(k int) bool {
+		probe := p.Clone()
+		t := s
+		t.KSSB = k
+		probe.SSB = &t
+		n, ok := ssbARFCN(grid.Compute(probe))
+		return ok && int64(n) == want
+	}
+	if !at(s.KSSB) && at(s.KSSB+16) {
+		return s.KSSB + 16
+	}
+	return s.KSSB
 }
 
 func (rd *reader) carrierList(v *asn1v.Value, path string) (map[int]carrier, error) {

@@ -6,6 +6,8 @@ import (
 
 	"gridloom/grid"
 	"gridloom/grid/asn1v"
+	"gridloom/grid/band"
+	"gridloom/grid/coreset0"
 )
 
 // Assignment names and types of the values Encode writes, in document
@@ -88,9 +90,11 @@ func build(r grid.Result) (*asn1v.Document, error) {
 
 	// ServingCellConfigCommonSIB (TS 38.331 6.3.2), as in SIB1.
 	freqDL := asn1v.Seq(
+		asn1v.F("frequencyBandList", sibBandList(r)),
 		asn1v.F("offsetToPointA", ssbOffset(r)),
 		asn1v.F("scs-SpecificCarrierList", carriers),
-	).Note("not set by the plan: frequencyBandList")
+	)
+	noteBand(freqDL, r)
 	dl := asn1v.Seq(asn1v.F("frequencyInfoDL", freqDL)).
 		Note("not set by the plan: initialDownlinkBWP, bcch-Config, pcch-Config")
 	var ul *asn1v.Value
@@ -128,9 +132,11 @@ func build(r grid.Result) (*asn1v.Document, error) {
 	// ServingCellConfigCommon (TS 38.331 6.3.2): the absolute frequencies.
 	freq := asn1v.Seq(
 		asn1v.F("absoluteFrequencySSB", ssbARFCNValue(r)),
+		asn1v.F("frequencyBandList", bandList(r)),
 		asn1v.F("absoluteFrequencyPointA", pointAValue(r)),
 		asn1v.F("scs-SpecificCarrierList", carrierList(r)),
-	).Note("not set by the plan: frequencyBandList")
+	)
+	noteBand(freq, r)
 	if !r.Channel.Absolute {
 		freq.Note("absoluteFrequencyPointA is left out: the plan gives no carrier.centerMHz or carrier.arfcn")
 	} else if !r.Channel.PointAOnRaster {
@@ -197,39 +203,79 @@ func carrierList(r grid.Result) *asn1v.Value {
 	return list
 }
 
+// ssbOffset is offsetToPointA as Compute resolved it: a plan that places
+// its block by ssb.gscn leaves the field 0 and Compute derives it.
 func ssbOffset(r grid.Result) *asn1v.Value {
-	if r.SSB == nil || r.Plan.SSB == nil {
+	if r.SSB == nil {
 		return nil
 	}
-	return asn1v.Int(r.Plan.SSB.OffsetToPointA)
+	return asn1v.Int(r.SSB.OffsetToPointA)
+}
+
+// bandNumber is freqBandIndicatorNR: the number of the band the plan
+// names. A band Compute only inferred is not written: the channel may lie
+// in several, and the plan has not chosen.
+func bandNumber(r grid.Result) (int, bool) {
+	if r.Plan.Carrier.Band == "" {
+		return 0, false
+	}
+	b, ok := band.Lookup(r.Plan.Carrier.Band)
+	return b.Number, ok
+}
+
+// sibBandList is FrequencyInfoDL-SIB's frequencyBandList, a
+// MultiFrequencyBandListNR-SIB: SEQUENCE OF NR-MultiBandInfo (TS 38.331).
+func sibBandList(r grid.Result) *asn1v.Value {
+	n, ok := bandNumber(r)
+	if !ok {
+		return nil
+	}
+	return asn1v.SeqOf(asn1v.Seq(asn1v.F("freqBandIndicatorNR", asn1v.Int(n))))
+}
+
+// bandList is FrequencyInfoDL's frequencyBandList, a
+// MultiFrequencyBandListNR: SEQUENCE OF FreqBandIndicatorNR (TS 38.331).
+func bandList(r grid.Result) *asn1v.Value {
+	n, ok := bandNumber(r)
+	if !ok {
+		return nil
+	}
+	return asn1v.SeqOf(asn1v.Int(n))
+}
+
+// noteBand says why a mandatory frequencyBandList is left out.
+func noteBand(v *asn1v.Value, r grid.Result) {
+	if _, ok := bandNumber(r); ok {
+		return
+	}
+	why := "frequencyBandList is left out: the plan names no carrier.band"
+	if c := r.Channel.BandCandidates; len(c) > 0 {
+		why += fmt.Sprintf(" (the channel lies in %s)", grid.JoinOr(c))
+	}
+	v.Note(why)
 }
 
 // mibValue writes the MIB fields a plan sets: ssb-SubcarrierOffset and,
-// in FR2-1, subCarrierSpacingCommon.
+// in FR1 and FR2-1, subCarrierSpacingCommon, with the values Compute
+// resolved (a block placed by ssb.gscn, the default common spacing).
 func mibValue(r grid.Result) *asn1v.Value {
-	s := r.Plan.SSB
+	s := r.SSB
 	var common *asn1v.Value
 	v := asn1v.Seq()
-	switch r.Channel.Range {
-	case grid.FR2_1:
-		kHz := s.ScsCommonKHz
-		if kHz == 0 {
-			kHz = 120
-		}
-		switch kHz {
-		case 60:
-			common = asn1v.Ident("scs15or60")
-		case 120:
-			common = asn1v.Ident("scs30or120")
-		}
-		v.Note("not set by the plan: systemFrameNumber, dmrs-TypeA-Position, pdcch-ConfigSIB1, cellBarred, intraFreqReselection, spare")
-	case grid.FR2_2:
+	if r.Channel.Range == grid.FR2_2 {
 		v.Note("not set by the plan: systemFrameNumber, dmrs-TypeA-Position, pdcch-ConfigSIB1, cellBarred, intraFreqReselection, spare",
 			"subCarrierSpacingCommon is left out: gridloom does not map it in FR2-2")
-	default:
-		v.Note("not set by the plan: systemFrameNumber, subCarrierSpacingCommon, dmrs-TypeA-Position, pdcch-ConfigSIB1, cellBarred, intraFreqReselection, spare")
-		if s.KSSB >= 16 {
-			v.Note(fmt.Sprintf("k_SSB is %d: ssb-SubcarrierOffset carries its 4 least significant bits and PBCH payload bit a(A+5) its most significant (TS 38.212 7.1.1)", s.KSSB))
+	} else {
+		fr := coreset0.FR1
+		if r.Channel.Range == grid.FR2_1 {
+			fr = coreset0.FR2
+		}
+		if c, err := coreset0.SubCarrierSpacingCommonFor(fr, s.ScsCommonKHz); err == nil {
+			common = asn1v.Ident(c.String())
+		}
+		v.Note("not set by the plan: systemFrameNumber, dmrs-TypeA-Position, pdcch-ConfigSIB1, cellBarred, intraFreqReselection, spare")
+		if r.Channel.Range == grid.FR1 && s.KSSB >= 16 {
+			v.Note(fmt.Sprintf("k_SSB is %d: ssb-SubcarrierOffset carries its 4 least significant bits and PBCH payload bit a(A+5) its most significant (TS 38.212 7.1.1); absoluteFrequencySSB below fixes it too", s.KSSB))
 		}
 	}
 	if common != nil {
@@ -318,16 +364,14 @@ func patternValue(p grid.TDDPattern) *asn1v.Value {
 	return v
 }
 
-// ssbARFCN is absoluteFrequencySSB: the NR-ARFCN of subcarrier 0 of
-// resource block 10 of the SS/PBCH block, i.e. its subcarrier 120
-// (TS 38.331 FrequencyInfoDL, TS 38.211 7.4.3.1).
+// ssbARFCN is absoluteFrequencySSB: the NR-ARFCN of SS_REF, subcarrier 0
+// of resource block 10 of the SS/PBCH block (TS 38.331 FrequencyInfoDL,
+// TS 38.211 7.4.3.1), as Compute found it.
 func ssbARFCN(r grid.Result) (int, bool) {
-	if r.SSB == nil || !r.Channel.Absolute {
+	if r.SSB == nil || !r.SSB.Absolute || !r.SSB.OnARFCNRaster {
 		return 0, false
 	}
-	scs := r.SSB.Numerology.SCS()
-	f := r.Channel.PointAHz + r.SSB.Low + scs/2 + 120*scs
-	return grid.FrequencyARFCN(f)
+	return r.SSB.AbsoluteFrequencySSB, true
 }
 
 func ssbARFCNValue(r grid.Result) *asn1v.Value {
