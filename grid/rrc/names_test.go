@@ -116,7 +116,10 @@ func extraPlans() map[string]grid.Plan {
 			Name:    "3 ms pattern below 3 GHz",
 			Carrier: grid.CarrierPlan{BandwidthMHz: 20, CenterMHz: ptr(2600.0)},
 			TDD:     &grid.TDDPlan{ReferenceSCSKHz: 30, Pattern1: grid.TDDPattern{PeriodMs: 3, DownlinkSlots: 4, DownlinkSymbols: 6, UplinkSlots: 1, UplinkSymbols: 4}, Pattern2: &grid.TDDPattern{PeriodMs: 2, DownlinkSlots: 2, UplinkSlots: 2}},
-			SSB:     &grid.SSBPlan{SCSKHz: 15, OffsetToPointA: 2, KSSB: 18, Bitmap: "1010"},
+			// k_SSB counts 15 kHz subcarriers of a 15 kHz common RB here,
+			// so it is 0 to 11 (TS 38.211 7.4.3.1); frequency_test.go works
+			// the block out by hand.
+			SSB: &grid.SSBPlan{SCSKHz: 15, OffsetToPointA: 3, KSSB: 6, Bitmap: "1010"},
 			Partitions: []grid.PartitionPlan{
 				{Name: "all", SCSKHz: 30, StartCRB: ptr(0), SizePRB: 51, Direction: "DL", Layers: 2},
 			},
@@ -124,7 +127,9 @@ func extraPlans() map[string]grid.Plan {
 		"fr2-common-60": {
 			Name:    "FR2 with a 60 kHz common spacing",
 			Carrier: grid.CarrierPlan{Range: "FR2-1", BandwidthMHz: 100, ARFCN: ptr(2079167)},
-			SSB:     &grid.SSBPlan{SCSKHz: 240, OffsetToPointA: 4, KSSB: 3, ScsCommonKHz: 60, PeriodMs: 40},
+			// SS_REF on GSCN 22474, an entry of n257 at 240 kHz, worked by
+			// hand in frequency_test.go.
+			SSB: &grid.SSBPlan{SCSKHz: 240, OffsetToPointA: 49, KSSB: 8, ScsCommonKHz: 60, PeriodMs: 40},
 			Partitions: []grid.PartitionPlan{
 				{Name: "sixty", SCSKHz: 60, CP: "extended", LocationAndBandwidth: ptr(275*19 + 2)},
 				{Name: "up", SCSKHz: 120, StartCRB: ptr(20), SizePRB: 40, Direction: "UL", Modulation: "16QAM"},

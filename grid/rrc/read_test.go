@@ -47,19 +47,29 @@ scc ServingCellConfigCommon ::= { physCellId 1, ssbSubcarrierSpacing kHz30,
 //
 //	carrier: one 30 kHz carrier of 106 RBs from CRB 0: N_RB 106 at 30 kHz is
 //	  40 MHz in TS 38.101-1 Table 5.3.2-1, so a 40 MHz FR1 channel
+//	band: frequencyBandList { { freqBandIndicatorNR 78 } }, so n78
 //	point A: NR-ARFCN 640000 = 3000 MHz + 15 kHz·(640000 − 600000) = 3600 MHz
 //	centre: point A + 106·12·30 kHz / 2 = 3600 + 19.08 = 3619.08 MHz
 //	bwp2: RIV 13750 = 275·(51 − 1) + 0, so CRBs 0 to 50 (51 RBs) of 30 kHz
 //	TDD: 5 ms on 30 kHz, 7 DL slots + 6 symbols, 2 UL slots + 4 symbols
-//	SS/PBCH: 30 kHz blocks, offsetToPointA 24, k_SSB 0, block 0 only, 20 ms
+//	SS/PBCH: 30 kHz blocks, offsetToPointA 24, k_SSB 0, block 0 only, 20 ms,
+//	  subCarrierSpacingCommon scs30or120, which is 30 kHz in FR1
+//
+// The log's block is off the synchronization raster, and the reader keeps
+// it as the log says: reading does not judge, Compute does. Its SS_REF is
+// point A + 24·12·15 kHz + 0 + 120·30 kHz = 3600 + 4.32 + 3.6 =
+// 3607.92 MHz, and (3607.92 − 3000) / 1.44 = 422.17 is not a whole number
+// of 1.44 MHz steps (TS 38.101-1 5.4.3.1), so a UE would not find this
+// cell's block: the nearest GSCNs are 7499 + 422 = 7921 (3607.68 MHz) and
+// 7922 (3609.12 MHz). That error, and no other, is what Compute must find.
 func TestDecodeLog(t *testing.T) {
 	d, err := rrc.Decode([]byte(logged))
 	if err != nil {
 		t.Fatal(err)
 	}
 	p := d.Plan
-	if p.Carrier.Range != "FR1" || p.Carrier.BandwidthMHz != 40 || p.Carrier.CenterMHz == nil || *p.Carrier.CenterMHz != 3619.08 {
-		t.Errorf("carrier %+v (centre %v), want FR1, 40 MHz, 3619.08 MHz", p.Carrier, p.Carrier.CenterMHz)
+	if p.Carrier.Range != "FR1" || p.Carrier.Band != "n78" || p.Carrier.BandwidthMHz != 40 || p.Carrier.CenterMHz == nil || *p.Carrier.CenterMHz != 3619.08 {
+		t.Errorf("carrier %+v (centre %v), want FR1, n78, 40 MHz, 3619.08 MHz", p.Carrier, p.Carrier.CenterMHz)
 	}
 	if len(p.Partitions) != 1 {
 		t.Fatalf("partitions %+v", p.Partitions)
@@ -72,18 +82,25 @@ func TestDecodeLog(t *testing.T) {
 	if p.TDD == nil || p.TDD.ReferenceSCSKHz != 30 || p.TDD.Pattern1 != want || p.TDD.Pattern2 != nil {
 		t.Errorf("tdd %+v, want 30 kHz and %+v", p.TDD, want)
 	}
-	if s := p.SSB; s == nil || *s != (grid.SSBPlan{SCSKHz: 30, OffsetToPointA: 24, Bitmap: "10000000", PeriodMs: 20}) {
+	if s := p.SSB; s == nil || *s != (grid.SSBPlan{SCSKHz: 30, OffsetToPointA: 24, ScsCommonKHz: 30, Bitmap: "10000000", PeriodMs: 20}) {
 		t.Errorf("ssb %+v", s)
 	}
 	for _, skipped := range []string{"sib2 SIB2 (line 24)", "SIB1.cellSelectionInfo (line 4)", "ServingCellConfigCommonSIB.ss-PBCH-BlockPower (line 6)",
-		"FrequencyInfoDL-SIB.frequencyBandList (line 10)", "ServingCellConfigCommonSIB.downlinkConfigCommon.initialDownlinkBWP (line 14)",
+		"ServingCellConfigCommonSIB.downlinkConfigCommon.initialDownlinkBWP (line 14)",
 		"MIB.systemFrameNumber (line 21)", "ServingCellConfigCommon.physCellId (line 25)"} {
 		if !strings.Contains(strings.Join(d.Skipped, "; "), skipped) {
 			t.Errorf("Skipped %q does not list %s", d.Skipped, skipped)
 		}
 	}
-	if res := grid.Compute(p); res.HasErrors() {
-		t.Errorf("the logged cell has errors: %v", res.Findings)
+	var errs []grid.Finding
+	for _, f := range grid.Compute(p).Findings {
+		if f.Severity == grid.Error {
+			errs = append(errs, f)
+		}
+	}
+	if len(errs) != 1 || errs[0].Code != grid.CodeSyncRaster || errs[0].Field != "ssb.offsetToPointA" ||
+		!strings.Contains(errs[0].Message, "3607.920 MHz") || !strings.Contains(errs[0].Message, "7921 (3607.680 MHz) and 7922 (3609.120 MHz)") {
+		t.Errorf("the logged cell's errors are %v, want one: SS_REF 3607.920 MHz off the synchronization raster, between GSCNs 7921 and 7922", errs)
 	}
 }
 
@@ -106,6 +123,13 @@ func TestDecodeRefuses(t *testing.T) {
 		{"no carriers", "m MIB ::= { ssb-SubcarrierOffset 3 }", "no scs-SpecificCarrierList", 0, 0},
 		{"misplaced note", base + "b BWP-Uplink ::= { bwp-Id 1, bwp-Common { genericParameters {\n -- gridloom name: \"x\"\n locationAndBandwidth 0, subcarrierSpacing kHz30 } } }", "A gridloom note stands at the top", 3, 2},
 		{"unknown note", "-- gridloom colour: \"red\"\n" + base, `"colour" is not a gridloom note key`, 1, 1},
+		{"band out of range", "f FrequencyInfoDL ::= { frequencyBandList { 1025 }, scs-SpecificCarrierList { { offsetToCarrier 0, subcarrierSpacing kHz30, carrierBandwidth 106 } } }",
+			"freqBandIndicatorNR is 1025; freqBandIndicatorNR must be an INTEGER from 1 to 1024", 1, 45},
+		{"band list form", "f FrequencyInfoDL ::= { frequencyBandList 78, scs-SpecificCarrierList { { offsetToCarrier 0, subcarrierSpacing kHz30, carrierBandwidth 106 } } }",
+			"FrequencyInfoDL.frequencyBandList must be a SEQUENCE OF 1 to 8 bands", 1, 43},
+		{"bands differ", "s ServingCellConfigCommonSIB ::= { downlinkConfigCommon { frequencyInfoDL { frequencyBandList { { freqBandIndicatorNR 77 } } } } }\n" +
+			"f FrequencyInfoDL ::= { frequencyBandList { 78 }, scs-SpecificCarrierList { { offsetToCarrier 0, subcarrierSpacing kHz30, carrierBandwidth 106 } } }",
+			"FrequencyInfoDL.frequencyBandList starts with band n78, but the frequencyBandList at line 1", 2, 43},
 	}
 	for _, c := range cases {
 		_, err := rrc.Decode([]byte(c.text))
@@ -173,5 +197,58 @@ func TestPointAAgainstNote(t *testing.T) {
 	}
 	if _, err := rrc.Decode([]byte(edited)); err == nil || !strings.Contains(err.Error(), "absoluteFrequencyPointA 656730 does not match") {
 		t.Errorf("Decode = %v, want a refusal of absoluteFrequencyPointA", err)
+	}
+}
+
+// frequencyBandList may list several bands (maxNrofMultiBands, TS 38.331);
+// the plan takes the first and says so.
+func TestDecodeFirstBand(t *testing.T) {
+	const text = `f FrequencyInfoDL ::= { frequencyBandList { 77, 78 }, absoluteFrequencyPointA 640000,
+  scs-SpecificCarrierList { { offsetToCarrier 0, subcarrierSpacing kHz30, carrierBandwidth 106 } } }
+b BWP-Downlink ::= { bwp-Id 1, bwp-Common { genericParameters { locationAndBandwidth 13750, subcarrierSpacing kHz30 } } }`
+	d, err := rrc.Decode([]byte(text))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if d.Plan.Carrier.Band != "n77" || !strings.Contains(strings.Join(d.Assumed, " "), "lists 2 bands; the plan takes the first, n77") {
+		t.Errorf("band %q, assumed %q; want n77 and a sentence saying so", d.Plan.Carrier.Band, d.Assumed)
+	}
+}
+
+// In FR1 with subCarrierSpacingCommon 30 kHz, k_SSB runs to 23 and the
+// MIB's ssb-SubcarrierOffset holds its 4 low bits only. campus has k_SSB
+// 16 (TestGSCNBlockByHand): without gridloom's notes its text says
+// ssb-SubcarrierOffset 0, and absoluteFrequencySSB 649632 (SS_REF
+// 3744.48 MHz) is what restores the fifth bit: with k_SSB 0 SS_REF would be
+// 16·15 kHz = 240 kHz lower, NR-ARFCN 649632 − 16 = 649616.
+func TestFifthBitOfKSSB(t *testing.T) {
+	p, err := demo.Load("campus")
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, err := rrc.Encode(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var bare []string
+	for _, l := range strings.Split(string(text), "\n") {
+		if !strings.HasPrefix(strings.TrimSpace(l), "-- gridloom ") {
+			bare = append(bare, l)
+		}
+	}
+	d, err := rrc.Decode([]byte(strings.Join(bare, "\n")))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s := d.Plan.SSB; s == nil || s.KSSB != 16 || s.OffsetToPointA != 56 || s.ScsCommonKHz != 30 || s.GSCN != nil {
+		t.Errorf("campus without notes read back the block as %+v, want offsetToPointA 56, k_SSB 16, 30 kHz common", s)
+	}
+	if r := grid.Compute(d.Plan); r.SSB == nil || r.SSB.GSCN != 8016 || !r.SSB.OnSyncRaster {
+		t.Errorf("the block read back is not on GSCN 8016: %+v", r.SSB)
+	}
+	// absoluteFrequencySSB of the block with k_SSB 0 keeps k_SSB 0.
+	low := strings.Replace(strings.Join(bare, "\n"), "absoluteFrequencySSB 649632", "absoluteFrequencySSB 649616", 1)
+	if d, err := rrc.Decode([]byte(low)); err != nil || d.Plan.SSB == nil || d.Plan.SSB.KSSB != 0 {
+		t.Errorf("with absoluteFrequencySSB 649616: %+v, %v; want k_SSB 0", d.Plan.SSB, err)
 	}
 }

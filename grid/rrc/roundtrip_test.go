@@ -68,17 +68,25 @@ func TestRoundTripOtherBranches(t *testing.T) {
 	}
 }
 
-// MIBForPlan takes k_SSB, subCarrierSpacingCommon and L_max from the plan:
-// campus is FR1 at 3750 MHz with 30 kHz case C blocks in unpaired spectrum,
-// so L_max = 8 (TS 38.213 4.1, above 1.88 GHz); stadium is FR2-1 with
-// 120 kHz case D blocks, L_max = 64, and the default common spacing of
-// 120 kHz, scs30or120.
+// MIBForPlan takes k_SSB, subCarrierSpacingCommon and L_max from the
+// computed plan. campus is FR1 at 3750 MHz with 30 kHz case C blocks in
+// unpaired spectrum, so L_max = 8 (TS 38.213 4.1, above 1.88 GHz); its
+// common spacing defaults to the block's, 30 kHz, scs30or120 in FR1; its
+// block is placed by GSCN 8016, which gives k_SSB 16 (worked by hand in
+// TestGSCNBlockByHand). stadium is FR2-1 with 120 kHz case D blocks,
+// L_max = 64, and the default common spacing of 120 kHz, scs30or120; GSCN
+// 22447 puts SS_REF at 24250.08 + 191·17.28 = 27550.56 MHz, point A is at
+// 27500.04 − 264·12·60 kHz / 2 = 27405.00 MHz, so the block's subcarrier 0
+// is 145.56 − 120·120 kHz = 131.16 MHz above point A: offsetToPointA
+// 2·⌊131.16 / 1.44⌋ = 182 RBs of 60 kHz (131.04 MHz) and k_SSB
+// 0.12 MHz / 120 kHz = 1.
 func TestMIBForPlan(t *testing.T) {
 	for name, want := range map[string]struct {
 		lmax   int
 		fr     coreset0.FR
 		common coreset0.SubCarrierSpacingCommon
-	}{"campus": {8, coreset0.FR1, coreset0.SCS15or60}, "stadium": {64, coreset0.FR2, coreset0.SCS30or120}} {
+		kSSB   int
+	}{"campus": {8, coreset0.FR1, coreset0.SCS30or120, 16}, "stadium": {64, coreset0.FR2, coreset0.SCS30or120, 1}} {
 		p, err := demo.Load(name)
 		if err != nil {
 			t.Fatal(err)
@@ -87,8 +95,8 @@ func TestMIBForPlan(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		if timing.LMax != want.lmax || timing.FR != want.fr || m.SubCarrierSpacingCommon != want.common || m.KSSB != p.SSB.KSSB {
-			t.Errorf("%s: %+v %+v, want L_max %d, %v, %v", name, m, timing, want.lmax, want.fr, want.common)
+		if timing.LMax != want.lmax || timing.FR != want.fr || m.SubCarrierSpacingCommon != want.common || m.KSSB != want.kSSB {
+			t.Errorf("%s: %+v %+v, want L_max %d, %v, %v, k_SSB %d", name, m, timing, want.lmax, want.fr, want.common, want.kSSB)
 		}
 		if _, err := rrc.EncodeMIB(m, timing); err != nil {
 			t.Errorf("%s: %v", name, err)
