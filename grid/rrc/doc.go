@@ -11,31 +11,41 @@
 // against srsRAN_Project's code generated from the same version):
 //
 //   - MIB: ssb-SubcarrierOffset (k_SSB's 4 least significant bits) and, in
-//     FR2-1, subCarrierSpacingCommon.
+//     FR1 and FR2-1, subCarrierSpacingCommon.
 //   - ServingCellConfigCommonSIB: downlinkConfigCommon.frequencyInfoDL
-//     (offsetToPointA, scs-SpecificCarrierList), uplinkConfigCommon
+//     (frequencyBandList, offsetToPointA, scs-SpecificCarrierList), uplinkConfigCommon
 //     .frequencyInfoUL.scs-SpecificCarrierList when a partition is uplink,
 //     ssb-PositionsInBurst (inOneGroup, groupPresence),
 //     ssb-PeriodicityServingCell and tdd-UL-DL-ConfigurationCommon.
 //   - ServingCellConfigCommon: downlinkConfigCommon.frequencyInfoDL
-//     (absoluteFrequencySSB, absoluteFrequencyPointA,
+//     (absoluteFrequencySSB, frequencyBandList, absoluteFrequencyPointA,
 //     scs-SpecificCarrierList), ssb-PositionsInBurst (the short, medium or
 //     long bitmap, which says any bitmap) and ssbSubcarrierSpacing.
 //   - Each partition as BWP-Downlink or BWP-Uplink: bwp-Id (1 to 4,
 //     counted per direction in plan order) and bwp-Common.genericParameters
 //     (locationAndBandwidth, subcarrierSpacing, cyclicPrefix).
 //
+// The SS/PBCH fields are those of the block Compute places: a plan that
+// gives ssb.gscn instead of offsetToPointA and kSsb is written with the
+// offsetToPointA, k_SSB, subCarrierSpacingCommon and absoluteFrequencySSB
+// Compute derives. frequencyBandList carries carrier.band as
+// freqBandIndicatorNR, and only the band the plan names: a band Compute
+// infers is one of possibly several the channel lies in.
+//
 // Fields the plan does not determine are left out, never invented; each
 // value says in a comment which of its mandatory fields it leaves out
-// (frequencyBandList, initialDownlinkBWP, pdcch-ConfigSIB1, ...). In FR1 a
-// k_SSB of 16 or more has its fifth bit in the PBCH payload, outside the MIB
-// (TS 38.212 7.1.1); a comment says so.
+// (frequencyBandList without carrier.band, initialDownlinkBWP,
+// pdcch-ConfigSIB1, ...). In FR1 a k_SSB of 16 or more (possible with a
+// 30 kHz subCarrierSpacingCommon) has its fifth bit in the PBCH payload,
+// outside the MIB (TS 38.212 7.1.1); a comment says so, and the reader
+// restores that bit from absoluteFrequencySSB.
 //
 // # Notes: what 38.331 has no field for
 //
 // Partition names, layers and modulation, the plan's name, span and
 // environment, the channel bandwidth and range, and which values the plan
-// left to their defaults have no RRC field. They travel as comments
+// left to their defaults (offsetToPointA and kSsb left to ssb.gscn, and
+// the GSCN itself) have no RRC field. They travel as comments
 // "-- gridloom key: value" (the value in JSON): at the top of the text for
 // plan keys (carrier.bandwidthMHz, ssb.bitmap, ...), at the top of a BWP
 // value for that partition's keys (name, layers, ...). Encode writes a note
@@ -52,7 +62,9 @@
 // ServingCellConfigCommonSIB, ServingCellConfigCommon, FrequencyInfoDL,
 // TDD-UL-DL-ConfigCommon, BWP-Downlink and BWP-Uplink; other values and the
 // fields of these it has no use for are skipped and listed in
-// Decoded.Skipped. Without notes the channel bandwidth is the one of
+// Decoded.Skipped. carrier.band is the first band of frequencyBandList
+// (FrequencyInfoDL-SIB and FrequencyInfoDL must start with the same band).
+// Without notes the channel bandwidth is the one of
 // TS 38.101 Table 5.3.2-1 whose N_RB is every carrierBandwidth, the range
 // follows absoluteFrequencyPointA or the spacings, and partitions are named
 // after their values. Values outside their ASN.1 range are refused naming

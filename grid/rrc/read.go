@@ -127,6 +127,7 @@ func agree(q, p grid.Plan) error {
 		{"scs-SpecificCarrierList (offsetToCarrier)", q.Carrier.OffsetToCarrier, q2.Carrier.OffsetToCarrier},
 		{"scs-SpecificCarrierList (carrierBandwidth)", q.Carrier.CarrierBandwidth, q2.Carrier.CarrierBandwidth},
 		{"tdd-UL-DL-ConfigurationCommon", q.TDD, q2.TDD},
+		{"frequencyBandList", q.Carrier.Band, q2.Carrier.Band},
 	}
 	if q.Carrier.CenterMHz != nil {
 		checks = append(checks, pair{"absoluteFrequencyPointA", deref(q.Carrier.CenterMHz), deref(q2.Carrier.CenterMHz)})
@@ -628,6 +629,9 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 			}
 		} else {
 			rd.d.Assumed = append(rd.d.Assumed, "The text has no MIB, so k_SSB (ssb-SubcarrierOffset) is taken as 0.")
+		}
+		if common != nil && p.Carrier.Range == grid.FR2_2.String() {
+			rd.skip("MIB.subCarrierSpacingCommon", common.Pos) // gridloom does not map it in FR2-2
 		}
 		if common != nil && p.Carrier.Range != grid.FR2_2.String() {
 			name, err := ident(common, "subCarrierSpacingCommon", "scs15or60, scs30or120")

@@ -100,8 +100,12 @@ func build(r grid.Result) (*asn1v.Document, error) {
 	var ul *asn1v.Value
 	for _, l := range r.Partitions {
 		if l.Direction == grid.UL {
+			leftUL := "not set by the plan: frequencyBandList"
+			if _, ok := bandNumber(r); ok {
+				leftUL = "frequencyBandList is left out: gridloom writes carrier.band in the downlink's lists only"
+			}
 			ul = asn1v.Seq(asn1v.F("frequencyInfoUL",
-				asn1v.Seq(asn1v.F("scs-SpecificCarrierList", carrierList(r))).Note("not set by the plan: frequencyBandList"))).
+				asn1v.Seq(asn1v.F("scs-SpecificCarrierList", carrierList(r))).Note(leftUL))).
 				Note("not set by the plan: initialUplinkBWP, timeAlignmentTimerCommon")
 			break
 		}
