@@ -279,7 +279,11 @@ func mibValue(r grid.Result) *asn1v.Value {
 		}
 		v.Note("not set by the plan: systemFrameNumber, dmrs-TypeA-Position, pdcch-ConfigSIB1, cellBarred, intraFreqReselection, spare")
 		if r.Channel.Range == grid.FR1 && s.KSSB >= 16 {
-			v.Note(fmt.Sprintf("k_SSB is %d: ssb-SubcarrierOffset carries its 4 least significant bits and PBCH payload bit a(A+5) its most significant (TS 38.212 7.1.1); absoluteFrequencySSB below fixes it too", s.KSSB))
+			msg := fmt.Sprintf("k_SSB is %d: ssb-SubcarrierOffset carries its 4 least significant bits and PBCH payload bit a(A+5) its most significant (TS 38.212 7.1.1)", s.KSSB)
+			if _, ok := ssbARFCN(r); ok {
+				msg += "; absoluteFrequencySSB below fixes it too"
+			}
+			v.Note(msg)
 		}
 	}
 	if common != nil {
