@@ -44,12 +44,13 @@ func TestEveryPlanKeyTravels(t *testing.T) {
 	}
 	for _, k := range jsonKeys(reflect.TypeFor[grid.Plan]()) {
 		switch k {
-		case "carrier", "ssb", "partitions":
+		case "carrier", "ssb", "partitions", "initialAccess":
 			continue // their keys are checked below
 		}
 		check([]string{k}, "", plan)
 	}
 	check(jsonKeys(reflect.TypeFor[grid.CarrierPlan]()), "carrier.", plan)
 	check(jsonKeys(reflect.TypeFor[grid.SSBPlan]()), "ssb.", plan)
+	check(jsonKeys(reflect.TypeFor[grid.InitialAccessPlan]()), "initialAccess.", plan)
 	check(jsonKeys(reflect.TypeFor[grid.PartitionPlan]()), "", part)
 }

@@ -31,6 +31,17 @@ func ssbField(f func(s *grid.SSBPlan) any) func(p *grid.Plan) any {
 	}
 }
 
+// iaField reaches a key of initialAccess; nil when the plan has none, as
+// ssbField does for ssb. A note on such a key makes the block (applyNotes).
+func iaField(f func(ia *grid.InitialAccessPlan) any) func(p *grid.Plan) any {
+	return func(p *grid.Plan) any {
+		if p.InitialAccess == nil {
+			return nil
+		}
+		return f(p.InitialAccess)
+	}
+}
+
 var planKeys = []planKey{
 	{"name", true, func(p *grid.Plan) any { return &p.Name }},
 	{"spanMs", false, func(p *grid.Plan) any { return &p.SpanMs }},
@@ -43,6 +54,9 @@ var planKeys = []planKey{
 	{"carrier.arfcn", false, func(p *grid.Plan) any { return &p.Carrier.ARFCN }},
 	{"carrier.offsetToCarrier", false, func(p *grid.Plan) any { return &p.Carrier.OffsetToCarrier }},
 	{"carrier.carrierBandwidth", false, func(p *grid.Plan) any { return &p.Carrier.CarrierBandwidth }},
+	// ServingCellConfigCommon's n-TimingAdvanceOffset carries it; a note
+	// only when the text would not (never, for a plan without errors).
+	{"carrier.nTaOffset", false, func(p *grid.Plan) any { return &p.Carrier.NTAOffset }},
 	{"tdd", false, func(p *grid.Plan) any { return &p.TDD }},
 	{"ssb.scsKHz", false, ssbField(func(s *grid.SSBPlan) any { return &s.SCSKHz })},
 	{"ssb.case", false, ssbField(func(s *grid.SSBPlan) any { return &s.Case })},
@@ -54,6 +68,15 @@ var planKeys = []planKey{
 	// A block placed by GSCN is written with the offsetToPointA and k_SSB
 	// Compute derives; the notes give back the GSCN and the zero fields.
 	{"ssb.gscn", false, ssbField(func(s *grid.SSBPlan) any { return &s.GSCN })},
+	// The MIB's pdcch-ConfigSIB1 and dmrs-TypeA-Position and SIB1's
+	// initial BWPs carry these; notes give back what the fields say
+	// otherwise: pos2 written out, a default initial BWP the plan left
+	// out, a BWP placed by startCrb/sizePrb or by naming a partition.
+	{"initialAccess.controlResourceSetZero", false, iaField(func(ia *grid.InitialAccessPlan) any { return &ia.ControlResourceSetZero })},
+	{"initialAccess.searchSpaceZero", false, iaField(func(ia *grid.InitialAccessPlan) any { return &ia.SearchSpaceZero })},
+	{"initialAccess.dmrsTypeAPosition", false, iaField(func(ia *grid.InitialAccessPlan) any { return &ia.DMRSTypeAPosition })},
+	{"initialAccess.initialDownlinkBWP", false, iaField(func(ia *grid.InitialAccessPlan) any { return &ia.InitialDownlinkBWP })},
+	{"initialAccess.initialUplinkBWP", false, iaField(func(ia *grid.InitialAccessPlan) any { return &ia.InitialUplinkBWP })},
 }
 
 type partitionKey struct {
@@ -72,6 +95,12 @@ var partitionKeys = []partitionKey{
 	{"direction", false, func(p *grid.PartitionPlan) any { return &p.Direction }},
 	{"layers", false, func(p *grid.PartitionPlan) any { return &p.Layers }},
 	{"modulation", false, func(p *grid.PartitionPlan) any { return &p.Modulation }},
+	// The timing keys have no field in the IEs written: the processing
+	// capability is the UE's (UE-NR-Capability), and dmrs-AdditionalPosition
+	// lives in DMRS-DownlinkConfig under PDSCH-Config of bwp-Dedicated,
+	// which gridloom does not write.
+	{"ueCapability", false, func(p *grid.PartitionPlan) any { return &p.UECapability }},
+	{"dmrsAdditionalPosition", false, func(p *grid.PartitionPlan) any { return &p.DMRSAdditionalPosition }},
 }
 
 // noteJSON writes a value for a note. "--" would end an ASN.1 comment, so
@@ -136,6 +165,10 @@ func applyNotes(doc *asn1v.Document, p *grid.Plan) (bool, error) {
 			return applied, &Error{Pos: c.Pos, Field: key, Msg: fmt.Sprintf("%q is not a gridloom note key at the top of the text; use %s.", key, planKeyList())}
 		}
 		dst := planKeys[i].ptr(p)
+		if dst == nil && strings.HasPrefix(key, "initialAccess.") {
+			p.InitialAccess = &grid.InitialAccessPlan{}
+			dst = planKeys[i].ptr(p)
+		}
 		if dst == nil {
 			return applied, &Error{Pos: c.Pos, Field: key, Msg: fmt.Sprintf("The note %s applies to SS/PBCH blocks, but the text places none (it needs offsetToPointA and ssbSubcarrierSpacing).", key)}
 		}
