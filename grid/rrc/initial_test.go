@@ -2,10 +2,12 @@ package rrc_test
 
 import (
 	"os"
+	"strings"
 	"testing"
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
+	"gridloom/grid/rrc"
 )
 
 // initialPlans are plans with initial access and the timing keys, each
@@ -60,5 +62,90 @@ func TestRoundTripInitialAccess(t *testing.T) {
 			}
 			roundTrip(t, name, p)
 		})
+	}
+}
+
+// With initialAccess the MIB bits carry pdcch-ConfigSIB1 and
+// dmrs-TypeA-Position from the plan. The campus plan with pos3 has
+// subCarrierSpacingCommon scs30or120 (FR1, 30 kHz), k_SSB 16 (GSCN 8016,
+// TestMIBForPlan), controlResourceSetZero 2 and searchSpaceZero 0; with
+// SFN 0 the 24 bits of BCCH-BCH-Message are, by X.691 unaligned PER field
+// by field (EncodeMIB's layout): message mib 0, systemFrameNumber 000000,
+// subCarrierSpacingCommon 1, ssb-SubcarrierOffset 16 mod 16 = 0000,
+// dmrs-TypeA-Position pos3 = 1, controlResourceSetZero 0010,
+// searchSpaceZero 0000, cellBarred notBarred = 1 (second of {barred,
+// notBarred}), intraFreqReselection allowed = 0, spare 0.
+func TestMIBForPlanInitialAccess(t *testing.T) {
+	p := initialPlans(t)["campus-partition-pos3"]
+	m, timing, err := rrc.MIBForPlan(grid.Compute(p))
+	if err != nil {
+		t.Fatal(err)
+	}
+	bits, err := rrc.EncodeMIB(m, timing)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := "0" + "000000" + "1" + "0000" + "1" + "0010" + "0000" + "1" + "0" + "0"
+	if bits.Binary() != want || bits.Hex() != "010904" {
+		t.Errorf("MIB bits %s (%s), want %s (010904)", bits.Binary(), bits.Hex(), want)
+	}
+	// The value notation says the same MIB.
+	text, err := rrc.Encode(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, f := range []string{"dmrs-TypeA-Position pos3", "controlResourceSetZero 2", "searchSpaceZero 0"} {
+		if !strings.Contains(string(text), f) {
+			t.Errorf("the value notation lacks %q:\n%s", f, text)
+		}
+	}
+	// Without initialAccess the MIB leaves them to the caller: zero.
+	p.InitialAccess = nil
+	m, _, err = rrc.MIBForPlan(grid.Compute(p))
+	if err != nil || m.ControlResourceSetZero != 0 || m.SearchSpaceZero != 0 || m.DMRSTypeAPosition != 0 {
+		t.Errorf("MIB without initialAccess %+v, %v", m, err)
+	}
+}
+
+// The reader refuses initial-access fields that contradict each other or
+// leave their ASN.1 range, naming the field, and skips initial BWPs it
+// cannot tie to a CORESET#0.
+func TestDecodeInitialAccessRefuses(t *testing.T) {
+	const base = "f FrequencyInfoDL ::= { scs-SpecificCarrierList { { offsetToCarrier 0, subcarrierSpacing kHz30, carrierBandwidth 106 } } }\n"
+	const mib = "m MIB ::= { ssb-SubcarrierOffset 0, dmrs-TypeA-Position pos2, pdcch-ConfigSIB1 { controlResourceSetZero 2, searchSpaceZero 0 } }\n"
+	for _, c := range []struct{ name, text, want string }{
+		{"n-TimingAdvanceOffset value", base + "s ServingCellConfigCommon ::= { n-TimingAdvanceOffset n13792 }", "n-TimingAdvanceOffset n13792 is not a value; use n0, n25600 or n39936"},
+		{"dmrs copies differ", base + mib + "s ServingCellConfigCommon ::= { dmrs-TypeA-Position pos3 }", "ServingCellConfigCommon.dmrs-TypeA-Position is pos3, but MIB.dmrs-TypeA-Position at line 2"},
+		{"dmrs value", base + "m MIB ::= { dmrs-TypeA-Position pos4 }", "MIB.dmrs-TypeA-Position pos4 is not a value; use pos2 or pos3"},
+		{"CORESET#0 copies differ", base + mib + "s ServingCellConfigCommonSIB ::= { downlinkConfigCommon { initialDownlinkBWP { genericParameters { locationAndBandwidth 28875, subcarrierSpacing kHz30 }, pdcch-ConfigCommon { controlResourceSetZero 3, searchSpaceZero 0 } } } }",
+			"says controlResourceSetZero 3 and searchSpaceZero 0, but MIB.pdcch-ConfigSIB1 at line 2"},
+		{"searchSpaceZero range", base + "m MIB ::= { pdcch-ConfigSIB1 { controlResourceSetZero 2, searchSpaceZero 16 } }", "searchSpaceZero is 16"},
+		{"pdcch-ConfigSIB1 half", base + "m MIB ::= { pdcch-ConfigSIB1 { controlResourceSetZero 2 } }", "MIB.pdcch-ConfigSIB1 needs controlResourceSetZero and searchSpaceZero"},
+		{"generic missing", base + mib + "s ServingCellConfigCommonSIB ::= { downlinkConfigCommon { initialDownlinkBWP { pdcch-ConfigCommon { controlResourceSetZero 2, searchSpaceZero 0 } } } }", "initialDownlinkBWP needs genericParameters"},
+	} {
+		if _, err := rrc.Decode([]byte(c.text)); err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%s: Decode = %v, want an error saying %q", c.name, err, c.want)
+		}
+	}
+
+	// An initial BWP without controlResourceSetZero and searchSpaceZero
+	// anywhere is skipped and listed; the plan gets no initialAccess.
+	d, err := rrc.Decode([]byte(base + "s ServingCellConfigCommonSIB ::= { downlinkConfigCommon { initialDownlinkBWP { genericParameters { locationAndBandwidth 28875, subcarrierSpacing kHz30 } } } }"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if d.Plan.InitialAccess != nil || !strings.Contains(strings.Join(d.Skipped, "; "), "initialDownlinkBWP (no controlResourceSetZero and searchSpaceZero) (line 2)") {
+		t.Errorf("initialAccess %+v, skipped %q", d.Plan.InitialAccess, d.Skipped)
+	}
+	// pdcch-ConfigCommon alone, with no MIB, is enough; n25600 reads as
+	// given.
+	d, err = rrc.Decode([]byte(base + "s ServingCellConfigCommonSIB ::= { downlinkConfigCommon { initialDownlinkBWP { genericParameters { locationAndBandwidth 28875, subcarrierSpacing kHz30, cyclicPrefix extended }, pdcch-ConfigCommon { controlResourceSetZero 4, searchSpaceZero 1 } } } }\nc ServingCellConfigCommon ::= { n-TimingAdvanceOffset n25600, dmrs-TypeA-Position pos3 }"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	ia := d.Plan.InitialAccess
+	if d.Plan.Carrier.NTAOffset != "n25600" || ia == nil || ia.ControlResourceSetZero != 4 || ia.SearchSpaceZero != 1 || ia.DMRSTypeAPosition != "pos3" ||
+		ia.InitialDownlinkBWP == nil || ia.InitialDownlinkBWP.CyclicPrefix != "extended" || *ia.InitialDownlinkBWP.LocationAndBandwidth != 28875 {
+		t.Errorf("nTaOffset %q, initialAccess %+v", d.Plan.Carrier.NTAOffset, ia)
 	}
 }

@@ -215,14 +215,16 @@ func EncodeMIB(m MIB, t PBCHTiming) (MIBBits, error) {
 	return MIBBits{Message: fields, Payload: payload}, nil
 }
 
-// MIBForPlan starts a MIB from what a computed plan sets — k_SSB and, in
-// FR1 and FR2-1, subCarrierSpacingCommon from ssb.scsCommonKHz — and returns the
+// MIBForPlan starts a MIB from what a computed plan sets — k_SSB, in FR1
+// and FR2-1 subCarrierSpacingCommon from ssb.scsCommonKHz, and with
+// initialAccess pdcch-ConfigSIB1 and dmrs-TypeA-Position — and returns the
 // PBCH timing of its blocks (frequency range and L_max) for block 0, with
-// k_SSB and subCarrierSpacingCommon as Compute resolved them (a block
-// placed by ssb.gscn, the default common spacing). The rest of the MIB
-// (SFN, pdcch-ConfigSIB1, dmrs-TypeA-Position, cellBarred,
-// intraFreqReselection, and subCarrierSpacingCommon in FR2-2) is the
-// caller's to choose: the plan does not hold it.
+// the values as Compute resolved them (a block placed by ssb.gscn, the
+// default common spacing, pos2 for an unset dmrsTypeAPosition). The rest
+// of the MIB (SFN, cellBarred, intraFreqReselection, subCarrierSpacingCommon
+// in FR2-2, and pdcch-ConfigSIB1 and dmrs-TypeA-Position for a plan
+// without initialAccess) is the caller's to choose: the plan does not hold
+// it.
 func MIBForPlan(r grid.Result) (MIB, PBCHTiming, error) {
 	if r.SSB == nil {
 		return MIB{}, PBCHTiming{}, fmt.Errorf("The plan places no SS/PBCH blocks, so it has no MIB; give ssb.")
@@ -238,6 +240,12 @@ func MIBForPlan(r grid.Result) (MIB, PBCHTiming, error) {
 			return MIB{}, PBCHTiming{}, err
 		}
 		m.SubCarrierSpacingCommon = s
+	}
+	if ia := r.InitialAccess; ia != nil {
+		m.ControlResourceSetZero, m.SearchSpaceZero = coreset0.SplitPDCCHConfigSIB1(uint8(ia.MIB.PDCCHConfigSIB1))
+		if ia.MIB.DMRSTypeAPosition == coreset0.Pos3.String() {
+			m.DMRSTypeAPosition = coreset0.Pos3
+		}
 	}
 	return m, t, nil
 }

@@ -105,6 +105,9 @@ func exportPlans(t *testing.T) map[string]grid.Plan {
 	for name, p := range extraPlans() {
 		out[name] = p
 	}
+	for name, p := range initialPlans(t) {
+		out[name] = p
+	}
 	return out
 }
 
@@ -198,6 +201,11 @@ func TestWrittenNamesAreTS38331(t *testing.T) {
 		checked++
 	}
 	t.Logf("%d field names and %d enumeration values written, all in the names table", len(fields), checked)
+	for _, f := range []string{"n-TimingAdvanceOffset", "dmrs-TypeA-Position", "pdcch-ConfigSIB1", "pdcch-ConfigCommon", "controlResourceSetZero", "searchSpaceZero", "initialDownlinkBWP", "initialUplinkBWP"} {
+		if !fields[f] {
+			t.Errorf("no plan writes %s; the check does not reach it", f)
+		}
+	}
 	if len(fields) < 30 || checked < 8 {
 		t.Errorf("only %d fields and %d values written; the plans should reach every branch", len(fields), checked)
 	}

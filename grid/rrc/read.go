@@ -111,7 +111,7 @@ func agree(q, p grid.Plan) error {
 	if res.HasErrors() {
 		return nil
 	}
-	doc, err := build(res)
+	doc, err := build(p, res)
 	if err != nil {
 		return nil
 	}
@@ -128,6 +128,8 @@ func agree(q, p grid.Plan) error {
 		{"scs-SpecificCarrierList (carrierBandwidth)", q.Carrier.CarrierBandwidth, q2.Carrier.CarrierBandwidth},
 		{"tdd-UL-DL-ConfigurationCommon", q.TDD, q2.TDD},
 		{"frequencyBandList", q.Carrier.Band, q2.Carrier.Band},
+		{"n-TimingAdvanceOffset", q.Carrier.NTAOffset, q2.Carrier.NTAOffset},
+		{"pdcch-ConfigSIB1, dmrs-TypeA-Position and the initial BWPs", q.InitialAccess, q2.InitialAccess},
 	}
 	if q.Carrier.CenterMHz != nil {
 		checks = append(checks, pair{"absoluteFrequencyPointA", deref(q.Carrier.CenterMHz), deref(q2.Carrier.CenterMHz)})
@@ -344,6 +346,11 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 		return nil
 	}
 	var ssbSCS, offsetToPointA, kSSB, common, period, pointA, ssbARFCNv *asn1v.Value
+	// Initial access: pdcch-ConfigSIB1 of the MIB and PDCCH-ConfigCommon of
+	// the initial downlink BWP, dmrs-TypeA-Position of the MIB and of
+	// ServingCellConfigCommon; each pair must agree.
+	var ia initialFields
+	var nTA *asn1v.Value
 	var bitmap string
 	var bitmapAt *asn1v.Value
 
@@ -360,11 +367,26 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 			}
 			v = msg.Elems[0]
 		}
-		m, err := rd.seq(v, typeMIB, "subCarrierSpacingCommon", "ssb-SubcarrierOffset")
+		m, err := rd.seq(v, typeMIB, "subCarrierSpacingCommon", "ssb-SubcarrierOffset", "dmrs-TypeA-Position", "pdcch-ConfigSIB1")
 		if err != nil {
 			return p, err
 		}
 		common, kSSB = m["subCarrierSpacingCommon"], m["ssb-SubcarrierOffset"]
+		if err := ia.takeDMRS(m["dmrs-TypeA-Position"], "MIB.dmrs-TypeA-Position"); err != nil {
+			return p, err
+		}
+		if pc := m["pdcch-ConfigSIB1"]; pc != nil {
+			pm, err := rd.seq(pc, "PDCCH-ConfigSIB1", "controlResourceSetZero", "searchSpaceZero")
+			if err != nil {
+				return p, err
+			}
+			if pm["controlResourceSetZero"] == nil || pm["searchSpaceZero"] == nil {
+				return p, fail(pc, "MIB.pdcch-ConfigSIB1", "MIB.pdcch-ConfigSIB1 needs controlResourceSetZero and searchSpaceZero, each 0 to 15.")
+			}
+			if err := ia.takePDCCH(pm["controlResourceSetZero"], pm["searchSpaceZero"], "MIB.pdcch-ConfigSIB1"); err != nil {
+				return p, err
+			}
+		}
 	}
 
 	sibValue := (*asn1v.Value)(nil)
@@ -388,9 +410,31 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 			return p, err
 		}
 		if dl := m["downlinkConfigCommon"]; dl != nil {
-			dm, err := rd.seq(dl, path+".downlinkConfigCommon", "frequencyInfoDL")
+			dm, err := rd.seq(dl, path+".downlinkConfigCommon", "frequencyInfoDL", "initialDownlinkBWP")
 			if err != nil {
 				return p, err
+			}
+			if b := dm["initialDownlinkBWP"]; b != nil {
+				const bp = "DownlinkConfigCommonSIB.initialDownlinkBWP"
+				bm, err := rd.seq(b, bp, "genericParameters", "pdcch-ConfigCommon")
+				if err != nil {
+					return p, err
+				}
+				if ia.dl, err = rd.initialBWP(b, bm["genericParameters"], bp); err != nil {
+					return p, err
+				}
+				ia.dlAt = b
+				if pc := bm["pdcch-ConfigCommon"]; pc != nil {
+					pm, err := rd.seq(pc, "PDCCH-ConfigCommon", "controlResourceSetZero", "searchSpaceZero")
+					if err != nil {
+						return p, err
+					}
+					if pm["controlResourceSetZero"] != nil && pm["searchSpaceZero"] != nil {
+						if err := ia.takePDCCH(pm["controlResourceSetZero"], pm["searchSpaceZero"], bp+".pdcch-ConfigCommon"); err != nil {
+							return p, err
+						}
+					}
+				}
 			}
 			if f := dm["frequencyInfoDL"]; f != nil {
 				fm, err := rd.seq(f, "FrequencyInfoDL-SIB", "frequencyBandList", "offsetToPointA", "scs-SpecificCarrierList")
@@ -407,9 +451,20 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 			}
 		}
 		if ul := m["uplinkConfigCommon"]; ul != nil {
-			um, err := rd.seq(ul, path+".uplinkConfigCommon", "frequencyInfoUL")
+			um, err := rd.seq(ul, path+".uplinkConfigCommon", "frequencyInfoUL", "initialUplinkBWP")
 			if err != nil {
 				return p, err
+			}
+			if b := um["initialUplinkBWP"]; b != nil {
+				const bp = "UplinkConfigCommonSIB.initialUplinkBWP"
+				bm, err := rd.seq(b, bp, "genericParameters")
+				if err != nil {
+					return p, err
+				}
+				if ia.ul, err = rd.initialBWP(b, bm["genericParameters"], bp); err != nil {
+					return p, err
+				}
+				ia.ulAt = b
 			}
 			if f := um["frequencyInfoUL"]; f != nil {
 				fm, err := rd.seq(f, "FrequencyInfoUL-SIB", "scs-SpecificCarrierList")
@@ -459,8 +514,12 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 	freqDL := (*asn1v.Value)(nil)
 	if a, ok := single[typeSCC]; ok {
 		const path = typeSCC
-		m, err := rd.seq(a.Value, path, "downlinkConfigCommon", "ssb-PositionsInBurst", "ssbSubcarrierSpacing", "ssb-periodicityServingCell", "tdd-UL-DL-ConfigurationCommon")
+		m, err := rd.seq(a.Value, path, "downlinkConfigCommon", "n-TimingAdvanceOffset", "ssb-PositionsInBurst", "dmrs-TypeA-Position", "ssbSubcarrierSpacing", "ssb-periodicityServingCell", "tdd-UL-DL-ConfigurationCommon")
 		if err != nil {
+			return p, err
+		}
+		nTA = m["n-TimingAdvanceOffset"]
+		if err := ia.takeDMRS(m["dmrs-TypeA-Position"], path+".dmrs-TypeA-Position"); err != nil {
 			return p, err
 		}
 		if dl := m["downlinkConfigCommon"]; dl != nil {
@@ -571,6 +630,17 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 	if bandAt != nil {
 		p.Carrier.Band = fmt.Sprintf("n%d", bandN)
 	}
+	if nTA != nil {
+		name, err := ident(nTA, "n-TimingAdvanceOffset", grid.JoinOr(grid.NTAOffsets))
+		if err != nil {
+			return p, err
+		}
+		if !slices.Contains(grid.NTAOffsets, name) {
+			return p, fail(nTA, "n-TimingAdvanceOffset", "n-TimingAdvanceOffset %s is not a value; use %s (TS 38.331 ServingCellConfigCommon).", name, grid.JoinOr(grid.NTAOffsets))
+		}
+		p.Carrier.NTAOffset = name
+	}
+	p.InitialAccess = rd.initialAccess(&ia)
 	p.Carrier.OffsetToCarrier = map[int]int{}
 	p.Carrier.CarrierBandwidth = map[int]int{}
 	for scs, c := range carriers {

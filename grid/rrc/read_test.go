@@ -35,7 +35,7 @@ sib1 SIB1 ::= {
   }
 }
 bch BCCH-BCH-Message ::= { message mib : { systemFrameNumber '000000'B, subCarrierSpacingCommon scs30or120,
-  ssb-SubcarrierOffset 0, dmrs-TypeA-Position pos2, pdcch-ConfigSIB1 { controlResourceSetZero 12, searchSpaceZero 0 },
+  ssb-SubcarrierOffset 0, dmrs-TypeA-Position pos2, pdcch-ConfigSIB1 { controlResourceSetZero 2, searchSpaceZero 0 },
   cellBarred notBarred, intraFreqReselection allowed, spare '0'B } }
 sib2 SIB2 ::= { cellReselectionInfoCommon { q-Hyst dB0 } }
 scc ServingCellConfigCommon ::= { physCellId 1, ssbSubcarrierSpacing kHz30,
@@ -54,6 +54,11 @@ scc ServingCellConfigCommon ::= { physCellId 1, ssbSubcarrierSpacing kHz30,
 //	TDD: 5 ms on 30 kHz, 7 DL slots + 6 symbols, 2 UL slots + 4 symbols
 //	SS/PBCH: 30 kHz blocks, offsetToPointA 24, k_SSB 0, block 0 only, 20 ms,
 //	  subCarrierSpacingCommon scs30or120, which is 30 kHz in FR1
+//	initial access: pdcch-ConfigSIB1 row 2 of TS 38.213 Table 13-4 (24 RBs,
+//	  2 symbols, offset 2 RBs) and row 0 of Table 13-11; the block's first
+//	  RB is CRB 24·15/30 = 12 (k_SSB 0), so CORESET#0 is CRBs 10 to 33;
+//	  dmrs-TypeA-Position pos2, which a plan leaves out; the initial
+//	  downlink BWP RIV 28875 = 275·(106 − 1) + 0, the whole carrier
 //
 // The log's block is off the synchronization raster, and the reader keeps
 // it as the log says: reading does not judge, Compute does. Its SS_REF is
@@ -86,11 +91,18 @@ func TestDecodeLog(t *testing.T) {
 		t.Errorf("ssb %+v", s)
 	}
 	for _, skipped := range []string{"sib2 SIB2 (line 24)", "SIB1.cellSelectionInfo (line 4)", "ServingCellConfigCommonSIB.ss-PBCH-BlockPower (line 6)",
-		"ServingCellConfigCommonSIB.downlinkConfigCommon.initialDownlinkBWP (line 14)",
 		"MIB.systemFrameNumber (line 21)", "ServingCellConfigCommon.physCellId (line 25)"} {
 		if !strings.Contains(strings.Join(d.Skipped, "; "), skipped) {
 			t.Errorf("Skipped %q does not list %s", d.Skipped, skipped)
 		}
+	}
+	if ia := p.InitialAccess; ia == nil || ia.ControlResourceSetZero != 2 || ia.SearchSpaceZero != 0 || ia.DMRSTypeAPosition != "" ||
+		ia.InitialDownlinkBWP == nil || *ia.InitialDownlinkBWP != (grid.InitialBWPPlan{LocationAndBandwidth: ia.InitialDownlinkBWP.LocationAndBandwidth, SubcarrierSpacingKHz: 30}) ||
+		*ia.InitialDownlinkBWP.LocationAndBandwidth != 28875 || ia.InitialUplinkBWP != nil {
+		t.Errorf("initialAccess %+v, want controlResourceSetZero 2, searchSpaceZero 0, pos2 and the initial downlink BWP at RIV 28875, 30 kHz", ia)
+	}
+	if r := grid.Compute(p); r.InitialAccess == nil || r.InitialAccess.CORESET0.StartCRB != 10 || r.InitialAccess.CORESET0.NRB != 24 {
+		t.Errorf("CORESET#0 of the logged cell is not CRBs 10 to 33: %+v", r.InitialAccess)
 	}
 	var errs []grid.Finding
 	for _, f := range grid.Compute(p).Findings {

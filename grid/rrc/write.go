@@ -45,7 +45,7 @@ func Document(p grid.Plan) (*asn1v.Document, error) {
 			return nil, fmt.Errorf("The plan has errors, so it is not exported; the first: %s", f.Message)
 		}
 	}
-	doc, err := build(res)
+	doc, err := build(p, res)
 	if err != nil {
 		return nil, err
 	}
@@ -68,7 +68,10 @@ var header = []string{
 }
 
 // build writes the RRC fields of a computed plan without error findings.
-func build(r grid.Result) (*asn1v.Document, error) {
+// given is the plan as written, before Compute filled in defaults: a field
+// whose absence means the default (n-TimingAdvanceOffset, Need S in TS
+// 38.331) is written only when the plan gives it.
+func build(given grid.Plan, r grid.Result) (*asn1v.Document, error) {
 	doc := &asn1v.Document{}
 	for _, h := range header {
 		doc.Comments = append(doc.Comments, asn1v.Comment{Text: h})
@@ -95,19 +98,28 @@ func build(r grid.Result) (*asn1v.Document, error) {
 		asn1v.F("scs-SpecificCarrierList", carriers),
 	)
 	noteBand(freqDL, r)
-	dl := asn1v.Seq(asn1v.F("frequencyInfoDL", freqDL)).
-		Note("not set by the plan: initialDownlinkBWP, bcch-Config, pcch-Config")
+	initDL, initUL, whyDL, whyUL := initialBWPs(r)
+	dl := asn1v.Seq(asn1v.F("frequencyInfoDL", freqDL), asn1v.F("initialDownlinkBWP", initDL)).
+		Note("not set by the plan: bcch-Config, pcch-Config")
+	if whyDL != "" {
+		dl.Note(whyDL)
+	}
 	var ul *asn1v.Value
+	hasUL := initUL != nil
 	for _, l := range r.Partitions {
-		if l.Direction == grid.UL {
-			leftUL := "not set by the plan: frequencyBandList"
-			if _, ok := bandNumber(r); ok {
-				leftUL = "frequencyBandList is left out: gridloom writes carrier.band in the downlink's lists only"
-			}
-			ul = asn1v.Seq(asn1v.F("frequencyInfoUL",
-				asn1v.Seq(asn1v.F("scs-SpecificCarrierList", carrierList(r))).Note(leftUL))).
-				Note("not set by the plan: initialUplinkBWP, timeAlignmentTimerCommon")
-			break
+		hasUL = hasUL || l.Direction == grid.UL
+	}
+	if hasUL {
+		leftUL := "not set by the plan: frequencyBandList"
+		if _, ok := bandNumber(r); ok {
+			leftUL = "frequencyBandList is left out: gridloom writes carrier.band in the downlink's lists only"
+		}
+		ul = asn1v.Seq(
+			asn1v.F("frequencyInfoUL", asn1v.Seq(asn1v.F("scs-SpecificCarrierList", carrierList(r))).Note(leftUL)),
+			asn1v.F("initialUplinkBWP", initUL),
+		).Note("not set by the plan: timeAlignmentTimerCommon")
+		if whyUL != "" {
+			ul.Note(whyUL)
 		}
 	}
 	var burst, period *asn1v.Value
@@ -154,12 +166,22 @@ func build(r grid.Result) (*asn1v.Document, error) {
 		ssbSCS = asn1v.Ident(scsName(r.SSB.Numerology.SCSKHz()))
 		longBurst = sccBitmap(ssbBits)
 	}
+	var nTA, dmrsA *asn1v.Value
+	if given.Carrier.NTAOffset != "" {
+		nTA = asn1v.Ident(p.Carrier.NTAOffset) // as Compute spelt it
+	}
+	left := "not set by the plan: physCellId, dmrs-TypeA-Position, ss-PBCH-BlockPower"
+	if ia := r.InitialAccess; ia != nil {
+		dmrsA = asn1v.Ident(ia.MIB.DMRSTypeAPosition)
+		left = "not set by the plan: physCellId, ss-PBCH-BlockPower"
+	}
 	scc := asn1v.Seq(
-		asn1v.F("downlinkConfigCommon", asn1v.Seq(asn1v.F("frequencyInfoDL", freq)).Note("not set by the plan: initialDownlinkBWP")),
+		asn1v.F("downlinkConfigCommon", asn1v.Seq(asn1v.F("frequencyInfoDL", freq)).Note("initialDownlinkBWP is left out: ServingCellConfigCommonSIB above carries the initial BWPs")),
+		asn1v.F("n-TimingAdvanceOffset", nTA),
 		asn1v.F("ssb-PositionsInBurst", longBurst),
+		asn1v.F("dmrs-TypeA-Position", dmrsA),
 		asn1v.F("ssbSubcarrierSpacing", ssbSCS),
-	).Note("only the fields issue 18 asks for are written; ServingCellConfigCommonSIB above has the rest",
-		"not set by the plan: physCellId, dmrs-TypeA-Position, ss-PBCH-BlockPower")
+	).Note("only the fields issue 18 asks for are written, with n-TimingAdvanceOffset and dmrs-TypeA-Position when the plan sets them; ServingCellConfigCommonSIB above has the rest", left)
 	add("servingCellConfigCommon", typeSCC, scc)
 
 	dlID, ulID := 0, 0
@@ -267,7 +289,7 @@ func mibValue(r grid.Result) *asn1v.Value {
 	var common *asn1v.Value
 	v := asn1v.Seq()
 	if r.Channel.Range == grid.FR2_2 {
-		v.Note("not set by the plan: systemFrameNumber, dmrs-TypeA-Position, pdcch-ConfigSIB1, cellBarred, intraFreqReselection, spare",
+		v.Note(mibLeft(r),
 			"subCarrierSpacingCommon is left out: gridloom does not map it in FR2-2")
 	} else {
 		fr := coreset0.FR1
@@ -277,7 +299,7 @@ func mibValue(r grid.Result) *asn1v.Value {
 		if c, err := coreset0.SubCarrierSpacingCommonFor(fr, s.ScsCommonKHz); err == nil {
 			common = asn1v.Ident(c.String())
 		}
-		v.Note("not set by the plan: systemFrameNumber, dmrs-TypeA-Position, pdcch-ConfigSIB1, cellBarred, intraFreqReselection, spare")
+		v.Note(mibLeft(r))
 		if r.Channel.Range == grid.FR1 && s.KSSB >= 16 {
 			msg := fmt.Sprintf("k_SSB is %d: ssb-SubcarrierOffset carries its 4 least significant bits and PBCH payload bit a(A+5) its most significant (TS 38.212 7.1.1)", s.KSSB)
 			if _, ok := ssbARFCN(r); ok {
@@ -290,7 +312,71 @@ func mibValue(r grid.Result) *asn1v.Value {
 		v.Fields = append(v.Fields, asn1v.F("subCarrierSpacingCommon", common))
 	}
 	v.Fields = append(v.Fields, asn1v.F("ssb-SubcarrierOffset", asn1v.Int(s.KSSB&15)))
+	if ia := r.InitialAccess; ia != nil {
+		cs0, ss0 := coreset0.SplitPDCCHConfigSIB1(uint8(ia.MIB.PDCCHConfigSIB1))
+		v.Fields = append(v.Fields,
+			asn1v.F("dmrs-TypeA-Position", asn1v.Ident(ia.MIB.DMRSTypeAPosition)),
+			asn1v.F("pdcch-ConfigSIB1", asn1v.Seq(
+				asn1v.F("controlResourceSetZero", asn1v.Int(cs0)),
+				asn1v.F("searchSpaceZero", asn1v.Int(ss0)),
+			)))
+	}
 	return v
+}
+
+// mibLeft lists the MIB fields the plan does not set: pdcch-ConfigSIB1 and
+// dmrs-TypeA-Position come from initialAccess when the plan has it.
+func mibLeft(r grid.Result) string {
+	if r.InitialAccess != nil {
+		return "not set by the plan: systemFrameNumber, cellBarred, intraFreqReselection, spare"
+	}
+	return "not set by the plan: systemFrameNumber, dmrs-TypeA-Position, pdcch-ConfigSIB1, cellBarred, intraFreqReselection, spare"
+}
+
+// initialBWPs writes SIB1's initialDownlinkBWP (BWP-DownlinkCommon) and
+// initialUplinkBWP (BWP-UplinkCommon) as Compute placed them: the
+// genericParameters of each and, for the downlink, the two fields of
+// PDCCH-ConfigCommon the plan determines, controlResourceSetZero and
+// searchSpaceZero (TS 38.331 PDCCH-ConfigCommon: present in the initial
+// BWP, Cond InitialBWP-Only). A BWP that no RIV from its spacing's
+// offsetToCarrier says is left out, and why says so.
+func initialBWPs(r grid.Result) (dl, ul *asn1v.Value, whyDL, whyUL string) {
+	ia := r.InitialAccess
+	if ia == nil {
+		return nil, nil, "not set by the plan: initialDownlinkBWP (the plan has no initialAccess)", ""
+	}
+	generic := func(b grid.InitialBWP) *asn1v.Value {
+		var cp *asn1v.Value
+		if b.CP == grid.ExtendedCP.String() {
+			cp = asn1v.Ident("extended")
+		}
+		return asn1v.Seq(
+			asn1v.F("locationAndBandwidth", asn1v.Int(b.LocationAndBandwidth)),
+			asn1v.F("subcarrierSpacing", asn1v.Ident(scsName(b.SCSKHz))),
+			asn1v.F("cyclicPrefix", cp),
+		)
+	}
+	if ia.InitialDL.LocationAndBandwidth < 0 {
+		whyDL = "initialDownlinkBWP is left out: no locationAndBandwidth from its spacing's offsetToCarrier says it"
+	} else {
+		cs0, ss0 := coreset0.SplitPDCCHConfigSIB1(uint8(ia.MIB.PDCCHConfigSIB1))
+		dl = asn1v.Seq(
+			asn1v.F("genericParameters", generic(ia.InitialDL)),
+			asn1v.F("pdcch-ConfigCommon", asn1v.Seq(
+				asn1v.F("controlResourceSetZero", asn1v.Int(cs0)),
+				asn1v.F("searchSpaceZero", asn1v.Int(ss0)),
+			).Note("not set by the plan: commonControlResourceSet, commonSearchSpaceList, searchSpaceSIB1, searchSpaceOtherSystemInformation, pagingSearchSpace, ra-SearchSpace")),
+		).Note("not set by the plan: pdsch-ConfigCommon")
+	}
+	switch {
+	case ia.InitialUL == nil:
+	case ia.InitialUL.LocationAndBandwidth < 0:
+		whyUL = "initialUplinkBWP is left out: no locationAndBandwidth from its spacing's offsetToCarrier says it"
+	default:
+		ul = asn1v.Seq(asn1v.F("genericParameters", generic(*ia.InitialUL))).
+			Note("not set by the plan: rach-ConfigCommon, pusch-ConfigCommon, pucch-ConfigCommon")
+	}
+	return dl, ul, whyDL, whyUL
 }
 
 // sibBitmap splits an SS/PBCH bitmap into ServingCellConfigCommonSIB's
