@@ -112,6 +112,33 @@ func planFrom(data []byte) grid.Plan {
 	if b.n(2) == 1 {
 		p.Carrier.Band = []string{"n78", "N77", "n41", "n1", "n257", "n258"}[b.n(6)]
 	}
+	// The timing keys and initial access, added with them.
+	p.Carrier.NTAOffset = []string{"", "", "n0", "n25600", "n39936", "N25600"}[b.n(6)]
+	for i := range p.Partitions {
+		p.Partitions[i].UECapability = b.n(3)
+		p.Partitions[i].DMRSAdditionalPosition = []string{"", "pos0", "pos1", "pos2", "pos3"}[b.n(5)]
+	}
+	if b.n(3) == 1 {
+		p.Environment = &grid.EnvironmentPlan{CellRadiusKm: float64(b.n(20)) / 2, LatencyTargetMs: float64(b.n(10))}
+	}
+	if p.SSB != nil && b.n(2) == 1 {
+		ia := &grid.InitialAccessPlan{ControlResourceSetZero: b.n(16), SearchSpaceZero: b.n(4), DMRSTypeAPosition: []string{"", "pos2", "pos3"}[b.n(3)]}
+		bwp := func() *grid.InitialBWPPlan {
+			start, size := b.n(20)*2, b.n(30)+24
+			switch b.n(4) {
+			case 1:
+				return &grid.InitialBWPPlan{Partition: p.Partitions[0].Name}
+			case 2:
+				return &grid.InitialBWPPlan{StartCRB: &start, SizePRB: size}
+			case 3:
+				riv, _ := grid.EncodeRIV(start, size)
+				return &grid.InitialBWPPlan{LocationAndBandwidth: &riv, CyclicPrefix: []string{"", "normal"}[b.n(2)]}
+			}
+			return nil
+		}
+		ia.InitialDownlinkBWP, ia.InitialUplinkBWP = bwp(), bwp()
+		p.InitialAccess = ia
+	}
 	return p
 }
 
@@ -169,9 +196,9 @@ func FuzzDecode(f *testing.F) {
 // offsets at an absolute frequency).
 func TestRoundTripRandomPlans(t *testing.T) {
 	r := rand.New(rand.NewSource(18))
-	exported, withSSB, withTDD, withBand, withGSCN := 0, 0, 0, 0, 0
-	for range 20000 {
-		b := make([]byte, 60)
+	exported, withSSB, withTDD, withBand, withGSCN, withIA, withNTA := 0, 0, 0, 0, 0, 0, 0
+	for range 40000 {
+		b := make([]byte, 90)
 		r.Read(b)
 		p := planFrom(b)
 		if _, err := rrc.Encode(p); err != nil {
@@ -190,10 +217,16 @@ func TestRoundTripRandomPlans(t *testing.T) {
 		if p.SSB != nil && p.SSB.GSCN != nil {
 			withGSCN++
 		}
+		if p.InitialAccess != nil {
+			withIA++
+		}
+		if p.Carrier.NTAOffset != "" {
+			withNTA++
+		}
 		roundTrip(t, "generated", p)
 	}
-	t.Logf("%d plans exported and read back (%d with SS/PBCH blocks, %d placed by GSCN, %d with TDD, %d naming a band)", exported, withSSB, withGSCN, withTDD, withBand)
-	if exported < 100 || withSSB < 20 || withTDD < 20 || withGSCN < 3 || withBand < 10 {
-		t.Errorf("only %d plans (%d SS/PBCH, %d by GSCN, %d TDD, %d with a band) reached the round trip; the generator should reach more", exported, withSSB, withGSCN, withTDD, withBand)
+	t.Logf("%d plans exported and read back (%d with SS/PBCH blocks, %d placed by GSCN, %d with TDD, %d naming a band, %d with initial access, %d with nTaOffset)", exported, withSSB, withGSCN, withTDD, withBand, withIA, withNTA)
+	if exported < 100 || withSSB < 20 || withTDD < 20 || withGSCN < 3 || withBand < 10 || withIA < 3 || withNTA < 20 {
+		t.Errorf("only %d plans (%d SS/PBCH, %d by GSCN, %d TDD, %d with a band, %d with initial access, %d with nTaOffset) reached the round trip; the generator should reach more", exported, withSSB, withGSCN, withTDD, withBand, withIA, withNTA)
 	}
 }

@@ -1,6 +1,7 @@
 package rrc_test
 
 import (
+	"math/rand"
 	"os"
 	"strings"
 	"testing"
@@ -99,6 +100,13 @@ func TestMIBForPlanInitialAccess(t *testing.T) {
 			t.Errorf("the value notation lacks %q:\n%s", f, text)
 		}
 	}
+	// The fields carry them, not notes: a reader without gridloom gets
+	// them.
+	for _, key := range []string{"initialAccess.controlResourceSetZero", "initialAccess.searchSpaceZero", "initialAccess.dmrsTypeAPosition", "carrier.nTaOffset"} {
+		if strings.Contains(string(text), "gridloom "+key+":") {
+			t.Errorf("%s travels as a note, not as its 38.331 field:\n%s", key, text)
+		}
+	}
 	// Without initialAccess the MIB leaves them to the caller: zero.
 	p.InitialAccess = nil
 	m, _, err = rrc.MIBForPlan(grid.Compute(p))
@@ -147,5 +155,61 @@ func TestDecodeInitialAccessRefuses(t *testing.T) {
 	if d.Plan.Carrier.NTAOffset != "n25600" || ia == nil || ia.ControlResourceSetZero != 4 || ia.SearchSpaceZero != 1 || ia.DMRSTypeAPosition != "pos3" ||
 		ia.InitialDownlinkBWP == nil || ia.InitialDownlinkBWP.CyclicPrefix != "extended" || *ia.InitialDownlinkBWP.LocationAndBandwidth != 28875 {
 		t.Errorf("nTaOffset %q, initialAccess %+v", d.Plan.Carrier.NTAOffset, ia)
+	}
+}
+
+// TestRoundTripInitialVariants varies the initial-access and timing keys of
+// the campus plan over every controlResourceSetZero and searchSpaceZero,
+// both DM-RS positions, each form of the initial BWPs and every
+// nTaOffset; each variant without errors must read back exactly.
+func TestRoundTripInitialVariants(t *testing.T) {
+	base := initialPlans(t)["campus"]
+	r := rand.New(rand.NewSource(38331))
+	exported, withPartition, withUL := 0, 0, 0
+	for range 4000 {
+		p := base.Clone()
+		ia := p.InitialAccess
+		ia.ControlResourceSetZero, ia.SearchSpaceZero = r.Intn(16), r.Intn(16)
+		ia.DMRSTypeAPosition = []string{"", "pos2", "pos3", "POS3"}[r.Intn(4)]
+		bwp := func() *grid.InitialBWPPlan {
+			start, size := 1+r.Intn(40), 24+r.Intn(60)
+			switch r.Intn(5) {
+			case 1:
+				return &grid.InitialBWPPlan{Partition: p.Partitions[r.Intn(len(p.Partitions))].Name}
+			case 2:
+				return &grid.InitialBWPPlan{StartCRB: &start, SizePRB: size, SubcarrierSpacingKHz: []int{0, 30}[r.Intn(2)]}
+			case 3:
+				riv, _ := grid.EncodeRIV(start-1, size)
+				return &grid.InitialBWPPlan{LocationAndBandwidth: &riv, CyclicPrefix: []string{"", "normal"}[r.Intn(2)]}
+			case 4:
+				riv, _ := grid.EncodeRIV(start, size)
+				return &grid.InitialBWPPlan{LocationAndBandwidth: &riv, SubcarrierSpacingKHz: 15}
+			}
+			return nil
+		}
+		ia.InitialDownlinkBWP, ia.InitialUplinkBWP = bwp(), bwp()
+		p.Carrier.NTAOffset = []string{"", "n0", "n25600", "n39936"}[r.Intn(4)]
+		for i := range p.Partitions {
+			p.Partitions[i].UECapability = r.Intn(3)
+			p.Partitions[i].DMRSAdditionalPosition = []string{"", "pos0", "pos1", "pos2", "pos3"}[r.Intn(5)]
+		}
+		if r.Intn(2) == 1 {
+			p.Environment = &grid.EnvironmentPlan{CellRadiusKm: float64(r.Intn(40)) / 4, LatencyTargetMs: float64(r.Intn(8))}
+		}
+		if grid.Compute(p).HasErrors() {
+			continue
+		}
+		exported++
+		if ia.InitialDownlinkBWP != nil && ia.InitialDownlinkBWP.Partition != "" {
+			withPartition++
+		}
+		if ia.InitialUplinkBWP != nil {
+			withUL++
+		}
+		roundTrip(t, "variant", p)
+	}
+	t.Logf("%d variants read back (%d with a partition as initial downlink BWP, %d with an initial uplink BWP given)", exported, withPartition, withUL)
+	if exported < 150 || withPartition < 10 || withUL < 10 {
+		t.Errorf("only %d variants (%d by partition, %d with an uplink BWP) reached the round trip", exported, withPartition, withUL)
 	}
 }
