@@ -213,3 +213,28 @@ func TestRoundTripInitialVariants(t *testing.T) {
 		t.Errorf("only %d variants (%d by partition, %d with an uplink BWP) reached the round trip", exported, withPartition, withUL)
 	}
 }
+
+// A note that gives an initial BWP's form (here startCrb and sizePrb)
+// must place it where the field says: a text whose initialDownlinkBWP was
+// edited afterwards is refused, not read with the note's place.
+func TestInitialBWPNoteContradictsField(t *testing.T) {
+	p := initialPlans(t)["campus-crbs"]
+	text, err := rrc.Encode(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(string(text), "-- gridloom initialAccess.initialDownlinkBWP: {\"startCrb\":26,\"sizePrb\":48}") {
+		t.Fatalf("no note for the initial BWP's form:\n%s", text)
+	}
+	// CRBs 26 to 73 of 30 kHz from offsetToCarrier 1: RIV 275·47 + 25.
+	field := "locationAndBandwidth 12950"
+	// The uplink one follows it under TDD: the same field, second.
+	if strings.Count(string(text), field) != 2 {
+		t.Fatalf("want the initial downlink and uplink BWPs as %q:\n%s", field, text)
+	}
+	edited := strings.Replace(string(text), field, "locationAndBandwidth 12951", 1)
+	_, err = rrc.Decode([]byte(edited))
+	if err == nil || !strings.Contains(err.Error(), "The gridloom notes contradict pdcch-ConfigSIB1, dmrs-TypeA-Position and the initial BWPs") {
+		t.Errorf("Decode of the edited text = %v, want the notes refused", err)
+	}
+}
