@@ -425,6 +425,11 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 				}
 				ia.dlAt = b
 				if pc := bm["pdcch-ConfigCommon"]; pc != nil {
+					// A SetupRelease: setup : { ... }, or the
+					// PDCCH-ConfigCommon alone as some logs print it.
+					if pc.Kind == asn1v.Choice && pc.Name == "setup" {
+						pc = pc.Elems[0]
+					}
 					pm, err := rd.seq(pc, "PDCCH-ConfigCommon", "controlResourceSetZero", "searchSpaceZero")
 					if err != nil {
 						return p, err

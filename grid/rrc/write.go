@@ -362,10 +362,11 @@ func initialBWPs(r grid.Result) (dl, ul *asn1v.Value, whyDL, whyUL string) {
 		cs0, ss0 := coreset0.SplitPDCCHConfigSIB1(uint8(ia.MIB.PDCCHConfigSIB1))
 		dl = asn1v.Seq(
 			asn1v.F("genericParameters", generic(ia.InitialDL)),
-			asn1v.F("pdcch-ConfigCommon", asn1v.Seq(
+			// pdcch-ConfigCommon is a SetupRelease { PDCCH-ConfigCommon }.
+			asn1v.F("pdcch-ConfigCommon", asn1v.Choose("setup", asn1v.Seq(
 				asn1v.F("controlResourceSetZero", asn1v.Int(cs0)),
 				asn1v.F("searchSpaceZero", asn1v.Int(ss0)),
-			).Note("not set by the plan: commonControlResourceSet, commonSearchSpaceList, searchSpaceSIB1, searchSpaceOtherSystemInformation, pagingSearchSpace, ra-SearchSpace")),
+			).Note("not set by the plan: commonControlResourceSet, commonSearchSpaceList, searchSpaceSIB1, searchSpaceOtherSystemInformation, pagingSearchSpace, ra-SearchSpace"))),
 		).Note("not set by the plan: pdsch-ConfigCommon")
 	}
 	switch {
