@@ -2,15 +2,18 @@ package web
 
 import (
 	"fmt"
+	"os"
 	"strings"
 	"testing"
 
 	"github.com/chromedp/chromedp"
 
 	"gridloom/grid"
+	"gridloom/grid/planfile"
+	"gridloom/web/planform"
 )
 
-// TestBrowserCellAndFinders: the campus plan's summary has the cell
+// TestBrowserCellAndFinders: the campus plan with initial access has the cell
 // section (pdcch-ConfigSIB1 = 2·16 + 0 = 00100000, TS 38.213 13); each
 // finder opens from it, and one click on a row's link brings the planner
 // back with the row applied to the form and the section.
@@ -18,7 +21,7 @@ func TestBrowserCellAndFinders(t *testing.T) {
 	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1440, 1000)
-	tb.open(srv.URL + "/")
+	tb.open(srv.URL + "/?" + planform.FormOf(initialCampusPlan(t)).Query())
 	tb.waitFor("the cell section", `(document.querySelector('[data-testid=cell-mib-facts]') || {}).textContent.includes('00100000')`)
 	if got := eval[string](tb, `document.querySelector('[data-testid=cell-block-facts]').textContent`); !contains(got, "8016") {
 		t.Errorf("the cell section's block facts %q do not name GSCN 8016", got)
@@ -65,16 +68,17 @@ func (tb *tab) follow(what, sel string) {
 
 func contains(s, sub string) bool { return sub != "" && strings.Contains(s, sub) }
 
-// TestBrowserReadoutCell: on the campus plan the readout names GSCN 8016
+// TestBrowserReadoutCell: on the campus plan with initial access the readout names GSCN 8016
 // when the pointer is on the raster strip at the block's SS_REF, and the
 // CORESET#0 occasion of SSB 0 in slot 0 (TS 38.213 Table 13-11 row 0:
 // slots n0 = i and n0 + 1) when it is on CORESET#0 there.
 func TestBrowserReadoutCell(t *testing.T) {
 	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
-	res := grid.Compute(demoPlans(t)["campus.yaml"])
+	plan := initialCampusPlan(t)
+	res := grid.Compute(plan)
 	tb := newTab(t, 2400, 1500)
-	tb.open(srv.URL + "/")
+	tb.open(srv.URL + "/?" + planform.FormOf(plan).Query())
 	tb.do("showing the figure", chromedp.Evaluate[chromedp.Void](`document.addEventListener('pointermove', e => { window.glPointer = [e.clientX, e.clientY]; }, true);
 		document.getElementById('gl-figure').scrollIntoView({block: 'center'})`))
 	xy := eval[[]float64](tb, fmt.Sprintf(`(() => {
@@ -93,4 +97,18 @@ func TestBrowserReadoutCell(t *testing.T) {
 	tb.pointAt((o.Start+o.End)/2, (c.Low+c.High)/2)
 	tb.waitFor("the readout names the occasion", `document.getElementById('gl-readout').textContent.includes('CORESET#0 occasion for SSB 0')`)
 	tb.checkConsole()
+}
+
+// initialCampusPlan is the campus plan with initial access.
+func initialCampusPlan(t *testing.T) grid.Plan {
+	t.Helper()
+	data, err := os.ReadFile(initialCampus)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := planfile.Decode(data)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return p
 }
