@@ -14,9 +14,15 @@ import (
 // The JSON API: a plan file in the body, the lattice document or the
 // figure out. Its errors are JSON (see apiErrors).
 
+// asn1Type is the Content-Type under which the API reads a body as value
+// notation. No registered type exists for ASN.1 value notation; text/x-asn1
+// says what it is. Answers are text/plain; charset=utf-8, so that a browser
+// shows the text rather than offer to save an unknown type.
+const asn1Type = "text/x-asn1"
+
 // readAPIPlan reads the plan of an API request: a plan file, JSON (the
-// API's own syntax) or YAML, by its Content-Type, or sniffed when that
-// names neither. A body over the limit is a 413, one that is no plan a 400
+// API's own syntax), YAML or TS 38.331 value notation (text/x-asn1), by its
+// Content-Type, or sniffed when that names none of them. A body over the limit is a 413, one that is no plan a 400
 // naming its fields.
 func readAPIPlan(r *http.Request) (grid.Plan, error) {
 	body, err := io.ReadAll(r.Body)
@@ -33,6 +39,8 @@ func readAPIPlan(r *http.Request) (grid.Plan, error) {
 		plan, err = planfile.DecodeJSON(body)
 	case "application/yaml", "application/x-yaml", "text/yaml":
 		plan, err = planfile.DecodeYAML(body)
+	case asn1Type:
+		plan, _, err = planfile.DecodeValueNotation(body)
 	default:
 		plan, err = planfile.Decode(body)
 	}
