@@ -240,4 +240,13 @@ func TestMIBPanel(t *testing.T) {
 	// Without initial access the panel says pdcch-ConfigSIB1 is not the plan's.
 	r = get(t, srv, "/?"+campusQuery(t))
 	wantContains(t, "MIB panel", between(r.body, `data-testid="mib"`, `</section>`), "pdcch-ConfigSIB1 is 0")
+
+	// Without SS/PBCH blocks there is no MIB: neither panel nor controls.
+	p := initialCampus(t)
+	p.SSB, p.InitialAccess = nil, nil
+	r = get(t, srv, "/?"+planform.FormOf(p).Query()+"&mib.sfn=5")
+	wantStatus(t, r, http.StatusOK)
+	if strings.Contains(r.body, `data-testid="mib"`) || strings.Contains(r.body, `id="f-mib-sfn"`) {
+		t.Error("a plan without SS/PBCH blocks shows the MIB panel")
+	}
 }

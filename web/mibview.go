@@ -33,7 +33,8 @@ type mibView struct {
 type bitRow struct{ Place, Name, Bits, Value string }
 
 // buildMIB makes the panel's controls and view for the plan of st and the
-// choice mf; the view is nil for a plan without SS/PBCH blocks.
+// choice mf; the view is nil for a plan without SS/PBCH blocks, which has
+// no MIB, and the page then shows neither.
 func buildMIB(st planform.State, mf planform.MIBForm) (mibBoxView, *mibView) {
 	c, ok := planform.ReadMIB(mf, st.Result)
 	note := func(key string) []note {
@@ -42,7 +43,7 @@ func buildMIB(st planform.State, mf planform.MIBForm) (mibBoxView, *mibView) {
 		}
 		return nil
 	}
-	ssbHolder := "the first sent"
+	ssbHolder := ""
 	if ok {
 		ssbHolder = strconv.Itoa(c.Sent[0])
 	}

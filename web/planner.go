@@ -65,8 +65,12 @@ func (s *server) pageOf(r *http.Request, st planform.State) (pageView, []string)
 	svg, styles, failed := s.inlineFigure(r, st.Result, st.Fig.Opt)
 	v := buildPage(st, drawn{SVG: svg, Failed: failed}, demoLinks(s.cfg.Demos))
 	mf := planform.ParseMIBForm(r.URL.Query())
-	box, panel := buildMIB(st, mf)
-	v.Form.MIB, v.Results.MIB = &box, panel
+	if box, panel := buildMIB(st, mf); panel != nil {
+		// Only a plan with SS/PBCH blocks has a MIB; the form's shape
+		// says when the box comes or goes, so the page script brings it.
+		v.Form.MIB, v.Results.MIB = &box, panel
+		v.Form.Shape += ";mib"
+	}
 	v.Query = planform.JoinQuery(v.Query, mf.Query())
 	return v, styles
 }
