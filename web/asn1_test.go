@@ -250,3 +250,27 @@ func TestMIBPanel(t *testing.T) {
 		t.Error("a plan without SS/PBCH blocks shows the MIB panel")
 	}
 }
+
+// TestOpenNotesFitTheAddress: however many notes a file leaves, the
+// redirect's query stays far below MaxQuery, and says how many it left out.
+func TestOpenNotesFitTheAddress(t *testing.T) {
+	notes := make([]string, 40)
+	for i := range notes {
+		notes[i] = "Skipped " + strings.Repeat("physCellId, ", 100)
+	}
+	q := openNotesQuery(notes)
+	if len(q) > maxOpenNotesQuery+200 {
+		t.Errorf("the notes take %d bytes of query, want at most about %d", len(q), maxOpenNotesQuery)
+	}
+	v, err := url.ParseQuery(q)
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := v[keyOpenNote]
+	if len(got) < 2 || !strings.HasPrefix(got[len(got)-1], "And ") || !strings.Contains(got[len(got)-1], " more notes") {
+		t.Errorf("the last of %d notes is %q, want how many were left out", len(got), got[len(got)-1])
+	}
+	if q := openNotesQuery(nil); q != "" {
+		t.Errorf("no notes: %q", q)
+	}
+}

@@ -51,7 +51,7 @@ func buildMIB(st planform.State, mf planform.MIBForm) (mibBoxView, *mibView) {
 		Group: group{ID: idMIB},
 		SFN: control{ID: planform.KeyID(planform.KeyMIBSFN), Name: planform.KeyMIBSFN, Label: "System frame number (0–1023)",
 			Value: mf.SFN, InputMode: "numeric", Placeholder: "0", Size: "6", Notes: note(planform.KeyMIBSFN)},
-		SSB: control{ID: planform.KeyID(planform.KeyMIBSSB), Name: planform.KeyMIBSSB, Label: "SS/PBCH block index",
+		SSB: control{ID: planform.KeyID(planform.KeyMIBSSB), Name: planform.KeyMIBSSB, Label: "SS/PBCH block",
 			Value: mf.SSB, InputMode: "numeric", Placeholder: ssbHolder, Size: "6", Notes: note(planform.KeyMIBSSB)},
 		Open: mf != planform.MIBForm{},
 		Hint: "The frame and the SS/PBCH block whose MIB and PBCH payload bits the results show. The plan holds neither: they change from block to block and frame to frame.",
@@ -59,7 +59,7 @@ func buildMIB(st planform.State, mf planform.MIBForm) (mibBoxView, *mibView) {
 	if !ok {
 		return box, nil
 	}
-	box.SSB.Label += " (" + c.SentText() + " sent)"
+	box.Hint += " The plan sends blocks " + c.SentText() + "."
 	v := &mibView{Title: fmt.Sprintf("MIB of SS/PBCH block %d in frame %d", c.SSBIndex, c.SFN)}
 	m, t, err := rrc.MIBForPlan(st.Result)
 	if err != nil {
@@ -79,10 +79,29 @@ func buildMIB(st planform.State, mf planform.MIBForm) (mibBoxView, *mibView) {
 		v.Message = append(v.Message, bitRow{Place: places("", f), Name: f.Name, Bits: f.Bits, Value: f.Value})
 	}
 	for _, f := range bits.Payload {
-		v.Payload = append(v.Payload, bitRow{Place: places("A+", f), Name: f.Name, Bits: f.Bits, Value: f.Value})
+		v.Payload = append(v.Payload, bitRow{Place: places("A+", f), Name: f.Name, Bits: f.Bits, Value: payloadMeaning(f, c, m.KSSB)})
 	}
 	v.Facts = mibFacts(st.Result, c)
 	return box, v
+}
+
+// payloadMeaning says what a PBCH payload bit is taken from, in the
+// numbers the user chose or the plan set, for a field that gives no value
+// of its own.
+func payloadMeaning(f rrc.BitField, c planform.MIBChoice, kSSB int) string {
+	switch {
+	case f.Value != "":
+		return f.Value
+	case strings.HasSuffix(f.Name, "of SFN"):
+		return fmt.Sprintf("SFN %d = %010b", c.SFN, c.SFN)
+	case f.Name == "half frame bit":
+		return []string{"first half frame", "second half frame"}[c.HalfFrame]
+	case strings.Contains(f.Name, "k_SSB"):
+		return fmt.Sprintf("k_SSB %d = %05b", kSSB, kSSB)
+	case strings.Contains(f.Name, "block index"):
+		return fmt.Sprintf("block %d = %06b", c.SSBIndex, c.SSBIndex)
+	}
+	return "not used: 0"
 }
 
 // places names a field's bits: "7" or "1–6", counted from 0, the first bit

@@ -116,26 +116,31 @@ func (s *server) open(w http.ResponseWriter, r *http.Request) error {
 // keyOpenNote is the query key of a note about the file just opened.
 const keyOpenNote = "open.note"
 
-// maxOpenNotes and maxOpenNote bound what the notes add to the address:
-// a log of a whole cell can skip hundreds of fields, and the query may
-// hold at most MaxQuery bytes.
+// maxOpenNote and maxOpenNotesQuery bound what the notes add to the
+// address: a log of a whole cell can skip hundreds of fields, and the
+// query, plan included (up to about 15 KiB), may hold at most MaxQuery
+// (32 KiB).
 const (
-	maxOpenNotes = 8
-	maxOpenNote  = 1000
+	maxOpenNote       = 1000
+	maxOpenNotesQuery = 8 << 10
 )
 
 // openNotesQuery writes the notes of an opened file as open.note keys,
-// each cut to maxOpenNote characters.
+// each cut to maxOpenNote characters, as many as fit maxOpenNotesQuery;
+// a last note says how many more gridloom check would show.
 func openNotesQuery(notes []string) string {
-	q := url.Values{}
+	var parts []string
+	size := 0
 	for i, n := range notes {
-		if i == maxOpenNotes {
-			q.Add(keyOpenNote, fmt.Sprintf("And %d more notes; open the file with gridloom check to read them all.", len(notes)-i))
+		part := url.Values{keyOpenNote: {planform.Truncate(n, maxOpenNote)}}.Encode()
+		if size+len(part) > maxOpenNotesQuery {
+			parts = append(parts, url.Values{keyOpenNote: {fmt.Sprintf("And %d more notes; gridloom check on the file shows them all.", len(notes)-i)}}.Encode())
 			break
 		}
-		q.Add(keyOpenNote, planform.Truncate(n, maxOpenNote))
+		parts = append(parts, part)
+		size += len(part) + 1
 	}
-	return q.Encode()
+	return strings.Join(parts, "&")
 }
 
 // readUpload reads the plan of an upload and the notes its reader left
