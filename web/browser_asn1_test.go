@@ -48,6 +48,30 @@ func TestBrowserCopyASN(t *testing.T) {
 	tb.checkConsole()
 }
 
+// TestBrowserCopyASNRefused: for a plan with errors the copy link puts
+// nothing on the clipboard and shows the server's sentence instead.
+func TestBrowserCopyASNRefused(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	tb := newTab(t, 1280, 900)
+	tb.open(srv.URL + "/?" + planform.FormOf(brokenCampus(t)).Query())
+	tb.do("clicking the copy link", chromedp.Click(chromedp.CSS(`[data-testid=copy-asn]`)))
+	tb.waitFor("the refusal is shown", `document.getElementById('gl-copied').textContent.startsWith('The plan has errors, so it is not exported; the first: ')`)
+	// The 422 is logged by the browser as a failed load; anything else on
+	// the console is a failure.
+	tb.flushConsole()
+	tb.mu.Lock()
+	defer tb.mu.Unlock()
+	for _, m := range tb.console {
+		if m.Type == chromedp.ConsoleError && strings.Contains(m.Text, "status of 422") {
+			continue
+		}
+		if m.Type == chromedp.ConsoleError || m.IsException() || m.Type == chromedp.ConsoleWarning {
+			t.Errorf("browser console %s: %s (%s:%d)", m.Type, m.Text, m.URL, m.Line)
+		}
+	}
+}
+
 // TestBrowserMIBPanel types a frame number into the MIB panel's control:
 // the live update shows the bits TestMIBPanel checks by hand (SFN 682 of
 // the campus plan with initial access: 550104 hex), and the address keeps
