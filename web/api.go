@@ -22,8 +22,8 @@ const asn1Type = "text/x-asn1"
 
 // readAPIPlan reads the plan of an API request: a plan file, JSON (the
 // API's own syntax), YAML or TS 38.331 value notation (text/x-asn1), by its
-// Content-Type, or sniffed when that names none of them. A body over the limit is a 413, one that is no plan a 400
-// naming its fields.
+// Content-Type, or sniffed when that names none of them. A body over the
+// limit is a 413, one that is no plan a 400 naming its fields.
 func readAPIPlan(r *http.Request) (grid.Plan, error) {
 	body, err := io.ReadAll(r.Body)
 	if err != nil {

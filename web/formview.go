@@ -71,8 +71,9 @@ type formView struct {
 	MIB      *mibBoxView // the MIB panel's frame and block; the planner's only
 }
 
-// mibBoxView is the MIB panel (mibview.go)'s controls, in the planner's form so that the
-// live update and the page without script both carry them.
+// mibBoxView is the controls of the MIB panel (mibview.go), in the
+// planner's form so that the live update and the page without script both
+// carry them.
 type mibBoxView struct {
 	Group    group
 	SFN, SSB control
