@@ -479,11 +479,10 @@ func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, sourc
 	framesWith := len(cfg.Y)
 	out.ValidPer10ms = float64(nValid*pr.fdm*framesWith) / float64(cfg.X)
 
-	// The cell range of each format sent (both halves of a pair).
-	for i, o := range frame {
-		if i > 0 && o.Format == frame[i-1].Format {
-			continue
-		}
+	// The cell range: the least over the occasions, since the 16κ of
+	// TS 38.211 5.3.2 lengthens the cyclic prefix of some of them only and a
+	// pair sends two formats.
+	for _, o := range frame {
 		r, err := prach.CellRange(o, ncs)
 		if err == nil && (out.Range.Limit == 0 || r.Limit < out.Range.Limit) {
 			out.Range = r
