@@ -473,7 +473,7 @@ func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, sourc
 		if v.Valid {
 			nValid++
 		} else if firstBad == "" {
-			firstBad = fmt.Sprintf("slot %d, symbol %d: %s", o.Slot, o.Symbol, v.Reason)
+			firstBad = fmt.Sprintf("slot %d, symbol %d: %s", o.Slot, o.Symbol%14, v.Reason)
 		}
 	}
 	framesWith := len(cfg.Y)
@@ -522,8 +522,12 @@ func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, sourc
 			len(frame)-nValid, len(frame), pr.index, firstBad)
 	}
 	if t := res.Timing; t != nil && t.HasGuard && ncs > 0 && out.Range.ZeroCorrelation < t.MaxCellRadiusM {
-		fs.add(Warning, CodePRACH, "", prachField+".zeroCorrelationZoneConfig", "zeroCorrelationZoneConfig %d gives N_CS = %d, a cyclic-shift range of %.2f km, below the %.2f km the TDD pattern's guard period allows; a UE beyond it aliases onto the next preamble's shift. Raise zeroCorrelationZoneConfig.",
-			pr.zcz, ncs, out.Range.ZeroCorrelation/1000, t.MaxCellRadiusM/1000)
+		fix := "Raise zeroCorrelationZoneConfig."
+		if pr.zcz == 15 {
+			fix = "No higher zeroCorrelationZoneConfig exists; a long format (L_RA = 839) or a lower PRACH spacing reaches further."
+		}
+		fs.add(Warning, CodePRACH, "", prachField+".zeroCorrelationZoneConfig", "zeroCorrelationZoneConfig %d gives N_CS = %d, a cyclic-shift range of %.2f km, below the %.2f km the TDD pattern's guard period allows; a UE beyond it aliases onto the next preamble's shift. %s",
+			pr.zcz, ncs, out.Range.ZeroCorrelation/1000, t.MaxCellRadiusM/1000, fix)
 	}
 
 	// Every occasion of the association period, valid or not.
