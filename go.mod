@@ -8,6 +8,7 @@ require (
 	github.com/chromedp/cdproto v0.159.0
 	github.com/chromedp/chromedp v0.23.0
 	github.com/go-chi/chi/v5 v5.5.0
+	github.com/klauspost/compress v1.20.4
 	go.yaml.in/yaml/v3 v3.0.6
 	golang.org/x/image v0.48.0
 )

@@ -20,7 +20,10 @@ type Result struct {
 	Partitions []Lattice // the partitions that could be placed, in plan order
 	TDD        *TDD      // the TDD pattern, when the plan has a valid one
 	SSB        *SSB      // the SS/PBCH blocks, when the plan places valid ones
-	Fit        *Fit      // the numerology fit, when the plan describes its environment
+	// SyncRaster is the band's synchronization raster inside the channel,
+	// when the channel has an absolute frequency and a band.
+	SyncRaster *SyncRaster
+	Fit        *Fit // the numerology fit, when the plan describes its environment
 	// Spectrum is how the carriers and partitions divide the channel.
 	Spectrum Spectrum
 	Findings []Finding
@@ -283,6 +286,9 @@ func Compute(plan Plan) Result {
 				fs = append(fs, s.CheckBand(res.Channel.Band)...)
 			}
 		}
+	}
+	if rangeOK && bwKnown {
+		res.SyncRaster = syncRaster(res, rng, p.SSB)
 	}
 	if p.InitialAccess != nil {
 		res.InitialAccess = checkInitialAccess(&fs, rng, p.InitialAccess, p.SSB, &res, tdd)

@@ -81,17 +81,8 @@ func SSBPositions(plan Plan, band string) (SSBSearch, error) {
 		return SSBSearch{}, fmt.Errorf("ssb.scsCommonKHz %d is not a subCarrierSpacingCommon of %s; use %s kHz", out.ScsCommonKHz, rng, JoinInts(commonChoices(rng)))
 	}
 
-	// The window the block must fit in, relative to point A.
-	lo, hi := ch.Low, ch.High
-	out.Within = fmt.Sprintf("the %d MHz channel", ch.BandwidthMHz)
-	if c, ok := r.Carrier(out.ScsCommonKHz); ok {
-		lo, hi = max(lo, c.Low), min(hi, c.High)
-		out.Within += fmt.Sprintf(" and the %d kHz carrier (CRBs %d to %d)", c.SCSKHz, c.OffsetToCarrier, c.OffsetToCarrier+c.CarrierBandwidth-1)
-	}
-	if g, ok := ssbGuard240[ch.BandwidthMHz]; ok && out.SCSKHz == 240 {
-		lo, hi = max(lo, ch.Low+g), min(hi, ch.High-g)
-		out.Within += fmt.Sprintf(", %s from each channel edge", fmtKHz(g))
-	}
+	lo, hi, within := ssbWindow(r, out.SCSKHz, out.ScsCommonKHz)
+	out.Within = within
 	scs := Hz(out.SCSKHz) * 1000
 	// SS_REF sits 120.5 subcarriers above the block's lower edge and 119.5
 	// below its upper edge.
@@ -106,17 +97,54 @@ func SSBPositions(plan Plan, band string) (SSBSearch, error) {
 		}
 		f, _ := gscn.Frequency(g)
 		ref := Hz(f) - ch.PointAHz
-		low := ref - 120*scs - scs/2
-		if low < lo || low+240*scs > hi {
+		o, k, fits := ssbFitsAt(rng, out.SCSKHz, out.ScsCommonKHz, ref, lo, hi)
+		if !fits {
 			continue
 		}
-		o, k, why := placeBySSRef(rng, out.SCSKHz, out.ScsCommonKHz, ref)
-		if why != "" {
-			continue
-		}
+		low := ssbLowEdge(ref, out.SCSKHz)
 		n, _ := FrequencyARFCN(Hz(f))
 		out.Positions = append(out.Positions, SSBPosition{GSCN: g, SSRefHz: Hz(f), AbsoluteFrequencySSB: n,
-			OffsetToPointA: o, KSSB: k, LowHz: ch.Abs(low), HighHz: ch.Abs(low + 240*scs)})
+			OffsetToPointA: o, KSSB: k, LowHz: ch.Abs(low), HighHz: ch.Abs(low + 240*Hz(out.SCSKHz)*1000)})
 	}
 	return out, nil
+}
+
+// ssbWindow returns the span, relative to point A, that an SS/PBCH block of
+// scsKHz must lie in, and says what it is for people: the channel, and the
+// carrier of subCarrierSpacingCommon when the result has one (the block
+// must lie on common RBs the UE can address, TS 38.211 4.4.4.2), less the
+// 240 kHz block's guardband (TS 38.101-2 Table 5.3.3-2).
+func ssbWindow(r Result, scsKHz, commonKHz int) (lo, hi Hz, within string) {
+	ch := r.Channel
+	lo, hi = ch.Low, ch.High
+	within = fmt.Sprintf("the %d MHz channel", ch.BandwidthMHz)
+	if c, ok := r.Carrier(commonKHz); ok {
+		lo, hi = max(lo, c.Low), min(hi, c.High)
+		within += fmt.Sprintf(" and the %d kHz carrier (CRBs %d to %d)", c.SCSKHz, c.OffsetToCarrier, c.OffsetToCarrier+c.CarrierBandwidth-1)
+	}
+	if g, ok := ssbGuard240[ch.BandwidthMHz]; ok && scsKHz == 240 {
+		lo, hi = max(lo, ch.Low+g), min(hi, ch.High-g)
+		within += fmt.Sprintf(", %s from each channel edge", fmtKHz(g))
+	}
+	return lo, hi, within
+}
+
+// ssbLowEdge is the lower edge of a block whose SS_REF is ref: SS_REF is
+// the centre of subcarrier 120 (subcarrier 0 of RB 10), 120.5 subcarriers
+// above the block's lower edge and 119.5 below its upper edge.
+func ssbLowEdge(ref Hz, scsKHz int) Hz {
+	scs := Hz(scsKHz) * 1000
+	return ref - 120*scs - scs/2
+}
+
+// ssbFitsAt reports whether a block whose SS_REF is ref (from point A) lies
+// within [lo, hi] and is reachable from point A by a whole offsetToPointA
+// and k_SSB, and returns them.
+func ssbFitsAt(rng Range, scsKHz, commonKHz int, ref, lo, hi Hz) (offset, k int, fits bool) {
+	low := ssbLowEdge(ref, scsKHz)
+	if low < lo || low+240*Hz(scsKHz)*1000 > hi {
+		return 0, 0, false
+	}
+	o, k, why := placeBySSRef(rng, scsKHz, commonKHz, ref)
+	return o, k, why == ""
 }

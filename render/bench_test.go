@@ -6,11 +6,15 @@ import (
 	"testing"
 )
 
-// BenchmarkFigure draws each demo plan and the heaviest plan. The speed
+// initialStress is the plan with the most Type0-PDCCH occasions.
+const initialStress = "../testdata/stress/fr2-1-initial-access.yaml"
+
+// BenchmarkFigure draws each demo plan, the heaviest plan and the plan
+// with the most Type0-PDCCH occasions. The speed
 // and size are reported, not asserted: SetBytes gives MB/s of SVG written
 // and svg-bytes the size of one figure.
 func BenchmarkFigure(b *testing.B) {
-	for _, path := range append(demoPlans(b), stressPlan) {
+	for _, path := range append(demoPlans(b), stressPlan, initialStress) {
 		r := compute(b, loadPlan(b, path))
 		b.Run(planName(path), func(b *testing.B) {
 			var buf bytes.Buffer

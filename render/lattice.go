@@ -179,10 +179,17 @@ func drawPartition(b *builder, f frame, i int, l grid.Lattice, d detail, t *tddD
 
 	// The name, where the partition is tall enough to hold it; the legend
 	// always has it.
-	if bottom-top >= 16 && b.shows(LayerLabels) {
-		b.text(label{class: "gl-name", x: float64(f.x + 5), y: float64(int(top) + 13),
-			runs: []run{{text: clean(shown(l.Name)), bold: true}, {text: fmt.Sprintf("%d kHz", n.SCSKHz()), dx: 6}},
-			halo: true})
+	if name, ok := nameLabel(f, l); ok && b.shows(LayerLabels) {
+		b.text(name)
 	}
 	b.end()
+}
+
+// nameLabel is a partition's name in the plot, and false where the
+// partition is too low to hold it.
+func nameLabel(f frame, l grid.Lattice) (label, bool) {
+	top, bottom := f.Y(l.High), f.Y(l.Low)
+	return label{class: "gl-name", x: float64(f.x + 5), y: float64(int(top) + 13),
+		runs: []run{{text: clean(shown(l.Name)), bold: true}, {text: fmt.Sprintf("%d kHz", l.Numerology.SCSKHz()), dx: 6}},
+		halo: true}, bottom-top >= 16
 }

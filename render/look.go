@@ -35,6 +35,9 @@ type look struct {
 	ssbFillA float64
 	ssbLine  rgb
 	ssbW     float64
+
+	// CORESET#0's dashed outline.
+	coresetW float64
 }
 
 // partColours is the Okabe–Ito colour-blind-safe palette (Okabe and Ito,
@@ -75,6 +78,7 @@ var lightLook = look{
 	washA:        0.55,
 
 	ssbFill: white, ssbFillA: 0.8, ssbLine: black, ssbW: 1.6,
+	coresetW: 1.4,
 }
 
 // printLook is for documents: black and white patterns without tints,
@@ -102,6 +106,7 @@ var printLook = look{
 	washA:        0.6,
 
 	ssbFill: white, ssbFillA: 0.85, ssbLine: black, ssbW: 2.2,
+	coresetW: 1.8,
 }
 
 func (lk *look) part(i int) rgb { return lk.parts[i%len(lk.parts)] }

@@ -87,8 +87,9 @@ func ParseTheme(s string) (Theme, error) {
 	return 0, fmt.Errorf("theme %q is not a figure theme; use light or print.", shownN(s, 40))
 }
 
-// Layer is one part of the figure that can be hidden.
-type Layer uint8
+// Layer is one part of the figure that can be hidden. Sixteen bits leave
+// room for the layers of initial access and random access to come.
+type Layer uint16
 
 // Layers of the figure. The partition bodies, the axes, the carrier rail
 // and the legend are always drawn.
@@ -98,12 +99,24 @@ const (
 	LayerGuards                    // guardbands, unused spectrum, minimum guardbands on the rail
 	LayerLabels                    // names in the plot, TDD letters, SS/PBCH labels, notes beside the rail
 	LayerTDD                       // TDD direction bands and the wash over the other direction
-	LayerSSB                       // SS/PBCH blocks
+	LayerSSB                       // SS/PBCH blocks, the sync raster, CORESET#0 and its occasions, the initial BWPs
 	allLayers    Layer = 1<<iota - 1
 )
 
 // layerNames lists the layers in the order of their bits.
 var layerNames = []string{"lattice", "cp", "guards", "labels", "tdd", "ssb"}
+
+// layerTitles says what each layer draws, in words for a form's
+// checkboxes, in the order of layerNames.
+var layerTitles = []string{"lattice lines", "cyclic prefixes", "guardbands", "labels", "TDD directions", "SS/PBCH blocks and initial access"}
+
+// LayerTitles returns a few words for each layer, in the order of
+// LayerNames, so that a page lists every layer render has without keeping
+// a list of its own that falls behind.
+func LayerTitles() []string { return append([]string(nil), layerTitles...) }
+
+// layerList names the layers for messages: "lattice, cp, … and ssb".
+var layerList = strings.Join(layerNames[:len(layerNames)-1], ", ") + " and " + layerNames[len(layerNames)-1]
 
 // LayerNames returns the names ParseLayers reads, in drawing order.
 func LayerNames() []string { return append([]string(nil), layerNames...) }
@@ -163,7 +176,7 @@ func ParseLayers(s string) (Layers, error) {
 			}
 		}
 		if !found {
-			return Layers{}, fmt.Errorf("layers: %q is not a figure layer; list the layers to show from lattice, cp, guards, labels, tdd and ssb, separated by commas, or give all or none.", shownN(item, 40))
+			return Layers{}, fmt.Errorf("layers: %q is not a figure layer; list the layers to show from %s, separated by commas, or give all or none.", shownN(item, 40), layerList)
 		}
 	}
 	return Layers{hidden: allLayers &^ shown}, nil

@@ -3,6 +3,7 @@ package render
 import (
 	"bytes"
 	"fmt"
+	"math/bits"
 	"slices"
 	"strconv"
 	"strings"
@@ -33,6 +34,14 @@ func TestParseTheme(t *testing.T) {
 		if err != nil && len(err.Error()) > 200 {
 			t.Errorf("ParseTheme(%.20q): error of %d bytes repeats the whole input", in, len(err.Error()))
 		}
+	}
+}
+
+// TestLayerTitles: every layer has its words, and no more.
+func TestLayerTitles(t *testing.T) {
+	names, labels := LayerNames(), LayerTitles()
+	if len(labels) != len(names) || len(names) != bits.OnesCount16(uint16(allLayers)) {
+		t.Errorf("%d layer labels for %d names and %d layers", len(labels), len(names), bits.OnesCount16(uint16(allLayers)))
 	}
 }
 
@@ -86,7 +95,7 @@ var layerClasses = map[Layer][]string{
 	LayerGuards:  {"gl-guard", "gl-unused", "gl-minguard"},
 	LayerLabels:  {"gl-name", "gl-note", "gl-tdd-letter", "gl-ssb-label"},
 	LayerTDD:     {"gl-tdd-d", "gl-tdd-f", "gl-tdd-u", "gl-tdd-off", "gl-tdd-edge", "gl-tdd-letter"},
-	LayerSSB:     {"gl-ssb", "gl-ssb-label"},
+	LayerSSB:     {"gl-ssb", "gl-ssb-label", "gl-raster", "gl-raster-fit", "gl-raster-off", "gl-raster-block"},
 }
 
 // TestLayersHidden draws the campus plan, which shows every layer at the
@@ -165,6 +174,7 @@ func TestLayersKey(t *testing.T) {
 		{LayerGuards, "guardband"},
 		{LayerTDD, "TDD DDDSU"},
 		{LayerSSB, "SS/PBCH block"},
+		{LayerSSB, "sync raster"},
 	} {
 		if !strings.Contains(key(Options{}), tc.text) {
 			t.Fatalf("the full key does not say %q", tc.text)
@@ -184,7 +194,7 @@ func TestOptionsRefused(t *testing.T) {
 		want string
 	}{
 		{Options{Theme: Theme(2)}, "ThemePrint"},
-		{Options{Layers: Layers{hidden: 1 << 7}}, "ParseLayers"},
+		{Options{Layers: Layers{hidden: 1 << 15}}, "ParseLayers"},
 		{Options{Caption: strings.Repeat("é", MaxCaption+1)}, fmt.Sprint(MaxCaption)},
 		{Options{Plan: make([]byte, MaxPlanBytes+1)}, fmt.Sprint(MaxPlanBytes)},
 	} {

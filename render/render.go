@@ -6,8 +6,9 @@
 // one segment per line that is at least a few pixels from its neighbours.
 // Finer lines give way to coarser ones (PRB rows every few PRBs, slot
 // lines instead of symbol lines, 0.5 ms marks alone) and the legend says
-// which were drawn. TDD directions are drawn per run of like symbols, and
-// SS/PBCH blocks as one path.
+// which were drawn. TDD directions are drawn per run of like symbols,
+// SS/PBCH blocks as one path and the synchronization raster as one path
+// per kind of tick.
 //
 // The figure is built once as a display list that both the SVG writer and
 // the PNG rasteriser consume, so the two share one layout. Options choose
@@ -25,6 +26,17 @@
 // <g class="gl-legend-part" data-index="i">; every other mark has a class
 // of its own (gl-guard, gl-edges, gl-carriers, gl-align, gl-ssb, gl-note-…),
 // so a page can highlight parts of an inline figure with its stylesheet.
+// The synchronization raster's comb is <g class="gl-raster"> with the
+// band's points for a readout: data-band, data-scs-khz, data-gscn and
+// data-ss-ref-hz (space-separated, SS_REF from point A), data-fits (one
+// '1' or '0' per point) and, when the block is on the raster,
+// data-block-gscn. CORESET#0 is <g class="gl-coreset0"> with data-low-hz,
+// data-high-hz, data-start-crb, data-nrb, data-symbols and data-scs-khz,
+// and its Type0-PDCCH occasions in the span, in time order, as
+// data-occ-ssb, data-occ-start-tc and data-occ-end-tc (space-separated);
+// the initial BWPs' brackets beside the rail are <g class="gl-initial-dl">
+// and <g class="gl-initial-ul"> with data-low-hz, data-high-hz,
+// data-start-crb, data-size-prb and data-scs-khz.
 //
 // Options.Window fixes the axes, so that figures of two plans share their
 // scales (FitWindow and Window.Union make one that holds both), and
@@ -187,9 +199,17 @@ func build(r grid.Result, opt Options) (*doc, error) {
 	if r.SSB != nil && b.shows(LayerSSB) {
 		blocks = planSSB(*r.SSB, f)
 	}
+	var coreset *coresetDrawing
+	if r.InitialAccess != nil && b.shows(LayerSSB) {
+		coreset = planCoreset0(*r.InitialAccess, f)
+	}
+	var raster *syncDrawing
+	if r.SyncRaster != nil && b.shows(LayerSSB) {
+		raster = planSyncRaster(r, f, b.fromA)
+	}
 
 	rows := partRows(r, details, tdds)
-	keys := keyRows(r, b, blocks, f)
+	keys := keyRows(r, b, blocks, coreset, raster, f)
 	keyW := minKeyWidth
 	for _, k := range keys {
 		keyW = max(keyW, int(textWidth(k.text, 10, false))+40+1)
@@ -236,8 +256,11 @@ func build(r grid.Result, opt Options) (*doc, error) {
 	d.desc = clean(summary(r))
 
 	b.add(shape{d: pathOf(func(p *pathData) { p.rect(0, 0, float64(width), float64(height)) }), fill: solid(white)})
-	drawPlot(b, f, r, details, tdds, blocks)
-	drawAxes(b, f, r.Channel)
+	drawPlot(b, f, r, details, tdds, blocks, coreset)
+	drawAxes(b, f, r.Channel, raster != nil)
+	if raster != nil {
+		drawSyncRaster(b, f, raster)
+	}
 	drawRail(b, f, r)
 	drawLegend(b, r, rows, keys, width, legendTop, keyW, partsH, keyBelow)
 	if len(caption) > 0 {
@@ -263,7 +286,7 @@ func plotFrameIn(r grid.Result, width int, win Window) frame {
 }
 
 // drawPlot draws the plot area inside the gl-plot group.
-func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDrawing, blocks *ssbDrawing) {
+func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDrawing, blocks *ssbDrawing, coreset *coresetDrawing) {
 	lk := b.lk
 	data := []attr{
 		{"data-x", fmt.Sprint(f.x)}, {"data-y", fmt.Sprint(f.y)},
@@ -307,6 +330,9 @@ func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDr
 		}
 		drawPartition(b, f, i, l, details[i], t, r.TDD)
 	}
+	if coreset != nil {
+		drawCoreset0(b, coreset)
+	}
 	if blocks != nil {
 		drawSSB(b, blocks)
 	}
@@ -348,15 +374,28 @@ func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDr
 		b.add(line("gl-edges", edges, black, 1, lk.edgeW))
 	}
 	b.add(line("gl-frame", whole, lk.soft, 1, lk.frameW))
-	if blocks != nil && b.shows(LayerLabels) {
-		drawSSBLabels(b, blocks)
+	if b.shows(LayerLabels) {
+		var taken []labelBox
+		if blocks != nil {
+			taken = drawSSBLabels(b, blocks)
+		}
+		if coreset != nil {
+			for _, l := range r.Partitions {
+				if name, ok := nameLabel(f, l); ok {
+					taken = append(taken, labelBox{name.x, name.y - 11, name.x + measure(&name), name.y + 3})
+				}
+			}
+			drawCoreset0Labels(b, coreset, taken)
+		}
 	}
 	b.end()
 }
 
 // drawAxes draws the time axis below the plot and the frequency axis to its
-// left, each with a title naming its unit.
-func drawAxes(b *builder, f frame, ch grid.Channel) {
+// left, each with a title naming its unit. With room for the sync raster's
+// comb, the frequency axis stands rasterStrip px off the plot on a spine
+// of its own.
+func drawAxes(b *builder, f frame, ch grid.Channel, rasterRoom bool) {
 	var tickMarks pathData
 	b.open(group{class: "gl-axes", fontSize: 10})
 	tick := func(x, y float64, text string, a anchor) {
@@ -389,10 +428,15 @@ func drawAxes(b *builder, f frame, ch grid.Channel) {
 	}
 	lo, hi := toV(f.low), toV(f.high)
 	fstep := niceStep(36 / (float64(f.h) / (hi - lo)))
+	axisX := float64(f.x)
+	if rasterRoom {
+		axisX -= rasterStrip
+		tickMarks.vline(axisX, float64(f.y), f.bottom())
+	}
 	for _, v := range ticks(lo, hi, fstep) {
 		y := f.Y(fromV(v))
-		tickMarks.hline(y, float64(f.x)-5, float64(f.x))
-		tick(float64(f.x-8), float64(int(y+3.5)), fmtTick(v, fstep), anchorEnd)
+		tickMarks.hline(y, axisX-5, axisX)
+		tick(axisX-8, float64(int(y+3.5)), fmtTick(v, fstep), anchorEnd)
 	}
 	mid := float64(f.y + f.h/2)
 	b.text(label{x: 18, y: mid, runs: []run{{text: title}}, size: 12, anchor: anchorMiddle, rotate: true})
@@ -489,6 +533,9 @@ func drawRail(b *builder, f frame, r grid.Result) {
 		b.text(label{class: "gl-rail-scs", x: x + railBar/2, y: float64(f.y - 6), runs: []run{{text: fmt.Sprint(c.SCSKHz)}}, size: 9, anchor: anchorMiddle})
 	}
 	b.add(shape{class: "gl-carriers", d: bars, fill: solid(white), stroke: solid(lk.text), strokeW: 1})
+	if r.InitialAccess != nil && b.shows(LayerSSB) {
+		drawInitialBWPs(b, f, r, railX)
+	}
 	if b.shows(LayerGuards) {
 		b.add(shape{class: "gl-minguard", d: keep, fill: solid(lk.text).withAlpha(0.8)})
 	}
@@ -526,6 +573,9 @@ func summary(r grid.Result) string {
 	if r.Channel.Absolute {
 		fmt.Fprintf(&b, " centred on %s", fmtMHz(r.Channel.CenterHz))
 	}
+	if r.Channel.Band != "" {
+		fmt.Fprintf(&b, " in band %s", shownN(r.Channel.Band, 8))
+	}
 	if r.TDD != nil {
 		fmt.Fprintf(&b, ", TDD %s", tddName(r.TDD))
 	}
@@ -538,6 +588,13 @@ func summary(r grid.Result) string {
 	}
 	if r.SSB != nil {
 		fmt.Fprintf(&b, "; %d SS/PBCH block%s of case %s at %d kHz", len(r.SSB.Blocks), plural(len(r.SSB.Blocks)), r.SSB.Case, r.SSB.Numerology.SCSKHz())
+		if r.SSB.Absolute && r.SSB.OnSyncRaster {
+			fmt.Fprintf(&b, " on GSCN %d", r.SSB.GSCN)
+		}
+	}
+	if ia := r.InitialAccess; ia != nil {
+		c := ia.CORESET0
+		fmt.Fprintf(&b, "; CORESET#0 of %d RBs × %d symbols at %d kHz (TS 38.213 Table %s row %d)", c.NRB, c.Symbols, c.SCSKHz, c.Table, c.Index)
 	}
 	b.WriteString(".")
 	return b.String()
@@ -657,7 +714,7 @@ type keyEntry struct {
 }
 
 // keyRows lists the key's rows for what the figure shows.
-func keyRows(r grid.Result, b *builder, blocks *ssbDrawing, f frame) []keyEntry {
+func keyRows(r grid.Result, b *builder, blocks *ssbDrawing, coreset *coresetDrawing, raster *syncDrawing, f frame) []keyEntry {
 	lk := b.lk
 	vline := func(dx float64, c rgb, a, w float64, pad float64) func(b *builder, x0, y0, x1, y1 float64) {
 		return func(b *builder, x0, y0, x1, y1 float64) {
@@ -734,6 +791,12 @@ func keyRows(r grid.Result, b *builder, blocks *ssbDrawing, f frame) []keyEntry 
 	}
 	if r.SSB != nil && blocks != nil {
 		keys = append(keys, ssbKey(*r.SSB, blocks, b))
+	}
+	if coreset != nil {
+		keys = append(keys, coresetKeys(*r.InitialAccess, coreset, b)...)
+	}
+	if raster != nil {
+		keys = append(keys, syncKeys(r.SyncRaster, raster)...)
 	}
 	return keys
 }

@@ -35,6 +35,13 @@ func TestFigureGolden(t *testing.T) {
 	}
 }
 
+// TestFigureGoldenInitial keeps the golden figure of the campus plan with
+// initial access: CORESET#0, its occasions and the initial BWPs.
+func TestFigureGoldenInitial(t *testing.T) {
+	r := compute(t, loadPlan(t, initialCampus))
+	checkGolden(t, "initial-campus.svg", figure(t, r, Options{}))
+}
+
 // checkGolden compares a figure with the golden file name in goldenDir,
 // or with -update writes it there.
 func checkGolden(t *testing.T, name string, got []byte) {

@@ -88,10 +88,12 @@ func drawSSB(b *builder, d *ssbDrawing) {
 }
 
 // drawSSBLabels names the candidate indices of each group of blocks above
-// it, leaving out a label that would run into the one before.
-func drawSSBLabels(b *builder, d *ssbDrawing) {
+// it, leaving out a label that would run into the one before. It returns
+// the labels' extents, for other labels to keep clear of.
+func drawSSBLabels(b *builder, d *ssbDrawing) []labelBox {
 	reach := -1e9
 	y := float64(int(d.top - 4))
+	var placed []labelBox
 	for _, g := range d.groups {
 		l := label{class: "gl-ssb-label", x: float64(int(g.x0 + 0.5)), y: y,
 			runs: []run{{text: "SSB " + indexList(g.indices), bold: true}}, size: 10, halo: true}
@@ -99,8 +101,10 @@ func drawSSBLabels(b *builder, d *ssbDrawing) {
 			continue
 		}
 		reach = l.x + measure(&l)
+		placed = append(placed, labelBox{l.x, y - 10, reach, y + 3})
 		b.text(l)
 	}
+	return placed
 }
 
 // indexList writes indices as ranges, "0–3, 8", shortened to

@@ -12,6 +12,7 @@ import (
 	"github.com/chromedp/chromedp/kb"
 
 	"gridloom/grid"
+	"gridloom/web/planform"
 )
 
 // noInjectedMarkup is true when the document holds no markup beyond the
@@ -33,6 +34,7 @@ const noInjectedMarkup = `(() => {
 // CSP blocked would report one), and the document holds no markup of
 // theirs; the names show as text.
 func TestBrowserHostileNames(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1600, 1100)
 
@@ -70,7 +72,7 @@ func TestBrowserHostileNames(t *testing.T) {
 	if res.HasErrors() {
 		t.Fatalf("the plan has errors: %v", res.Findings)
 	}
-	tb.open(srv.URL + "/?" + FormOf(p).Query())
+	tb.open(srv.URL + "/?" + planform.FormOf(p).Query())
 	if !eval[bool](tb, noInjectedMarkup) {
 		t.Fatal("the page holds markup from a name")
 	}

@@ -17,6 +17,7 @@ import (
 	"github.com/chromedp/chromedp/kb"
 
 	"gridloom/grid"
+	"gridloom/web/planform"
 )
 
 // The browser tests of the walkthrough, the comparison and opening a saved
@@ -78,6 +79,7 @@ func opacityOf(sel string) string {
 }
 
 func TestBrowserWalkthrough(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	q := campusQuery(t)
 	steps := Walkthrough(grid.Compute(testConfig(t).Plan))
@@ -181,6 +183,7 @@ func TestBrowserWalkthrough(t *testing.T) {
 // TestBrowserWalkthroughPrint: printed, the print layout puts one step on
 // each page, the controls hidden.
 func TestBrowserWalkthroughPrint(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1280, 900)
 	tb.do("opening the print layout", chromedp.Navigate(srv.URL+"/walk?"+campusQuery(t)+"&view=print"))
@@ -210,11 +213,12 @@ func scalesOf(side string) string {
 }
 
 func TestBrowserCompare(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	pa, _ := comparePlans(t)
 	tb := newTab(t, 1440, 1000)
 	// "Compare with…" from the planner: the plan as A, its copy as B.
-	tb.open(srv.URL + "/?" + FormOf(pa).Query())
+	tb.open(srv.URL + "/?" + planform.FormOf(pa).Query())
 	tb.do("opening the comparison", chromedp.Click(chromedp.CSS(`[data-testid=open-compare]`)))
 	tb.waitAcross("the comparison", `document.getElementById('b-gl-plot') !== null && document.readyState === 'complete'`)
 	tb.do("marking the window", chromedp.Evaluate[chromedp.Void](`window.glMarker = 'still here';
@@ -268,9 +272,10 @@ func TestBrowserCompare(t *testing.T) {
 // TestBrowserDropFigure drops a saved figure of one plan on the planner of
 // another, as a file from the desktop: the page opens the dropped plan.
 func TestBrowserDropFigure(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	port := testConfig(t).Demos[1].Plan
-	svg := get(t, srv, "/figure.svg?"+FormOf(port).Query())
+	svg := get(t, srv, "/figure.svg?"+planform.FormOf(port).Query())
 	wantStatus(t, svg, 200)
 	dir := t.TempDir()
 	path := filepath.Join(dir, "saltmarsh.svg")
@@ -302,7 +307,7 @@ func TestBrowserDropFigure(t *testing.T) {
 
 	drop(path)
 	tb.waitAcross("the dropped plan", `document.getElementById('f-name') && document.getElementById('f-name').value === 'Saltmarsh port 100 MHz' && document.readyState === 'complete'`)
-	want := "/?" + joinQuery(FormOf(port).Query(), "fig.theme=print")
+	want := "/?" + planform.JoinQuery(planform.FormOf(port).Query(), "fig.theme=print")
 	if got := eval[string](tb, `location.pathname + location.search`); got != want {
 		t.Errorf("after the drop the address is %s, want %s (the plan, and the page's figure options)", got, want)
 	}
@@ -311,7 +316,7 @@ func TestBrowserDropFigure(t *testing.T) {
 	}
 	// The refused drop's answer is logged by the browser as a failed load,
 	// once; anything else on the console is a failure.
-	time.Sleep(100 * time.Millisecond)
+	tb.flushConsole()
 	tb.mu.Lock()
 	defer tb.mu.Unlock()
 	refused := 0
@@ -335,6 +340,7 @@ func TestBrowserDropFigure(t *testing.T) {
 //
 //	go test ./web -run TestScreenshotPresent -screenshot
 func TestScreenshotPresent(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	q := campusQuery(t)
 	pa, pb := comparePlans(t)
@@ -350,7 +356,7 @@ func TestScreenshotPresent(t *testing.T) {
 		{"walk.png", "/walk?" + q + "&step=part-1", 1440, 900, false},
 		{"projector.png", "/walk?" + q + "&step=align&view=projector", 1920, 1080, false},
 		{"walk-print.png", "/walk?" + q + "&view=print&fig.theme=print", 1123, 794, true},
-		{"compare.png", "/compare?" + compareQuery(FormOf(pa), FormOf(pb), FigureForm{}), 1440, 1400, false},
+		{"compare.png", "/compare?" + planform.CompareQuery(planform.FormOf(pa), planform.FormOf(pb), planform.FigureForm{}), 1440, 1400, false},
 	} {
 		tb := newTab(t, c.w, c.h)
 		tb.do("opening "+c.file, chromedp.Navigate(srv.URL+c.path))
@@ -360,7 +366,7 @@ func TestScreenshotPresent(t *testing.T) {
 				t.Fatal(err)
 			}
 		}
-		time.Sleep(300 * time.Millisecond) // the highlight's transition
+		tb.waitFor("the highlight's transition to end", `document.getAnimations().every(a => a.playState !== 'running')`)
 		shot, err := chromedpRun(tb, chromedp.CaptureScreenshot())
 		if err != nil {
 			t.Fatal(err)

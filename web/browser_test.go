@@ -8,6 +8,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"slices"
 	"strings"
 	"sync"
 	"testing"
@@ -18,6 +19,7 @@ import (
 	"github.com/chromedp/chromedp/kb"
 
 	"gridloom/grid"
+	"gridloom/web/planform"
 )
 
 // The browser tests drive Chromium headless against the real server, figure
@@ -43,8 +45,55 @@ type tab struct {
 
 	mu      sync.Mutex
 	console []chromedp.ConsoleMessage
+	flushes int
 }
 
+// One Chromium serves every browser test of the package: the first test
+// that needs it starts it, each test works in a tab of its own (closed when
+// the test ends), and TestMain stops it. Starting Chromium took a second or
+// more per test, and most tests run in parallel in their tabs.
+var chromium struct {
+	once sync.Once
+	ctx  context.Context // the browser, for tabs to open in
+	stop func()
+	err  error
+}
+
+// sharedBrowser starts the package's Chromium at path, once.
+func sharedBrowser(path string) (context.Context, error) {
+	chromium.once.Do(func() {
+		dir, err := os.MkdirTemp("", "gridloom-chromium-")
+		if err != nil {
+			chromium.err = err
+			return
+		}
+		// The window is as large as the largest viewport a test emulates.
+		actx, cancelAlloc := chromedp.NewExecAllocator(context.Background(), chromiumOptions(path, dir, 2400, 1500)...)
+		bctx, cancelBrowser := chromedp.NewContext(actx)
+		chromium.stop = func() {
+			cancelBrowser()
+			cancelAlloc()
+			_ = os.RemoveAll(dir)
+		}
+		if err := chromedp.Do(bctx); err != nil {
+			chromium.err = fmt.Errorf("starting Chromium at %s: %w", path, err)
+			return
+		}
+		chromium.ctx = bctx
+	})
+	return chromium.ctx, chromium.err
+}
+
+func TestMain(m *testing.M) {
+	code := m.Run()
+	if chromium.stop != nil {
+		chromium.stop()
+	}
+	os.Exit(code)
+}
+
+// newTab opens a tab of the package's Chromium with a viewport of width ×
+// height, its console watched. It skips the test without Chromium.
 func newTab(t *testing.T, width, height int) *tab {
 	t.Helper()
 	path := chromiumPath()
@@ -54,12 +103,14 @@ func newTab(t *testing.T, width, height int) *tab {
 		}
 		t.Skip("Chromium is not at /usr/bin/chromium nor on PATH; install it (apt-get install chromium) to run the browser tests")
 	}
-	actx, cancelAlloc := chromedp.NewExecAllocator(context.Background(), chromiumOptions(path, t.TempDir(), width, height)...)
-	t.Cleanup(cancelAlloc)
-	ctx, cancel := chromedp.NewContext(actx)
+	bctx, err := sharedBrowser(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ctx, cancel := chromedp.NewContext(bctx)
 	t.Cleanup(cancel)
 	if err := chromedp.Do(ctx); err != nil {
-		t.Fatalf("starting Chromium at %s: %v", path, err)
+		t.Fatalf("opening a tab: %v", err)
 	}
 	tb := &tab{t: t, ctx: ctx}
 	msgs := chromedp.Console(ctx)
@@ -131,13 +182,38 @@ func (tb *tab) waitFor(what, cond string) {
 // checkConsole fails the test for any console error or uncaught exception.
 func (tb *tab) checkConsole() {
 	tb.t.Helper()
-	time.Sleep(100 * time.Millisecond) // let the last messages arrive
+	tb.flushConsole()
 	tb.mu.Lock()
 	defer tb.mu.Unlock()
 	for _, m := range tb.console {
 		if m.Type == chromedp.ConsoleError || m.IsException() || m.Type == chromedp.ConsoleWarning {
 			tb.t.Errorf("browser console %s: %s (%s:%d)", m.Type, m.Text, m.URL, m.Line)
 		}
+	}
+}
+
+// flushConsole waits until every console message the page sent so far has
+// reached tb.console: it logs a marker and polls until the marker arrives,
+// since the messages arrive in the order they were sent.
+func (tb *tab) flushConsole() {
+	tb.t.Helper()
+	tb.mu.Lock()
+	tb.flushes++
+	marker := fmt.Sprintf("gl-test-flush-%d", tb.flushes)
+	tb.mu.Unlock()
+	tb.do("logging a marker", chromedp.Evaluate[chromedp.Void](`console.debug('`+marker+`')`))
+	deadline := time.Now().Add(10 * time.Second)
+	for {
+		tb.mu.Lock()
+		arrived := slices.ContainsFunc(tb.console, func(m chromedp.ConsoleMessage) bool { return m.Text == marker })
+		tb.mu.Unlock()
+		if arrived {
+			return
+		}
+		if time.Now().After(deadline) {
+			tb.t.Fatalf("the console marker %s did not arrive", marker)
+		}
+		time.Sleep(10 * time.Millisecond)
 	}
 }
 
@@ -151,6 +227,7 @@ func (tb *tab) open(url string) {
 const scsOfSecond = `(document.querySelector('[data-testid=timing-table] tbody tr:nth-child(2) td[data-col=scs]') || {}).textContent`
 
 func TestBrowserLiveEdit(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1440, 1000)
 	tb.open(srv.URL + "/")
@@ -225,6 +302,7 @@ func TestBrowserLiveEdit(t *testing.T) {
 // lose its own. Each round changes the second partition's size twice in
 // a row; the address must end with the second value.
 func TestBrowserQuickEdits(t *testing.T) {
+	t.Parallel()
 	checkPageScript(t, quickEdits)
 }
 
@@ -291,6 +369,7 @@ const quickEdits = `(async () => {
 // untouched (bringing it in line would remove it). Sending one block
 // instead of four then changes that table, and it is brought in line.
 func TestBrowserKeepsUnchangedParts(t *testing.T) {
+	t.Parallel()
 	checkPageScript(t, keptParts)
 }
 
@@ -323,6 +402,7 @@ const keptParts = `(async () => {
 // TestBrowserRIVFills: typing a locationAndBandwidth places the partition
 // by it; committing the field fills start and size from it.
 func TestBrowserRIVFills(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1440, 1000)
 	tb.open(srv.URL + "/")
@@ -344,6 +424,7 @@ func TestBrowserRIVFills(t *testing.T) {
 }
 
 func TestBrowserDownloadsFigure(t *testing.T) {
+	t.Parallel()
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1280, 900)
 	dir := t.TempDir()
@@ -425,6 +506,7 @@ func symbolAtTime(n grid.Numerology, count int, t float64) (int, grid.Symbol) {
 }
 
 func TestBrowserReadout(t *testing.T) {
+	t.Parallel()
 	plans := demoPlans(t)
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 2400, 1500)
@@ -445,7 +527,7 @@ func TestBrowserReadout(t *testing.T) {
 	for _, c := range cases {
 		res := grid.Compute(plans[c.plan])
 		if opened != c.plan {
-			tb.open(srv.URL + "/?" + FormOf(plans[c.plan]).Query())
+			tb.open(srv.URL + "/?" + planform.FormOf(plans[c.plan]).Query())
 			tb.do("watching the pointer", chromedp.Evaluate[chromedp.Void](`document.addEventListener('pointermove', e => { window.glPointer = [e.clientX, e.clientY]; }, true);
 				document.getElementById('gl-figure').scrollIntoView({block: 'center'})`))
 			opened = c.plan

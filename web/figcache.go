@@ -4,7 +4,7 @@ import (
 	"bytes"
 	"container/list"
 	"net/http"
-	"strings"
+	"strconv"
 	"sync"
 )
 
@@ -69,56 +69,54 @@ func (c *responseCache) put(r *cachedResponse) {
 }
 
 // cached answers from c when it can and otherwise lets next answer,
-// keeping a 200 answer for the next request of the same query.
+// keeping a 200 answer for the next request of the same query. next is
+// asked for the plain answer; the cache compresses it once.
 func cached(c *responseCache, next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		if e, ok := c.get(r.URL.RawQuery); ok {
 			e.send(w, r)
 			return
 		}
+		plain := r.Clone(r.Context())
+		plain.Header.Del("Accept-Encoding")
 		rec := &recorder{header: http.Header{}}
-		next.ServeHTTP(rec, r)
+		next.ServeHTTP(rec, plain)
 		if rec.status != http.StatusOK {
 			rec.replay(w)
 			return
 		}
+		rec.header.Del("Content-Length")
+		rec.header.Del("Vary")
 		e := &cachedResponse{query: r.URL.RawQuery, header: rec.header, body: rec.body.Bytes()}
-		var gz bytes.Buffer
-		if gzipBytes(&gz, e.body) == nil {
-			e.gz = gz.Bytes()
+		if isCompressible(rec.header.Get("Content-Type")) {
+			var gz bytes.Buffer
+			if gzipBytes(&gz, e.body) == nil {
+				e.gz = gz.Bytes()
+			}
 		}
 		c.put(e)
 		e.send(w, r)
 	})
 }
 
-// send writes the kept answer, gzip-compressed when the client takes it.
+// send writes the kept answer, gzip-compressed when it has a gzip form and
+// the client takes it, by the same reading of Accept-Encoding as send.
 func (e *cachedResponse) send(w http.ResponseWriter, r *http.Request) {
 	h := w.Header()
 	for k, v := range e.header {
 		h[k] = v
 	}
 	body := e.body
-	if e.gz != nil && acceptsGzip(r) {
-		h.Set("Content-Encoding", "gzip")
+	if e.gz != nil {
 		h.Add("Vary", "Accept-Encoding")
-		body = e.gz
-	}
-	w.WriteHeader(http.StatusOK)
-	_, _ = w.Write(body)
-}
-
-// acceptsGzip reports whether the request's Accept-Encoding lists gzip
-// without q=0.
-func acceptsGzip(r *http.Request) bool {
-	for part := range strings.SplitSeq(r.Header.Get("Accept-Encoding"), ",") {
-		name, params, _ := strings.Cut(strings.TrimSpace(part), ";")
-		if strings.EqualFold(strings.TrimSpace(name), "gzip") {
-			q := strings.ReplaceAll(params, " ", "")
-			return q != "q=0" && q != "q=0.0" && q != "q=0.00" && q != "q=0.000"
+		if acceptsGzip(r) {
+			h.Set("Content-Encoding", "gzip")
+			body = e.gz
 		}
 	}
-	return false
+	h.Set("Content-Length", strconv.Itoa(len(body)))
+	w.WriteHeader(http.StatusOK)
+	_, _ = w.Write(body)
 }
 
 // recorder holds an answer in memory.

@@ -5,18 +5,30 @@ import (
 	"crypto/sha256"
 	"encoding/base64"
 	"html"
-	"io"
+	"log/slog"
+	"net/http"
 	"regexp"
 	"slices"
 	"strings"
+
+	"github.com/go-chi/chi/v5/middleware"
 
 	"gridloom/grid"
 	"gridloom/render"
 )
 
-// FigureFunc draws a result as an SVG document; render.Figure is the one
-// the app uses.
-type FigureFunc func(w io.Writer, r grid.Result, opt render.Options) error
+// inlineFigure draws a figure for a page: the inline SVG and the CSP
+// sources it needs, or, when drawing fails, the sentence the page shows in
+// its place (the failure is logged; the rest of the page still serves).
+func (s *server) inlineFigure(r *http.Request, res grid.Result, opt render.Options) (inline string, styles []string, failed string) {
+	svg, err := drawFigure(s.cfg.Figure, res, opt)
+	if err != nil {
+		s.logger.LogAttrs(r.Context(), slog.LevelError, "figure", slog.String("id", middleware.GetReqID(r.Context())), slog.Any("err", err))
+		return "", nil, "The figure could not be drawn: " + err.Error()
+	}
+	inline = inlineSVG(svg)
+	return inline, styleSources(inline), ""
+}
 
 // drawFigure draws res into memory, so that a failure never sends half a
 // figure.

@@ -16,6 +16,7 @@ import (
 	"testing"
 
 	"gridloom/grid/planfile"
+	"gridloom/web/planform"
 )
 
 // The fuzz targets of the web app. Each runs its seeds (the demo plans'
@@ -30,7 +31,7 @@ import (
 // addDemoSeeds adds the query of every demo plan, and of each with an op.
 func addDemoSeeds(f *testing.F) {
 	for _, p := range demoPlans(f) {
-		q := FormOf(p).Query()
+		q := planform.FormOf(p).Query()
 		f.Add(q)
 		f.Add(q + "&op=add")
 	}
@@ -44,13 +45,13 @@ func FuzzParseQuery(f *testing.F) {
 	addDemoSeeds(f)
 	f.Fuzz(func(t *testing.T, raw string) {
 		v, _ := url.ParseQuery(raw)
-		form, _ := ParseQuery(v)
+		form, _ := planform.ParseQuery(v)
 		q := form.Query()
 		v2, err := url.ParseQuery(q)
 		if err != nil {
 			t.Fatalf("Query() of the form of %q is %q, which does not parse: %v", raw, q, err)
 		}
-		form2, msgs2 := ParseQuery(v2)
+		form2, msgs2 := planform.ParseQuery(v2)
 		if len(msgs2) > 0 {
 			t.Errorf("the query Query() wrote, %q, has messages %v", q, msgs2)
 		}
@@ -65,14 +66,14 @@ func FuzzParseQuery(f *testing.F) {
 		if len(msgs) > 0 {
 			return
 		}
-		back, msgs := FormOf(plan).Plan()
+		back, msgs := planform.FormOf(plan).Plan()
 		if len(msgs) > 0 {
-			t.Fatalf("FormOf(plan of %q) has messages %v", raw, msgs)
+			t.Fatalf("planform.FormOf(plan of %q) has messages %v", raw, msgs)
 		}
 		if !reflect.DeepEqual(back, plan) {
 			t.Errorf("plan of %q does not survive FormOf:\ngot  %+v\nwant %+v", raw, back, plan)
 		}
-		if a, b := FormOf(back).Query(), FormOf(plan).Query(); a != b {
+		if a, b := planform.FormOf(back).Query(), planform.FormOf(plan).Query(); a != b {
 			t.Errorf("FormOf is not stable:\nfirst  %q\nsecond %q", b, a)
 		}
 	})

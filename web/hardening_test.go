@@ -22,6 +22,7 @@ import (
 	"gridloom/grid"
 	"gridloom/grid/planfile"
 	"gridloom/grid/report"
+	"gridloom/web/planform"
 )
 
 // Tests of the app under bad input and abuse: bounded queries, refusals
@@ -76,7 +77,7 @@ func TestLargestPlanFitsTheLink(t *testing.T) {
 		p.Partitions = append(p.Partitions, grid.PartitionPlan{Name: long(i), SCSKHz: 60, CP: "extended", StartCRB: n(2473),
 			SizePRB: 275, LocationAndBandwidth: n(37949), Direction: "DL", Layers: 8, Modulation: "1024QAM"})
 	}
-	q := FormOf(p).Query()
+	q := planform.FormOf(p).Query()
 	t.Logf("the longest plan within the limits writes a %d-byte query; the limit is %d", len(q), MaxQuery)
 	if len(q) > MaxQuery/2 {
 		t.Errorf("a plan within the limits writes a %d-byte query, more than half of MaxQuery (%d)", len(q), MaxQuery)
@@ -175,17 +176,7 @@ func TestPageRefusalsKeepInput(t *testing.T) {
 }
 
 // fieldPtr returns the Form field of a query key, plan-level or partition.
-func fieldPtr(f *Form, key string) *string {
-	if i, sub, ok := partKey(key); ok && i < len(f.Parts) {
-		return f.Parts[i].field(sub)
-	}
-	for _, sf := range simpleFields {
-		if sf.key == key {
-			return sf.val(f)
-		}
-	}
-	return nil
-}
+func fieldPtr(f *planform.Form, key string) *string { return f.Value(key) }
 
 // startTag is one start tag of a page, with its attributes decoded.
 type startTag struct {
@@ -344,7 +335,7 @@ func hostilePlan(t *testing.T) grid.Plan {
 func TestNamesAreTextInThePage(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	p := hostilePlan(t)
-	q := FormOf(p).Query()
+	q := planform.FormOf(p).Query()
 	for _, c := range []struct {
 		path    string
 		scripts int
@@ -356,7 +347,7 @@ func TestNamesAreTextInThePage(t *testing.T) {
 			t.Errorf("%s: the plan name shows as %q", c.path, got)
 		}
 		for i, part := range p.Partitions {
-			if got := inputValue(t, r.body, partControlID(i, "name")); got != html.EscapeString(part.Name) {
+			if got := inputValue(t, r.body, planform.PartControlID(i, "name")); got != html.EscapeString(part.Name) {
 				t.Errorf("%s: partition %d's name is written %q, want %q", c.path, i, got, html.EscapeString(part.Name))
 			}
 		}
@@ -384,7 +375,7 @@ func TestNamesAreTextInThePage(t *testing.T) {
 func TestNamesAreTextInTheDownloads(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	p := hostilePlan(t)
-	q := FormOf(p).Query()
+	q := planform.FormOf(p).Query()
 
 	for _, path := range []string{"/figure.svg?" + q, "/figure.svg?" + q + "&download=1"} {
 		r := get(t, srv, path)

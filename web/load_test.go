@@ -18,6 +18,7 @@ import (
 	"time"
 
 	"gridloom/grid/planfile"
+	"gridloom/web/planform"
 )
 
 // loadRequest is one request of the load mix and the status it must get.
@@ -51,7 +52,7 @@ func loadMix(t *testing.T, cfg Config) []loadRequest {
 		mix = append(mix, loadRequest{method: http.MethodPost, path: path, ctype: ctype, body: body, want: want})
 	}
 	for _, d := range cfg.Demos {
-		q := FormOf(d.Plan).Query()
+		q := planform.FormOf(d.Plan).Query()
 		for _, path := range []string{"/?", "/fragment?", "/figure.svg?", "/plan.json?", "/plan.yaml?", "/symbols.csv?", "/fragment?op=add&"} {
 			getReq(path+q, http.StatusOK)
 		}
@@ -68,7 +69,7 @@ func loadMix(t *testing.T, cfg Config) []loadRequest {
 		postReq("/open", ctype, up, http.StatusSeeOther)
 	}
 	q := campusQuery(t)
-	evil := FormOf(hostilePlan(t)).Query()
+	evil := planform.FormOf(hostilePlan(t)).Query()
 	bad := strings.Replace(q, "p1.size=50", "p1.size=5o", 1)
 	for _, c := range []struct {
 		path string

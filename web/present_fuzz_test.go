@@ -1,6 +1,7 @@
 package web
 
 import (
+	"gridloom/web/planform"
 	"net/http"
 	"slices"
 	"strings"
@@ -15,7 +16,7 @@ import (
 func FuzzWalk(f *testing.F) {
 	addDemoSeeds(f)
 	for _, p := range demoPlans(f) {
-		q := FormOf(p).Query()
+		q := planform.FormOf(p).Query()
 		f.Add(q + "&step=3&view=projector")
 		f.Add(q + "&step=tdd&view=print&fig.theme=print&fig.layers=none")
 		f.Add(q + "&step=99&view=x&fig.width=1")
@@ -40,8 +41,8 @@ func FuzzWalk(f *testing.F) {
 // renderer's own SVG.
 func FuzzCompare(f *testing.F) {
 	for _, p := range demoPlans(f) {
-		a := FormOf(p)
-		q := compareQuery(a, copyForm(a), FigureForm{})
+		a := planform.FormOf(p)
+		q := planform.CompareQuery(a, planform.CopyOf(a), planform.FigureForm{})
 		f.Add(q)
 		f.Add("side=b&" + q + "&b.op=add&fig.theme=print")
 		f.Add("side=a&" + strings.ReplaceAll(q, "b.", "a.") + "&a.p0.scs=x")

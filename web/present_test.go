@@ -16,6 +16,7 @@ import (
 	"gridloom/grid/planfile"
 	"gridloom/render"
 	"gridloom/static"
+	"gridloom/web/planform"
 )
 
 // Tests of the walkthrough, the comparison and the figure options.
@@ -237,7 +238,7 @@ func TestWalkPrintAll(t *testing.T) {
 
 func TestNamesAreTextInTheWalkthrough(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
-	q := FormOf(hostilePlan(t)).Query()
+	q := planform.FormOf(hostilePlan(t)).Query()
 	r := get(t, srv, "/walk?"+q+"&step=part-0")
 	wantStatus(t, r, http.StatusOK)
 	checkPageMarkup(t, "hostile walk", r.body, 1, 1)
@@ -259,7 +260,7 @@ func TestFigureOptionsLayers(t *testing.T) {
 		{"fig.layers=all", ""},
 		{"fig.layers=lattice,grid", "lattice,grid"}, // kept as typed, for its message
 	} {
-		if got := parseFigureForm(mustQuery(t, c.query)).Layers; got != c.want {
+		if got := planform.ParseFigureForm(mustQuery(t, c.query)).Layers; got != c.want {
 			t.Errorf("%q: layers %q, want %q", c.query, got, c.want)
 		}
 	}
@@ -329,7 +330,7 @@ func TestFigureOptions(t *testing.T) {
 		// The page keeps the input beside its control and says why.
 		r := get(t, srv, "/?"+q+c.query)
 		wantStatus(t, r, http.StatusUnprocessableEntity)
-		id := controlIDOfKey(c.key)
+		id := planform.KeyID(c.key)
 		wantContains(t, "the note beside "+id, noteText(t, r.body, id), c.allowed)
 		u, _ := url.ParseQuery(strings.TrimPrefix(c.query, "&"))
 		if c.key != "fig.theme" {
@@ -363,7 +364,7 @@ func TestFigureRoundTrip(t *testing.T) {
 	}
 	for _, plan := range plans {
 		fig := "fig.theme=print&fig.layers=lattice%2Clabels%2Ctdd&fig.caption=Figure+1"
-		q := joinQuery(FormOf(plan).Query(), fig)
+		q := planform.JoinQuery(planform.FormOf(plan).Query(), fig)
 		first := get(t, srv, "/figure.svg?"+q+"&download=1")
 		wantStatus(t, first, http.StatusOK)
 
@@ -409,7 +410,7 @@ func TestFigureRoundTrip(t *testing.T) {
 	plan := testConfig(t).Plan
 	svg := get(t, srv, "/figure.svg?"+campusQuery(t))
 	body, ctype := multipartBody(t, "plan", "no-extension", []byte(svg.body))
-	if r := post(t, srv, "/open", ctype, body); r.StatusCode != http.StatusSeeOther || r.Header.Get("Location") != "/?"+FormOf(plan).Query() {
+	if r := post(t, srv, "/open", ctype, body); r.StatusCode != http.StatusSeeOther || r.Header.Get("Location") != "/?"+planform.FormOf(plan).Query() {
 		t.Errorf("a figure without an extension: %d %s", r.StatusCode, r.Header.Get("Location"))
 	}
 }
@@ -435,7 +436,7 @@ func plotAttrs(t *testing.T, body, id string) map[string]string {
 func TestComparePage(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	pa, pb := comparePlans(t)
-	q := compareQuery(FormOf(pa), FormOf(pb), FigureForm{})
+	q := planform.CompareQuery(planform.FormOf(pa), planform.FormOf(pb), planform.FigureForm{})
 
 	r := get(t, srv, "/compare")
 	wantStatus(t, r, http.StatusSeeOther)
@@ -508,7 +509,7 @@ func TestCompareAbsolute(t *testing.T) {
 	campus := testConfig(t).Plan
 	moved := campus
 	moved.Carrier.CenterMHz = new(3759.99) // on the 15 kHz raster (TS 38.104 5.4.2.1)
-	r := get(t, srv, "/compare?"+compareQuery(FormOf(campus), FormOf(moved), FigureForm{}))
+	r := get(t, srv, "/compare?"+planform.CompareQuery(planform.FormOf(campus), planform.FormOf(moved), planform.FigureForm{}))
 	wantStatus(t, r, http.StatusOK)
 	ga, gb := plotAttrs(t, r.body, "a-gl-plot"), plotAttrs(t, r.body, "b-gl-plot")
 	abs := func(g map[string]string, k string) int64 {
@@ -528,7 +529,7 @@ func TestCompareAbsolute(t *testing.T) {
 	wantContains(t, "absolute scale note", r.body, "absolute frequency 3728.80 to 3781.19 MHz")
 
 	_, rel := comparePlans(t)
-	r = get(t, srv, "/compare?"+compareQuery(FormOf(campus), FormOf(rel), FigureForm{}))
+	r = get(t, srv, "/compare?"+planform.CompareQuery(planform.FormOf(campus), planform.FormOf(rel), planform.FigureForm{}))
 	wantStatus(t, r, http.StatusOK)
 	wantContains(t, "mixed scale note", r.body, "from each plan&#39;s own point A", "plan B has none")
 	// A's figure is labelled from point A too, to match B's.
@@ -542,7 +543,7 @@ func TestCompareAbsolute(t *testing.T) {
 func TestCompareFigures(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	pa, pb := comparePlans(t)
-	q := compareQuery(FormOf(pa), FormOf(pb), FigureForm{Theme: "print"})
+	q := planform.CompareQuery(planform.FormOf(pa), planform.FormOf(pb), planform.FigureForm{Theme: "print"})
 	page := get(t, srv, "/compare?"+q)
 	for _, side := range []string{"a", "b"} {
 		r := get(t, srv, "/compare/figure.svg?side="+side+"&"+q+"&download=1")
@@ -580,7 +581,7 @@ func TestCompareFigures(t *testing.T) {
 func TestNamesAreTextInTheComparison(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	p := hostilePlan(t)
-	q := compareQuery(FormOf(p), copyForm(FormOf(p)), FigureForm{Caption: evilPlan})
+	q := planform.CompareQuery(planform.FormOf(p), planform.CopyOf(planform.FormOf(p)), planform.FigureForm{Caption: evilPlan})
 	for _, path := range []string{"/compare?", "/compare/fragment?"} {
 		r := get(t, srv, path+q)
 		wantStatus(t, r, http.StatusOK)

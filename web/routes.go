@@ -2,43 +2,70 @@ package web
 
 import (
 	"log/slog"
+
+	"gridloom/render"
 	"net/http"
 
 	"github.com/go-chi/chi/v5"
 	"github.com/go-chi/chi/v5/middleware"
 )
 
-// addRoutes is the app's whole surface. Every page route takes the plan in
-// its query string (see Form); the API takes a plan file as the body.
-func addRoutes(r *chi.Mux, logger *slog.Logger, cfg Config) {
-	figures := newResponseCache(maxCachedFigures, maxCachedBytes)
+// NewServer returns the app's handler: the router with its middleware and
+// every route of routes.go.
+func NewServer(logger *slog.Logger, cfg Config) http.Handler {
+	if cfg.Figure == nil {
+		cfg.Figure = render.Figure
+	}
+	if cfg.PNG == nil {
+		cfg.PNG = render.FigurePNG
+	}
+	if cfg.SymbolCSV == nil {
+		cfg.SymbolCSV = render.SymbolCSV
+	}
+	s := &server{logger: logger, cfg: cfg, figures: newResponseCache(maxCachedFigures, maxCachedBytes), assets: newAssets()}
+	r := chi.NewRouter()
+	s.routes(r)
+	return r
+}
+
+// routes is the app's whole surface. Every page route takes the plan in
+// its query string (see planform.Form); the API takes a plan file as the
+// body. The pages and the API are two groups, each with its own limits,
+// panic recovery, 404 and 405 in its own style of error (text or JSON).
+func (s *server) routes(r *chi.Mux) {
 	r.Use(middleware.RequestID)
-	r.Use(accessLog(logger))
-	r.Use(recoverPanics(logger))
+	r.Use(accessLog(s.logger))
 	r.Use(securityHeaders)
-	r.Use(middleware.Compress(compressLevel, compressible...))
-	r.Use(limitQuery)
-	r.Use(limitBody)
 	r.Use(middleware.GetHead)
 
-	r.NotFound(handleNotFound())
-	r.MethodNotAllowed(handleMethodNotAllowed(r))
+	r.Route("/api", func(r chi.Router) {
+		r.Use(s.recoverPanics(apiErrors), s.limitQuery(apiErrors), s.limitBody(apiErrors))
+		r.NotFound(s.notFound(apiErrors))
+		r.MethodNotAllowed(s.methodNotAllowed(apiErrors, r))
+		api := func(h handlerFunc) http.HandlerFunc { return s.serve(apiErrors, h) }
+		r.Post("/v1/render", api(s.apiRender)) // plan JSON in, the lattice document out
+		r.Post("/v1/figure", api(s.apiFigure)) // plan JSON in, the figure out
+	})
 
-	r.Get("/", handlePage(logger, cfg))                                                 // the planner; an empty query opens the startup plan
-	r.Get("/fragment", handleFragment(logger, cfg))                                     // the planner's workspace alone, for live updates
-	r.Get("/demo/{name}", handleDemo(cfg))                                              // redirect to a demo plan
-	r.Method(http.MethodGet, "/figure.svg", cached(figures, handleFigure(logger, cfg))) // the figure, with the plan in its metadata; download=1 sends it as a file
-	r.Get("/figure.png", handleFigurePNG(logger, cfg))                                  // the figure as a PNG image; download=1 sends it as a file
-	r.Get("/walk", handleWalk(logger, cfg))                                             // the plan step by step for a team: step=, view=projector or print
-	r.Get("/compare", handleCompare(logger, cfg))                                       // two plans side by side on shared scales, a. and b. keys
-	r.Get("/compare/fragment", handleCompareFragment(logger, cfg))                      // the comparison's workspace alone, for live updates
-	r.Get("/compare/figure.svg", handleCompareFigure(logger, cfg, "svg"))               // one side's figure on the shared scales: side=a or b
-	r.Get("/compare/figure.png", handleCompareFigure(logger, cfg, "png"))               // the same as a PNG image
-	r.Get("/plan.json", handlePlanFile(logger, "json"))                                 // the plan as a JSON plan file
-	r.Get("/plan.yaml", handlePlanFile(logger, "yaml"))                                 // the plan as a YAML plan file
-	r.Get("/symbols.csv", handleSymbols(logger, cfg))                                   // one row per OFDM symbol of every partition
-	r.Post("/open", handleOpen(logger, cfg))                                            // upload a plan file and redirect to its page
-	r.Post("/api/v1/render", handleAPIRender(logger))                                   // plan JSON in, the lattice document out
-	r.Post("/api/v1/figure", handleAPIFigure(logger, cfg))                              // plan JSON in, the figure out
-	r.Method(http.MethodGet, "/static/*", http.StripPrefix("/static", staticHandler())) // embedded script, stylesheet and icon
+	r.Group(func(r chi.Router) {
+		r.Use(s.recoverPanics(pageErrors), s.limitQuery(pageErrors), s.limitBody(pageErrors))
+		page := func(h handlerFunc) http.HandlerFunc { return s.serve(pageErrors, h) }
+		r.Get("/", page(s.planner))                                          // the planner; an empty query opens the startup plan
+		r.Get("/fragment", page(s.plannerFragment))                          // the planner's workspace alone, for live updates
+		r.Get("/demo/{name}", page(s.demo))                                  // redirect to a demo plan
+		r.Get("/figure.svg", cached(s.figures, page(s.figureSVG)).ServeHTTP) // the figure, with the plan in its metadata; download=1 sends it as a file
+		r.Get("/figure.png", page(s.figurePNG))                              // the figure as a PNG image; download=1 sends it as a file
+		r.Get("/walk", page(s.walk))                                         // the plan step by step for a team: step=, view=projector or print
+		r.Get("/compare", page(s.compare))                                   // two plans side by side on shared scales, a. and b. keys
+		r.Get("/compare/fragment", page(s.compareFragment))                  // the comparison's workspace alone, for live updates
+		r.Get("/compare/figure.svg", page(s.compareFigure("svg")))           // one side's figure on the shared scales: side=a or b
+		r.Get("/compare/figure.png", page(s.compareFigure("png")))           // the same as a PNG image
+		r.Get("/plan.json", page(s.planFile("json")))                        // the plan as a JSON plan file
+		r.Get("/plan.yaml", page(s.planFile("yaml")))                        // the plan as a YAML plan file
+		r.Get("/symbols.csv", page(s.symbols))                               // one row per OFDM symbol of every partition
+		r.Post("/open", page(s.open))                                        // upload a plan file and redirect to its page
+		r.Get("/static/*", page(s.assets.serve))                             // embedded script, stylesheet and icon
+	})
+	r.NotFound(s.notFound(pageErrors))
+	r.MethodNotAllowed(s.methodNotAllowed(pageErrors, r))
 }

@@ -11,6 +11,7 @@ import (
 	"github.com/chromedp/chromedp"
 
 	"gridloom/grid"
+	"gridloom/web/planform"
 )
 
 var screenshot = flag.Bool("screenshot", false, "write the README screenshot to testdata/screenshot/page.png")
@@ -22,11 +23,12 @@ var screenshot = flag.Bool("screenshot", false, "write the README screenshot to 
 //
 //	go test ./web -run TestScreenshot -screenshot
 func TestScreenshot(t *testing.T) {
+	t.Parallel()
 	const width, height = 1440, 900
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, width, height)
 	plan := testConfig(t).Plan
-	tb.open(srv.URL + "/?" + FormOf(plan).Query())
+	tb.open(srv.URL + "/?" + planform.FormOf(plan).Query())
 	tb.do("watching the pointer", chromedp.Evaluate[chromedp.Void](`document.addEventListener('pointermove', e => { window.glPointer = [e.clientX, e.clientY]; }, true)`))
 
 	res := grid.Compute(plan)

@@ -28,6 +28,7 @@ import (
 	"gridloom/grid/planfile"
 	"gridloom/grid/report"
 	"gridloom/render"
+	"gridloom/web/planform"
 )
 
 // logBuffer collects the server's log for assertions.
@@ -188,13 +189,13 @@ func formSubmission(t *testing.T, page string) string {
 func TestFormWorksWithoutScript(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	for _, d := range testConfig(t).Demos {
-		page := get(t, srv, "/?"+FormOf(d.Plan).Query())
+		page := get(t, srv, "/?"+planform.FormOf(d.Plan).Query())
 		sub := formSubmission(t, page.body)
 		r := get(t, srv, "/?"+sub)
 		wantStatus(t, r, http.StatusOK)
 		// The submitted plan computes exactly as the plan shown (selects
 		// spell out defaults such as cp=normal, so compare the results).
-		f, _ := ParseQuery(mustQuery(t, sub))
+		f, _ := planform.ParseQuery(mustQuery(t, sub))
 		p, msgs := f.Plan()
 		if len(msgs) > 0 {
 			t.Fatalf("%s: the submitted form has messages %v", d.Name, msgs)
@@ -208,7 +209,7 @@ func TestFormWorksWithoutScript(t *testing.T) {
 }
 
 func campusQuery(t *testing.T) string {
-	return FormOf(testConfig(t).Plan).Query()
+	return planform.FormOf(testConfig(t).Plan).Query()
 }
 
 func TestSecurityHeadersOnEveryResponse(t *testing.T) {
@@ -271,7 +272,7 @@ func TestPageMiniSlots(t *testing.T) {
 	for scs, want := range map[int]string{15: "142.708 / 285.417 / 499.479", 30: "71.354 / 142.708 / 249.740"} {
 		plan := grid.Plan{Name: "mini", Carrier: grid.CarrierPlan{BandwidthMHz: 20},
 			Partitions: []grid.PartitionPlan{{Name: "a", SCSKHz: scs, SizePRB: 20}}}
-		r := get(t, srv, "/?"+FormOf(plan).Query())
+		r := get(t, srv, "/?"+planform.FormOf(plan).Query())
 		wantStatus(t, r, http.StatusOK)
 		wantContains(t, fmt.Sprintf("the timing table at %d kHz", scs), r.body, `<td class="gl-num" data-col="mini">`+want+`</td>`)
 	}
@@ -367,7 +368,7 @@ func TestRoundTripThroughPage(t *testing.T) {
 	// The query the page writes for its own plan is the query it was given.
 	srv, _ := newTestServer(t, testConfig(t))
 	for _, d := range testConfig(t).Demos {
-		q := FormOf(d.Plan).Query()
+		q := planform.FormOf(d.Plan).Query()
 		r := get(t, srv, "/fragment?"+q)
 		want := `data-query="` + strings.ReplaceAll(q, "&", "&amp;") + `"`
 		if !strings.Contains(r.body, want) {
@@ -429,7 +430,7 @@ func wantDisposition(t *testing.T, r response, file string) {
 func TestPlanDownloads(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	want := testConfig(t).Plan
-	q := FormOf(want).Query()
+	q := planform.FormOf(want).Query()
 	for _, c := range []struct {
 		path, ctype, file string
 		decode            func([]byte) (grid.Plan, error)
@@ -498,7 +499,7 @@ func TestUpload(t *testing.T) {
 	body, ctype := multipartBody(t, "plan", "port.yaml", yamlPlan)
 	r := post(t, srv, "/open", ctype, body)
 	wantStatus(t, r, http.StatusSeeOther)
-	if loc := r.Header.Get("Location"); loc != "/?"+FormOf(port).Query() {
+	if loc := r.Header.Get("Location"); loc != "/?"+planform.FormOf(port).Query() {
 		t.Errorf("after upload: Location %q, want the port plan's page", loc)
 	}
 
@@ -668,6 +669,31 @@ func TestCompression(t *testing.T) {
 			t.Errorf("%s: gzip body: %v", path, err)
 		}
 		res.Body.Close()
+	}
+}
+
+// TestGzipRefused: a client that refuses gzip (q=0) gets every answer
+// plain, as RFC 9110 12.5.3 says, from the pages, the figure (cached or
+// not), the plan files and the static assets alike.
+func TestGzipRefused(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	q := campusQuery(t)
+	for _, path := range []string{"/?" + q, "/figure.svg?" + q, "/figure.svg?" + q, "/plan.json?" + q, "/static/app.js", "/fragment?" + q} {
+		for _, ae := range []string{"gzip;q=0", "gzip; q=0.0, identity", "identity"} {
+			req, _ := http.NewRequest(http.MethodGet, srv.URL+path, nil)
+			req.Header.Set("Accept-Encoding", ae)
+			res, err := http.DefaultTransport.RoundTrip(req)
+			if err != nil {
+				t.Fatal(err)
+			}
+			body, _ := io.ReadAll(res.Body)
+			res.Body.Close()
+			if res.StatusCode != http.StatusOK || res.Header.Get("Content-Encoding") != "" || len(body) < 2 || (body[0] == 0x1f && body[1] == 0x8b) {
+				route, _, _ := strings.Cut(path, "?")
+				t.Errorf("%s with Accept-Encoding %q: status %d, Content-Encoding %q, body starts %q; want 200, plain",
+					route, ae, res.StatusCode, res.Header.Get("Content-Encoding"), body[:min(len(body), 2)])
+			}
+		}
 	}
 }
 

@@ -114,17 +114,6 @@ func doubled(t *testing.T, s string) int {
 	return int(2 * f)
 }
 
-func tableByNumber(t *testing.T, number string) Table {
-	t.Helper()
-	for _, tb := range Tables() {
-		if tb.String() == "Table "+number {
-			return tb
-		}
-	}
-	t.Fatalf("no table %q", number)
-	return 0
-}
-
 func TestCORESET0AgainstSrsRAN(t *testing.T) {
 	c := &comparison{t: t, source: "srsran"}
 	lengths := map[string]int{}

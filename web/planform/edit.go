@@ -1,4 +1,4 @@
-package web
+package planform
 
 import (
 	"fmt"
@@ -13,71 +13,83 @@ import (
 // Edits change the list of partitions, or empty an optional block. They
 // work on the Form, not the plan, so every other value stays as typed,
 // including ones that do not parse. The op key names one: "add"; "del.I",
-// "dup.I", "up.I" or "down.I" for partition I; "clear.tdd", "clear.ssb" or
-// "clear.env".
+// "dup.I", "up.I" or "down.I" for partition I; "clear.tdd", "clear.ssb",
+// "clear.env" or "clear.init".
 
-// applyOp performs op on f. res is the result of f's plan, which "add" uses
+// OpError is an edit that cannot be made; its text is a whole sentence for
+// the user, shown beside the partitions.
+type OpError struct{ Msg string }
+
+// Error returns the sentence.
+func (e *OpError) Error() string { return e.Msg }
+
+func opErrorf(format string, args ...any) error { return &OpError{Msg: fmt.Sprintf(format, args...)} }
+
+// ApplyOp performs op on f. res is the result of f's plan, which "add" uses
 // to place the new partition in free spectrum. It returns the id of the
-// control to focus next, or an error naming the allowed ops.
-func applyOp(f Form, op string, res grid.Result) (Form, string, error) {
+// control to focus next, or an *OpError naming the allowed ops.
+func ApplyOp(f Form, op string, res grid.Result) (Form, string, error) {
 	verb, num, hasIndex := strings.Cut(op, ".")
-	g := f.clone()
+	g := f.Clone()
 	if verb == "add" && !hasIndex {
 		if len(g.Parts) >= grid.MaxPartitions {
-			return f, "", fmt.Errorf("a plan holds at most %d partitions; remove one before adding another", grid.MaxPartitions)
+			return f, "", opErrorf("A plan holds at most %d partitions; remove one before adding another.", grid.MaxPartitions)
 		}
 		g.Parts = append(g.Parts, newPartition(g, res))
-		return g, partControlID(len(g.Parts)-1, "name"), nil
+		return g, PartControlID(len(g.Parts)-1, "name"), nil
 	}
 	if verb == "clear" {
 		switch num {
 		case "tdd":
 			g.TDD = TDDForm{}
-			return g, controlIDOfKey("tdd.ref"), nil
+			return g, KeyID("tdd.ref"), nil
 		case "ssb":
 			g.SSB = SSBForm{}
-			return g, controlIDOfKey("ssb.scs"), nil
+			return g, KeyID("ssb.scs"), nil
 		case "env":
 			g.Env = EnvForm{}
-			return g, controlIDOfKey("env.profile"), nil
+			return g, KeyID("env.profile"), nil
+		case "init":
+			g.Init = InitForm{}
+			return g, KeyID("ia.coreset"), nil
 		}
 	}
-	i, ok := index(num)
+	i, ok := Index(num)
 	if !hasIndex || !ok || i >= len(g.Parts) {
-		return f, "", fmt.Errorf("%q is not an edit of this plan; use add, or del, dup, up or down with a partition number from 0 to %d", op, len(g.Parts)-1)
+		return f, "", opErrorf("%q is not an edit of this plan; use add, or del, dup, up or down with a partition number from 0 to %d.", op, len(g.Parts)-1)
 	}
 	switch verb {
 	case "del":
 		g.Parts = slices.Delete(g.Parts, i, i+1)
 		switch {
 		case len(g.Parts) == 0:
-			return g, "b-add", nil
+			return g, IDAdd, nil
 		case i < len(g.Parts):
-			return g, partControlID(i, "name"), nil
+			return g, PartControlID(i, "name"), nil
 		}
-		return g, partControlID(len(g.Parts)-1, "name"), nil
+		return g, PartControlID(len(g.Parts)-1, "name"), nil
 	case "dup":
 		if len(g.Parts) >= grid.MaxPartitions {
-			return f, "", fmt.Errorf("a plan holds at most %d partitions; remove one before duplicating another", grid.MaxPartitions)
+			return f, "", opErrorf("A plan holds at most %d partitions; remove one before duplicating another.", grid.MaxPartitions)
 		}
 		c := g.Parts[i]
 		c.Name = uniqueName(g, c.Name+"-copy")
 		g.Parts = slices.Insert(g.Parts, i+1, c)
-		return g, partControlID(i+1, "name"), nil
+		return g, PartControlID(i+1, "name"), nil
 	case "up":
 		if i > 0 {
 			g.Parts[i-1], g.Parts[i] = g.Parts[i], g.Parts[i-1]
 			i--
 		}
-		return g, buttonID("up", i), nil
+		return g, ButtonID("up", i), nil
 	case "down":
 		if i+1 < len(g.Parts) {
 			g.Parts[i], g.Parts[i+1] = g.Parts[i+1], g.Parts[i]
 			i++
 		}
-		return g, buttonID("down", i), nil
+		return g, ButtonID("down", i), nil
 	}
-	return f, "", fmt.Errorf("%q is not an edit; use add, del, dup, up, down or clear", op)
+	return f, "", opErrorf("%q is not an edit; use add, del, dup, up, down or clear.", op)
 }
 
 // uniqueName returns base, or base with the first free "-2", "-3" … suffix,
@@ -91,18 +103,11 @@ func uniqueName(f Form, base string) string {
 		if k > 1 {
 			suffix = "-" + strconv.Itoa(k)
 		}
-		name := truncate(base, grid.MaxNameLen-utf8.RuneCountInString(suffix)) + suffix
+		name := Truncate(base, grid.MaxNameLen-utf8.RuneCountInString(suffix)) + suffix
 		if !taken(name) {
 			return name
 		}
 	}
-}
-
-func truncate(s string, n int) string {
-	if utf8.RuneCountInString(s) <= n {
-		return s
-	}
-	return string([]rune(s)[:n])
 }
 
 // newPartition proposes the partition that "add" appends: the settings of
@@ -159,7 +164,7 @@ func fill(f Form, res grid.Result) Form {
 			continue
 		}
 		if !changed {
-			g = f.clone()
+			g = f.Clone()
 			changed = true
 		}
 		l := res.Partitions[j]

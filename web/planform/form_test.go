@@ -1,4 +1,4 @@
-package web
+package planform
 
 import (
 	"io/fs"
@@ -92,6 +92,8 @@ func TestRoundTripPlans(t *testing.T) {
 			Partitions:  []grid.PartitionPlan{{Name: "x", SCSKHz: 120, SizePRB: 66}}},
 		"no partitions":           {Name: "empty"},
 		"an environment of zeros": {Environment: &grid.EnvironmentPlan{}, Partitions: []grid.PartitionPlan{{Name: "a"}}},
+		"initial access, row 0, BWPs of zeros": {InitialAccess: &grid.InitialAccessPlan{InitialDownlinkBWP: &grid.InitialBWPPlan{},
+			InitialUplinkBWP: &grid.InitialBWPPlan{Partition: "a"}}, Partitions: []grid.PartitionPlan{{Name: "a"}}},
 	}
 	for name, p := range cases {
 		t.Run(name, func(t *testing.T) { roundTrip(t, p) })
@@ -216,8 +218,8 @@ func TestApplyOp(t *testing.T) {
 	}
 	for _, c := range cases {
 		f := formOf(t, base)
-		st := newState(f, nil)
-		g, focus, err := applyOp(st.form, c.op, st.res)
+		st := NewState(f, nil)
+		g, focus, err := ApplyOp(st.Form, c.op, st.Result)
 		if err != nil {
 			t.Errorf("%s: %v", c.op, err)
 			continue
@@ -233,9 +235,9 @@ func TestApplyOp(t *testing.T) {
 		}
 	}
 	for _, op := range []string{"del.3", "dup.x", "up", "zap.0", "del.01", "clear.all"} {
-		st := newState(formOf(t, base), nil)
-		if _, _, err := applyOp(st.form, op, st.res); err == nil {
-			t.Errorf("applyOp(%q) = nil error, want one", op)
+		st := NewState(formOf(t, base), nil)
+		if _, _, err := ApplyOp(st.Form, op, st.Result); err == nil {
+			t.Errorf("ApplyOp(%q) = nil error, want one", op)
 		}
 	}
 }
@@ -243,8 +245,8 @@ func TestApplyOp(t *testing.T) {
 func TestAddPlacesInFreeSpectrum(t *testing.T) {
 	// 40 MHz at 15 kHz: N_RB 216. One partition on CRBs 0–99; the new one
 	// takes the rest of the carrier.
-	st := newState(formOf(t, "bw=40&p0.name=low&p0.scs=15&p0.start=0&p0.size=100"), nil)
-	g, _, err := applyOp(st.form, "add", st.res)
+	st := NewState(formOf(t, "bw=40&p0.name=low&p0.scs=15&p0.start=0&p0.size=100"), nil)
+	g, _, err := ApplyOp(st.Form, "add", st.Result)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -268,8 +270,8 @@ func must(p grid.Plan, m Messages) grid.Plan {
 func TestClearOps(t *testing.T) {
 	q := "tdd.ref=15&tdd.ms=5&ssb.scs=30&env.profile=long&p0.name=a"
 	for _, c := range []struct{ op, gone string }{{"clear.tdd", "tdd."}, {"clear.ssb", "ssb."}, {"clear.env", "env."}} {
-		st := newState(formOf(t, q), nil)
-		g, _, err := applyOp(st.form, c.op, st.res)
+		st := NewState(formOf(t, q), nil)
+		g, _, err := ApplyOp(st.Form, c.op, st.Result)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -282,14 +284,14 @@ func TestClearOps(t *testing.T) {
 func TestFillFromRIV(t *testing.T) {
 	// RIV 1099 with N = 275: L = 1099/275 + 1 = 4, RB_start = 1099 mod 275 = 274,
 	// which is the second branch: L = 275 − 4 + 2 = 273, RB_start = 0.
-	st := newState(formOf(t, "bw=100&p0.name=a&p0.scs=30&p0.riv=1099"), nil)
-	p := st.form.Parts[0]
+	st := NewState(formOf(t, "bw=100&p0.name=a&p0.scs=30&p0.riv=1099"), nil)
+	p := st.Form.Parts[0]
 	if p.RIV != "" || p.Start == "" || p.Size != "273" {
 		t.Errorf("after fill %+v, want start and size 273 filled and the RIV field empty", p)
 	}
 	// An RIV beside a start is not filled over: the user typed both.
-	st = newState(formOf(t, "bw=100&p0.name=a&p0.scs=30&p0.riv=1099&p0.start=5"), nil)
-	if p := st.form.Parts[0]; p.RIV != "1099" || p.Start != "5" || p.Size != "" {
+	st = NewState(formOf(t, "bw=100&p0.name=a&p0.scs=30&p0.riv=1099&p0.start=5"), nil)
+	if p := st.Form.Parts[0]; p.RIV != "1099" || p.Start != "5" || p.Size != "" {
 		t.Errorf("fill overwrote typed input: %+v", p)
 	}
 }
@@ -310,26 +312,23 @@ func TestControlID(t *testing.T) {
 		"environment.delayProfile":     "f-env-profile",
 		"nonsense":                     "",
 	} {
-		if got := controlID(field); got != want {
-			t.Errorf("controlID(%q) = %q, want %q", field, got, want)
+		if got := ControlID(field); got != want {
+			t.Errorf("ControlID(%q) = %q, want %q", field, got, want)
 		}
 	}
 }
 
-func TestFileName(t *testing.T) {
-	for in, want := range map[string]string{
-		"Hillcrest campus 40 MHz":        "hillcrest-campus-40-mhz",
-		`../../etc/passwd "x"; rm -rf /`: "etc-passwd-x-rm-rf",
-		"":                               "gridloom-plan",
-		"☃☃☃":                            "gridloom-plan",
-		"Été 2026":                       "t-2026",
-		strings.Repeat("a", 100):         strings.Repeat("a", 60),
-		"CON":                            "con-plan",
-		"com1":                           "com1-plan",
-		"console":                        "console",
-	} {
-		if got := fileName(in); got != want {
-			t.Errorf("fileName(%q) = %q, want %q", in, got, want)
-		}
+// TestClearInit: clear.init empties the initial access and keeps the rest.
+func TestClearInit(t *testing.T) {
+	st := NewState(formOf(t, "bw=40&ia.coreset=3&ia.dl.part=a&p0.name=a&p0.scs=30"), nil)
+	if st.Plan.InitialAccess == nil || st.Plan.InitialAccess.InitialDownlinkBWP == nil {
+		t.Fatalf("ia.coreset and ia.dl.part give no initial access: %+v", st.Plan.InitialAccess)
+	}
+	g, focus, err := ApplyOp(st.Form, "clear.init", st.Result)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if q := g.Query(); strings.Contains(q, "ia.") || !strings.Contains(q, "p0.name=a") || focus != "f-ia-coreset" {
+		t.Errorf("clear.init: query %s, focus %s; want no ia. keys, the partition kept, focus f-ia-coreset", q, focus)
 	}
 }

@@ -1,0 +1,124 @@
+package web
+
+import (
+	"cmp"
+	"fmt"
+	"log/slog"
+	"net/http"
+	"runtime/debug"
+	"strings"
+	"time"
+
+	"github.com/go-chi/chi/v5/middleware"
+)
+
+func securityHeaders(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		h := w.Header()
+		h.Set("Content-Security-Policy", basePolicy)
+		h.Set("X-Content-Type-Options", "nosniff")
+		h.Set("Referrer-Policy", "no-referrer")
+		h.Set("X-Frame-Options", "DENY")
+		h.Set("Cross-Origin-Opener-Policy", "same-origin")
+		next.ServeHTTP(w, r)
+	})
+}
+
+// limitBody stops reading a body at the limit; the handlers turn the read
+// error into 413. A body whose declared length is over the limit is refused
+// at once, except an upload, whose handler answers with the page and the
+// reason beside the file control.
+func (s *server) limitBody(style errorStyle) func(http.Handler) http.Handler {
+	return func(next http.Handler) http.Handler {
+		return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+			limit := int64(maxBody)
+			upload := strings.HasPrefix(r.Header.Get("Content-Type"), "multipart/form-data")
+			if upload {
+				limit = maxUploadBody
+			}
+			if r.ContentLength > limit && !upload {
+				s.answer(w, r, style, tooLarge(limit))
+				return
+			}
+			r.Body = http.MaxBytesReader(w, r.Body, limit)
+			next.ServeHTTP(w, r)
+		})
+	}
+}
+
+// MaxQuery is the longest query, in bytes, that the app reads; a longer
+// one gets 414. A link holds the whole plan: the longest a plan within the
+// engine's limits can write (16 partitions, every name 64 four-byte
+// characters, every field given) is under 16 KiB, so 32 KiB leaves room for
+// plans over the limits, which the page must still show to say what is
+// wrong. The server in front must allow headers of more than MaxQuery bytes
+// for the 414 and its message to be reached; the handler bounds its work
+// without relying on it.
+const MaxQuery = 32 << 10
+
+// limitQuery refuses a query longer than MaxQuery with 414, before any
+// handler parses it, saying how long it was and what the limit is.
+func (s *server) limitQuery(style errorStyle) func(http.Handler) http.Handler {
+	return func(next http.Handler) http.Handler {
+		return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+			if n := len(r.URL.RawQuery); n > MaxQuery {
+				s.answer(w, r, style, &problem{status: http.StatusRequestURITooLong,
+					text: fmt.Sprintf("The link's query is %d bytes long; gridloom reads at most %d (32 KiB). A plan this large travels better as a plan file: open it under \"Open a plan file\".", n, MaxQuery)})
+				return
+			}
+			next.ServeHTTP(w, r)
+		})
+	}
+}
+
+// statusClientClosed is logged for a request whose client went away before
+// it was answered (nginx's 499); it is never sent.
+const statusClientClosed = 499
+
+// accessLog writes one structured line per request. The query is logged by
+// size only: it holds a whole plan.
+func accessLog(logger *slog.Logger) func(http.Handler) http.Handler {
+	return func(next http.Handler) http.Handler {
+		return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+			ww := middleware.NewWrapResponseWriter(w, r.ProtoMajor)
+			start := time.Now()
+			next.ServeHTTP(ww, r)
+			status := ww.Status()
+			if status == 0 && r.Context().Err() != nil {
+				status = statusClientClosed
+			}
+			logger.LogAttrs(r.Context(), slog.LevelInfo, "request",
+				slog.String("id", middleware.GetReqID(r.Context())),
+				slog.String("method", r.Method),
+				slog.String("path", r.URL.Path),
+				slog.Int("query_bytes", len(r.URL.RawQuery)),
+				slog.Int("status", cmp.Or(status, http.StatusOK)),
+				slog.Int("bytes", ww.BytesWritten()),
+				slog.Duration("duration", time.Since(start)),
+			)
+		})
+	}
+}
+
+// recoverPanics turns a panic in a handler into a logged 500, so that one
+// bad request cannot take the app down.
+func (s *server) recoverPanics(style errorStyle) func(http.Handler) http.Handler {
+	return func(next http.Handler) http.Handler {
+		return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+			defer func() {
+				v := recover()
+				if v == nil {
+					return
+				}
+				if v == http.ErrAbortHandler {
+					panic(v)
+				}
+				s.logger.LogAttrs(r.Context(), slog.LevelError, "panic",
+					slog.String("id", middleware.GetReqID(r.Context())),
+					slog.Any("value", v), slog.String("stack", string(debug.Stack())))
+				s.answer(w, r, style, &problem{status: http.StatusInternalServerError, text: "Internal error; the log has the details."})
+			}()
+			next.ServeHTTP(w, r)
+		})
+	}
+}

@@ -1,0 +1,162 @@
+package web
+
+import (
+	"fmt"
+	"io"
+	"net/http"
+	"path/filepath"
+	"slices"
+	"strings"
+
+	"github.com/go-chi/chi/v5"
+
+	"bytes"
+
+	"gridloom/grid"
+	"gridloom/grid/planfile"
+	"gridloom/render"
+	"gridloom/web/planform"
+)
+
+// The planner: each handler reads the plan of the query into a
+// planform.State, builds the page view from it and renders page.templ.
+
+// planner serves the planner for the plan in the query. An empty query
+// redirects to the startup plan, so the address always holds the plan; an
+// op (a partition edit from a page without script) is applied and
+// redirects to the edited plan, focused on the control it concerns.
+func (s *server) planner(w http.ResponseWriter, r *http.Request) error {
+	if r.URL.RawQuery == "" {
+		http.Redirect(w, r, "/?"+planform.FormOf(s.cfg.Plan).Query(), http.StatusSeeOther)
+		return nil
+	}
+	st, focus, opErr := planform.Read(r.URL.RawQuery)
+	if opErr == nil && focus != "" {
+		http.Redirect(w, r, "/?"+st.Query()+"#"+focus, http.StatusSeeOther)
+		return nil
+	}
+	v, styles := s.pageOf(r, st)
+	return writeHTML(w, r, v.Status, page(v), styles)
+}
+
+// plannerFragment serves the workspace of the planner alone — figure,
+// tables, findings, then editorMark and the form — for the page script to
+// bring the page up to date with after an edit. It takes the same query as
+// the page, op included. It answers 200 whenever it could build the
+// workspace: the plan's own status (422 for a value that does not parse or
+// an error finding) is in the workspace's data-status, since the request
+// for a fragment did not fail.
+func (s *server) plannerFragment(w http.ResponseWriter, r *http.Request) error {
+	st, focus, _ := planform.Read(r.URL.RawQuery)
+	v, styles := s.pageOf(r, st)
+	v.Focus = focus
+	return writeHTML(w, r, http.StatusOK, workFragment(v), styles)
+}
+
+// pageOf draws the figure and builds the page view of a state, with the
+// CSP sources the inline figure needs.
+func (s *server) pageOf(r *http.Request, st planform.State) (pageView, []string) {
+	svg, styles, failed := s.inlineFigure(r, st.Result, st.Fig.Opt)
+	return buildPage(st, drawn{SVG: svg, Failed: failed}, demoLinks(s.cfg.Demos)), styles
+}
+
+// demo redirects to the page of a demo plan.
+func (s *server) demo(w http.ResponseWriter, r *http.Request) error {
+	name := chi.URLParam(r, "name")
+	i := slices.IndexFunc(s.cfg.Demos, func(d Demo) bool { return d.Name == name })
+	if i < 0 {
+		return &problem{status: http.StatusNotFound, text: "There is no demo plan " + name + "."}
+	}
+	http.Redirect(w, r, "/?"+planform.FormOf(s.cfg.Demos[i].Plan).Query(), http.StatusSeeOther)
+	return nil
+}
+
+// open reads an uploaded plan file (field "plan": JSON, YAML, or a figure
+// saved by gridloom, whose metadata holds the plan) and redirects to its
+// page, keeping the figure options of the page it came from. On failure it
+// shows that page (its query rides on the form's action) with the reason
+// beside the file control: the answer is the page, not an error.
+func (s *server) open(w http.ResponseWriter, r *http.Request) error {
+	plan, status, reasons := readUpload(r)
+	if status != http.StatusOK {
+		_, f, msgs := planform.ReadQuery(r.URL.RawQuery)
+		if r.URL.RawQuery == "" {
+			f = planform.FormOf(s.cfg.Plan)
+		}
+		v, styles := s.pageOf(r, planform.NewState(f, msgs))
+		for _, m := range reasons {
+			v.Upload.Notes = append(v.Upload.Notes, note{Severity: string(grid.Error), Text: m})
+		}
+		return writeHTML(w, r, status, page(v), styles)
+	}
+	fig := planform.ParseFigureForm(r.URL.Query()).Query()
+	http.Redirect(w, r, "/?"+planform.JoinQuery(planform.FormOf(plan).Query(), fig), http.StatusSeeOther)
+	return nil
+}
+
+// readUpload reads the plan of an upload, or the status and the sentences
+// that say why it cannot.
+func readUpload(r *http.Request) (grid.Plan, int, []string) {
+	fail := func(status int, reasons ...string) (grid.Plan, int, []string) { return grid.Plan{}, status, reasons }
+	if err := r.ParseMultipartForm(maxUploadBody); err != nil {
+		if isTooLarge(err) {
+			return fail(http.StatusRequestEntityTooLarge, "The upload is larger than 1 MiB; a plan file may be at most 1 MiB.")
+		}
+		return fail(http.StatusBadRequest, "The upload could not be read: send the plan file as multipart/form-data in the field \"plan\".")
+	}
+	defer func() { _ = r.MultipartForm.RemoveAll() }()
+	file, hdr, err := r.FormFile("plan")
+	if err != nil {
+		return fail(http.StatusBadRequest, "Choose a plan file (JSON or YAML) to open.")
+	}
+	defer file.Close()
+	data, err := io.ReadAll(io.LimitReader(file, planfile.MaxSize+1))
+	if err != nil {
+		return fail(http.StatusBadRequest, "The file could not be read.")
+	}
+	if len(data) > planfile.MaxSize {
+		return fail(http.StatusRequestEntityTooLarge, fmt.Sprintf("%s is larger than 1 MiB; a plan file may be at most 1 MiB.", hdr.Filename))
+	}
+	ext := strings.ToLower(filepath.Ext(hdr.Filename))
+	if ext == ".svg" || (ext != ".json" && ext != ".yaml" && ext != ".yml" && looksLikeXML(data)) {
+		inner, err := render.PlanFromSVG(data)
+		if err != nil {
+			return fail(http.StatusBadRequest, fmt.Sprintf("%s cannot be opened as a plan: %s", hdr.Filename, sentence(err)))
+		}
+		data = inner
+	}
+	var plan grid.Plan
+	switch ext {
+	case ".json":
+		plan, err = planfile.DecodeJSON(data)
+	case ".yaml", ".yml":
+		plan, err = planfile.DecodeYAML(data)
+	default:
+		plan, err = planfile.Decode(data)
+	}
+	if err != nil {
+		msgs := []string{fmt.Sprintf("%s is not a plan gridloom can open:", hdr.Filename)}
+		for _, fe := range fieldErrors(err) {
+			msgs = append(msgs, fe.Error())
+		}
+		return fail(http.StatusBadRequest, msgs...)
+	}
+	return plan, http.StatusOK, nil
+}
+
+// sentence is an error's text as the end of a sentence: with its full stop.
+func sentence(err error) string {
+	s := err.Error()
+	if strings.HasSuffix(s, ".") {
+		return s
+	}
+	return s + "."
+}
+
+// looksLikeXML reports whether data opens as an XML document does: with
+// "<" after any byte-order mark and white space. No plan file does.
+func looksLikeXML(data []byte) bool {
+	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
+	data = bytes.TrimLeft(data, " \t\r\n")
+	return len(data) > 0 && data[0] == '<'
+}
