@@ -89,6 +89,7 @@ func FindPRACH(plan Plan) (PRACHFound, error) {
 	}
 	layout := prachLayout(&res, unpaired)
 	out := PRACHFound{Table: spec.Table(), Tried: spec.Len()}
+	seen := validities{}
 	for index := range spec.Len() {
 		pp.ConfigurationIndex = index
 		var fs findings
@@ -96,7 +97,7 @@ func FindPRACH(plan Plan) (PRACHFound, error) {
 		if !ok {
 			continue
 		}
-		p := buildPRACH(&fs, pr, &res, bwp, source, layout)
+		p := buildPRACH(&fs, pr, &res, bwp, source, layout, seen)
 		if p == nil || slices.ContainsFunc(fs, func(f Finding) bool { return f.Severity == Error }) ||
 			slices.ContainsFunc(p.Occasions, func(o PRACHOccasion) bool { return !o.Valid }) {
 			continue

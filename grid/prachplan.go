@@ -404,15 +404,18 @@ func checkPRACH(fs *findings, rng Range, pp *PRACHPlan, res *Result) *PRACH {
 	if !ok {
 		return nil
 	}
-	return buildPRACH(fs, pr, res, bwp, source, prachLayout(res, unpaired))
+	return buildPRACH(fs, pr, res, bwp, source, prachLayout(res, unpaired), nil)
 }
 
+// validities remembers the verdict of TS 38.213 8.1 on an occasion (with
+// SFN 0) under one layout: the finder's indexes share most occasions.
+type validities map[prach.Occasion]prach.Validity
+
 // buildPRACH places the occasions of pr and checks them; the keys of pr are
-// valid. fs may be nil when only the verdict matters (the finder).
-func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, source string, layout prach.Layout) *PRACH {
-	var local findings
-	if fs == nil {
-		fs = &local
+// valid. seen may be nil; the finder shares one across the indexes.
+func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, source string, layout prach.Layout, seen validities) *PRACH {
+	if seen == nil {
+		seen = validities{}
 	}
 	cfg := pr.cfg
 	a, _ := cfg.Format.Pair()
@@ -464,10 +467,16 @@ func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, sourc
 	nValid := 0
 	firstBad := ""
 	for _, o := range frame {
-		v, err := prach.Valid(o, layout)
-		if err != nil {
-			fs.add(Error, CodePRACH, "", prachField, "%s.", capitalise(err.Error()))
-			return nil
+		key := o
+		key.SFN = 0
+		v, known := seen[key]
+		if !known {
+			var err error
+			if v, err = prach.Valid(o, layout); err != nil {
+				fs.add(Error, CodePRACH, "", prachField, "%s.", capitalise(err.Error()))
+				return nil
+			}
+			seen[key] = v
 		}
 		verdict = append(verdict, v)
 		if v.Valid {
@@ -497,18 +506,34 @@ func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, sourc
 			sent = append(sent, i)
 		}
 	}
-	periods := 1
-	ssbOf := map[[2]int64][]int{} // (start, n_RA) → blocks
-	assoc, aerr := prach.Associate(pr.spec, pr.index, pr.mu, pr.fdm, sent, pr.n, layout)
-	if aerr == nil {
-		periods = assoc.Periods
-		out.AssociationPeriodFrames = assoc.Periods * cfg.X
-		for _, r := range assoc.ROs {
-			ssbOf[[2]int64{r.StartTc, int64(r.FDM)}] = r.SSBs
+	// TS 38.213 8.1: the association period is the least value of Table
+	// 8.1-1 (1, 2, 4, 8 or 16 configuration periods, at most 160 ms) whose
+	// valid occasions map every sent block at least once; blocks go to
+	// occasions by preamble, then frequency, then time, in whole mapping
+	// cycles. prach.Associate does the same; this walk reuses the verdicts
+	// above instead of judging every occasion again (TestPRACHMappingAgreesWithAssociate).
+	if len(sent) == 0 {
+		fs.add(Error, CodePRACH, "", "ssb.bitmap", "The SS/PBCH bitmap sends no block, so none can map onto the PRACH occasions; send at least one.")
+		return nil
+	}
+	perPeriod := nValid * pr.fdm * framesWith
+	perCycle := occasionsPerCycle(pr.n, len(sent))
+	periods := 0
+	for p := 1; p*cfg.X <= 16; p *= 2 {
+		if p*perPeriod >= perCycle {
+			periods = p
+			break
 		}
-		if assoc.Cycles == 0 {
-			aerr = fmt.Errorf("no whole mapping cycle")
-		}
+	}
+	mapped := 0
+	if periods > 0 {
+		out.AssociationPeriodFrames = periods * cfg.X
+		mapped = periods * perPeriod / perCycle * perCycle
+	}
+	var aerr error
+	if periods == 0 {
+		aerr = fmt.Errorf("no association period")
+		periods = 1
 	}
 	switch {
 	case nValid == 0:
@@ -531,6 +556,7 @@ func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, sourc
 	}
 
 	// Every occasion of the association period, valid or not.
+	k := 0 // valid occasions so far, in mapping order
 	for p := range periods {
 		for sfn := range cfg.X {
 			if !cfg.InFrame(sfn) {
@@ -545,7 +571,15 @@ func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, sourc
 						Low: CRBEdge(bwp.SCSKHz, lo), High: CRBEdge(bwp.SCSKHz, lo+alloc.NRB),
 						Valid: verdict[i].Valid, Reason: verdict[i].Reason}
 					if po.Valid {
-						po.SSBIndexes = ssbOf[[2]int64{int64(po.Start), int64(f)}]
+						if k < mapped {
+							j := k % perCycle
+							if pr.n.Den > 1 {
+								po.SSBIndexes = []int{sent[j/pr.n.Den]}
+							} else {
+								po.SSBIndexes = slices.Clone(sent[j*pr.n.Num : min((j+1)*pr.n.Num, len(sent))])
+							}
+						}
+						k++
 					}
 					out.Occasions = append(out.Occasions, po)
 				}
