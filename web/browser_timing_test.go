@@ -81,3 +81,37 @@ func TestBrowserTiming(t *testing.T) {
 	tb.waitFor("the warning leaves the field", `document.getElementById('n-f-env-radius').textContent.trim() === ''`)
 	tb.checkConsole()
 }
+
+// TestBrowserCompareCrossLink: the comparison's conflict list is empty when
+// the two patterns are aligned and follows a typed frame offset: the
+// campus pattern one slot later conflicts 1857.292 µs per 5 ms, 3714.583
+// per 10 ms (worked by hand in planform's TestCrossLinkOfTheComparison).
+func TestBrowserCompareCrossLink(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	tb := newTab(t, 1440, 1000)
+	tb.do("opening the comparison", chromedp.Navigate(srv.URL+"/compare?"+campusCompare(t, "")))
+	tb.waitAcross("the comparison", `document.getElementById('b-gl-plot') !== null && document.readyState === 'complete'`)
+	tb.do("marking the window", chromedp.Evaluate[chromedp.Void](`window.glMarker = 'still here'`))
+	if !eval[bool](tb, `document.querySelector('[data-testid=crosslink-empty]') !== null && document.querySelector('[data-testid=crosslink-table]') === null`) {
+		t.Error("the aligned patterns show conflicts")
+	}
+
+	tb.do("typing a frame offset of 1000 µs", chromedp.Focus(chromedp.ID("b-f-frameOffsetUs")), chromedp.KeyEvent("1000"))
+	tb.waitFor("the conflicts", `(document.querySelector('[data-testid=crosslink-total]') || {}).textContent?.startsWith('3714.583 µs of conflict per 10 ms')`)
+	if n := eval[int](tb, `document.querySelectorAll('[data-testid=crosslink-table] tbody tr').length`); n != 2 {
+		t.Errorf("%d conflicts listed, want 2", n)
+	}
+	if n := eval[int](tb, `document.querySelectorAll('[data-testid=crosslink-strip] .gl-xl-conflict').length`); n != 2 {
+		t.Errorf("%d conflicts marked on the strip, want 2", n)
+	}
+	tb.waitFor("the address holds the offset", `location.search.includes('b.frameOffsetUs=1000')`)
+	if got := eval[string](tb, `window.glMarker`); got != "still here" {
+		t.Error("the edit reloaded the page")
+	}
+
+	// Back to 0: aligned again.
+	tb.do("clearing the offset", chromedp.Evaluate[chromedp.Void](`document.getElementById('b-f-frameOffsetUs').select()`), chromedp.KeyEvent("0"))
+	tb.waitFor("the empty list", `document.querySelector('[data-testid=crosslink-empty]') !== null`)
+	tb.checkConsole()
+}
