@@ -105,6 +105,12 @@ func TestBrowserCompareCrossLink(t *testing.T) {
 	if n := eval[int](tb, `document.querySelectorAll('[data-testid=crosslink-strip] .gl-xl-conflict').length`); n != 2 {
 		t.Errorf("%d conflicts marked on the strip, want 2", n)
 	}
+	// The figures mark them too, each on its own time: 2 bands in 5 ms each.
+	for _, side := range []string{"a", "b"} {
+		if n := eval[int](tb, `document.querySelectorAll('[data-testid=figure-`+side+`] .gl-xl-marks rect').length`); n != 2 {
+			t.Errorf("figure %s marks %d conflicts, want 2", side, n)
+		}
+	}
 	tb.waitFor("the address holds the offset", `location.search.includes('b.frameOffsetUs=1000')`)
 	if got := eval[string](tb, `window.glMarker`); got != "still here" {
 		t.Error("the edit reloaded the page")

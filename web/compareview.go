@@ -122,7 +122,7 @@ func buildCompare(c planform.Compare, figs [2]drawn) compareView {
 		st := c.Sides[i]
 		sv := compareSide{Key: side, Label: strings.ToUpper(side), Name: strings.TrimSpace(st.Plan.Name),
 			Placed: len(st.Result.Partitions), Total: len(st.Plan.Partitions),
-			Figure: figs[i].SVG, FigureErr: figs[i].Failed,
+			Figure: markConflicts(figs[i].SVG, c, i), FigureErr: figs[i].Failed,
 			Planner: "/?" + st.Query(),
 			SVG:     "/compare/figure.svg?" + planform.JoinQuery("side="+side, q, "download=1"),
 			PNG:     "/compare/figure.png?" + planform.JoinQuery("side="+side, q, "download=1"),

@@ -27,6 +27,9 @@ func TestCompareCrossLink(t *testing.T) {
 	wantStatus(t, r, http.StatusOK)
 	wantContains(t, "aligned", r.body, `data-testid="crosslink-empty"`, "0.000 µs of conflict per 10 ms",
 		`name="b.frameOffsetUs" value=""`)
+	if strings.Contains(r.body, "crosslink-marks") {
+		t.Error("the aligned figures carry conflict marks")
+	}
 
 	r = get(t, srv, "/compare?"+campusCompare(t, "b.frameOffsetUs=1000"))
 	wantStatus(t, r, http.StatusOK)
@@ -36,6 +39,15 @@ func TestCompareCrossLink(t *testing.T) {
 		`data-testid="crosslink-strip"`, `name="b.frameOffsetUs" value="1000"`)
 	if strings.Contains(r.body, `data-testid="crosslink-empty"`) {
 		t.Error("the offset comparison says the patterns are aligned")
+	}
+	// Both figures mark them over their plot (x 92, width 876 for the 5 ms
+	// span): on A's time [0, 1) ms at x 92, width 876/5 = 175.2; on B's time,
+	// 1 ms earlier, the same interval wraps to [4, 5) ms, x 92 + 4·175.2.
+	wantContains(t, "marks", r.body, `data-testid="crosslink-marks"`,
+		`<rect x="92.00" y="48.00" width="175.20" height="460.00" fill="#b02a20"`,
+		`<rect x="792.80" y="48.00" width="175.20" height="460.00" fill="#b02a20"`)
+	if n := strings.Count(r.body, `data-testid="crosslink-marks"`); n != 2 {
+		t.Errorf("%d figures carry conflict marks, want 2", n)
 	}
 	// The swap turns the offset round: A's frame is 1 ms after B's.
 	wantContains(t, "swap", r.body, "b.frameOffsetUs=-1000")
