@@ -119,5 +119,13 @@ func TestBrowserCompareCrossLink(t *testing.T) {
 	// Back to 0: aligned again.
 	tb.do("clearing the offset", chromedp.Evaluate[chromedp.Void](`document.getElementById('b-f-frameOffsetUs').select()`), chromedp.KeyEvent("0"))
 	tb.waitFor("the empty list", `document.querySelector('[data-testid=crosslink-empty]') !== null`)
+
+	// An offset beyond a 20 ms cycle is refused beside the field, and the
+	// list gives way to the same sentence.
+	tb.do("typing 30000", chromedp.Evaluate[chromedp.Void](`document.getElementById('b-f-frameOffsetUs').select()`), chromedp.KeyEvent("30000"))
+	tb.waitFor("the message beside the field", `document.getElementById('n-b-f-frameOffsetUs').textContent.includes('must be a number of µs from −20000 to 20000')`)
+	if got := eval[string](tb, `document.querySelector('[data-testid=crosslink-why]').textContent`); !strings.Contains(got, "b.frameOffsetUs") {
+		t.Errorf("the conflicts section says %q", got)
+	}
 	tb.checkConsole()
 }
