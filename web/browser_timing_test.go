@@ -78,6 +78,8 @@ func TestBrowserTiming(t *testing.T) {
 	if got := eval[string](tb, `document.querySelector('[data-testid=advice-table] tr[data-chosen=true] th').textContent`); got != "60 kHz normal CP" {
 		t.Errorf("the chosen row is %q", got)
 	}
+	// The form follows a frame after the results.
+	tb.waitFor("the Radio channel section names the advice", `document.getElementById('g-env').textContent.includes('the timing advice favours 60 kHz normal CP')`)
 	tb.waitFor("the warning leaves the field", `document.getElementById('n-f-env-radius').textContent.trim() === ''`)
 	tb.checkConsole()
 }
