@@ -36,6 +36,7 @@ type resultsView struct {
 	SSB                     *ssbView
 	MIB                     *mibView // the MIB as bits; the planner's only
 	Fit                     *fitView
+	Timing                  *timingView // issue 17; nil without timing
 }
 
 type ssbView struct {
@@ -229,6 +230,7 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 	rv.Channel, rv.HasTDD = channelFacts(res), res.TDD != nil
 	rv.SSB = ssbOf(res)
 	rv.Fit = fitOf(res)
+	rv.Timing = timingOf(res)
 	rv.Lattice = latticeOf(res)
 	return rv
 }
