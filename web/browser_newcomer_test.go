@@ -1,0 +1,132 @@
+package web
+
+import (
+	"fmt"
+	"os"
+	"path/filepath"
+	"testing"
+
+	"github.com/chromedp/chromedp"
+)
+
+// The browser tests of issue 19: what a first afternoon with the page ran
+// into, each at the widths the issue names.
+
+// TestBrowserFormBesideFigure: at 1024 × 768 the editor no longer drops under
+// the results, so the figure and the form are both in view while editing;
+// at 800 px (under the 56 rem breakpoint) the page is one column again,
+// figure first.
+func TestBrowserFormBesideFigure(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	for _, c := range []struct {
+		width, height int
+		beside        bool
+	}{{1024, 768, true}, {900, 700, true}, {800, 700, false}} {
+		t.Run(fmt.Sprintf("%dx%d", c.width, c.height), func(t *testing.T) {
+			tb := newTab(t, c.width, c.height)
+			tb.open(srv.URL + "/?" + campusQuery(t))
+			// Each box as [left, top, right, bottom] in the viewport.
+			box := func(sel string) []float64 {
+				return eval[[]float64](tb, `(() => { const r = document.querySelector('`+sel+`').getBoundingClientRect(); return [r.left, r.top, r.right, r.bottom]; })()`)
+			}
+			fig, name := box("#gl-figure svg"), box("#f-name")
+			inView := func(b []float64) bool {
+				return b[0] >= 0 && b[2] <= float64(c.width) && b[1] < float64(c.height) && b[3] > 0
+			}
+			if c.beside {
+				if !inView(fig) || !inView(name) {
+					t.Errorf("figure at %v and the plan name field at %v: want both in the %d×%d viewport", fig, name, c.width, c.height)
+				}
+				if name[2] > fig[0] {
+					t.Errorf("the form (right edge %.0f) is not beside the figure (left edge %.0f)", name[2], fig[0])
+				}
+				if w := fig[2] - fig[0]; w < 0.45*float64(c.width) {
+					t.Errorf("the figure is %.0f px wide in a %d px window, want at least 45 %%", w, c.width)
+				}
+			} else if fig[3] > name[1] {
+				t.Errorf("one column: the figure (bottom %.0f) should come before the form (top %.0f)", fig[3], name[1])
+			}
+			if sw := eval[float64](tb, `document.documentElement.scrollWidth`); sw > float64(c.width) {
+				t.Errorf("the page is %.0f px wide in a %d px window", sw, c.width)
+			}
+			tb.checkConsole()
+		})
+	}
+}
+
+// TestBrowserNotesSpanTheBox: a message under a narrow field (Start CRB,
+// DL slots) takes the whole width of its box and reads in a few lines, at
+// 390 px and at 1440 px, without widening the page; the fields of its row
+// stay on their row.
+func TestBrowserNotesSpanTheBox(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	v := mustQuery(t, campusQuery(t))
+	v.Set("p1.start", "2x6")
+	v.Set("tdd.dl", "3q")
+	q := v.Encode()
+	for _, width := range []int{390, 1440} {
+		t.Run(fmt.Sprint(width), func(t *testing.T) {
+			tb := newTab(t, width, 900)
+			tb.open(srv.URL + "/?" + q)
+			tb.do("opening the TDD section", chromedp.Evaluate[chromedp.Void](`document.getElementById('f-tdd-dl').closest('details').open = true`))
+			for _, id := range []string{"f-p1-start", "f-tdd-dl"} {
+				// The notes' width against their grid's, and their lines.
+				got := eval[[]float64](tb, `(() => {
+					const n = document.getElementById('n-`+id+`'), g = n.parentElement;
+					const f = document.getElementById('`+id+`').closest('.gl-field');
+					const nr = n.getBoundingClientRect(), gr = g.getBoundingClientRect(), fr = f.getBoundingClientRect();
+					const p = n.querySelector('.gl-note');
+					const lh = parseFloat(getComputedStyle(p).lineHeight);
+					return [nr.width, gr.width, nr.top, fr.bottom, p.getBoundingClientRect().height / lh];
+				})()`)
+				nw, gw, top, fieldBottom, lines := got[0], got[1], got[2], got[3], got[4]
+				if nw < gw-1 {
+					t.Errorf("%s: the notes are %.0f px wide in a box of %.0f px, want the whole box", id, nw, gw)
+				}
+				if top < fieldBottom-1 {
+					t.Errorf("%s: the notes start at %.0f, above the bottom of their field (%.0f)", id, top, fieldBottom)
+				}
+				if lines > 6 {
+					t.Errorf("%s: the note takes %.1f lines at %d px, want at most 6", id, lines, width)
+				}
+			}
+			// Start CRB's row-mates stay beside it.
+			if !eval[bool](tb, `(() => {
+				const a = document.getElementById('f-p1-start').getBoundingClientRect(), b = document.getElementById('f-p1-size').getBoundingClientRect();
+				return Math.abs(a.top - b.top) < 1;
+			})()`) {
+				t.Error("Size (PRB) left the row of Start CRB when its note appeared")
+			}
+			if sw := eval[float64](tb, `document.documentElement.scrollWidth`); sw > float64(width) {
+				t.Errorf("the page is %.0f px wide in a %d px window", sw, width)
+			}
+		})
+	}
+}
+
+// TestBrowserFailedOpenInView: a file the Open button cannot open answers
+// with the page again; the reason beside the file control is in view, at a
+// phone's width (where the editor follows the results) and at 1024 px.
+func TestBrowserFailedOpenInView(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	bad := filepath.Join(t.TempDir(), "plan.yaml")
+	if err := os.WriteFile(bad, []byte("carrier: [\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	for _, size := range [][2]int{{390, 800}, {1024, 768}} {
+		t.Run(fmt.Sprintf("%dx%d", size[0], size[1]), func(t *testing.T) {
+			tb := newTab(t, size[0], size[1])
+			tb.open(srv.URL + "/?" + campusQuery(t))
+			tb.do("choosing the file", chromedp.SetUploadFiles(chromedp.CSS("#f-file"), []string{bad}))
+			tb.do("pressing Open", chromedp.Click(chromedp.CSS(`[data-testid=open]`)))
+			tb.waitAcross("the reason beside the file control", `document.readyState === 'complete' && location.pathname === '/open' && document.getElementById('n-f-file') && document.getElementById('n-f-file').textContent.trim() !== ''`)
+			tb.waitFor("the reason in view", `(() => { const r = document.getElementById('n-f-file').getBoundingClientRect(); return r.top >= 0 && r.bottom <= innerHeight; })()`)
+			if got := eval[string](tb, `document.activeElement && document.activeElement.id`); got != "f-file" {
+				t.Errorf("focus on %q after the refused file, want the file control", got)
+			}
+		})
+	}
+}
