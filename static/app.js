@@ -923,4 +923,16 @@
       trouble('The server could not open ' + file.name + ' (' + res.status + ').');
     }
   }
+
+  // A page answered for a refused Open (the button, a whole page) names the
+  // control whose reason it shows: focus it, which scrolls it into view, as
+  // a refused drop does, rather than leaving the reason far below the top.
+  {
+    const work = byId('gl-work');
+    if (work && work.dataset.focus) {
+      focusControl(work.dataset.focus);
+      const reason = byId('n-' + work.dataset.focus);
+      if (reason) reason.scrollIntoView({ block: 'nearest' });
+    }
+  }
 })();
