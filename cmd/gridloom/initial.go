@@ -63,7 +63,7 @@ func runInitial(ctx context.Context, args []string, stdin io.Reader, stdout, std
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(ctx, path, stdin)
+	p, err := readPlan(ctx, path, stdin, stderr)
 	if err != nil {
 		return err
 	}

@@ -48,7 +48,7 @@ func runSSB(ctx context.Context, args []string, stdin io.Reader, stdout, stderr 
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(ctx, path, stdin)
+	p, err := readPlan(ctx, path, stdin, stderr)
 	if err != nil {
 		return err
 	}

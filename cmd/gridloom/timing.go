@@ -24,7 +24,7 @@ func runTiming(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(ctx, path, stdin)
+	p, err := readPlan(ctx, path, stdin, stderr)
 	if err != nil {
 		return err
 	}
