@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"github.com/chromedp/chromedp"
@@ -128,5 +129,25 @@ func TestBrowserFailedOpenInView(t *testing.T) {
 				t.Errorf("focus on %q after the refused file, want the file control", got)
 			}
 		})
+	}
+}
+
+// TestBrowserFindingsNameThePartition: a finding about a partition's field
+// reads with the partition's box title and the field's label on the page,
+// in the list and beside the field, while the API keeps the plan path.
+func TestBrowserFindingsNameThePartition(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	v := mustQuery(t, campusQuery(t))
+	v.Set("p2.name", "video") // grid: "partitions[2].name "video" is already the name of partitions[1]"
+	tb := newTab(t, 1440, 1000)
+	tb.open(srv.URL + "/?" + v.Encode())
+	tb.waitFor("the findings", `document.querySelectorAll('[data-testid=findings] .gl-text').length > 0`)
+	texts := eval[string](tb, `[...document.querySelectorAll('[data-testid=findings] .gl-text, [data-testid=findings] .gl-goto, .gl-note')].map(e => e.textContent).join('\n')`)
+	if strings.Contains(texts, "partitions[") {
+		t.Errorf("the page shows plan paths:\n%s", texts)
+	}
+	if want := `Name of 3 · video "video" is already the name of 2 · video`; !strings.Contains(texts, want) {
+		t.Errorf("no finding reads %q:\n%s", want, texts)
 	}
 }

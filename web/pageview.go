@@ -106,7 +106,7 @@ func notesOf(s planform.State) map[string][]note {
 			continue
 		}
 		id := planform.ControlID(f.Field)
-		out[id] = append(out[id], note{Severity: string(f.Severity), Text: f.Message})
+		out[id] = append(out[id], note{Severity: string(f.Severity), Text: planform.NamePaths(f.Message, s.Plan.Partitions)})
 	}
 	return out
 }
