@@ -8,6 +8,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 	"unicode/utf8"
@@ -167,6 +168,25 @@ func onePlanArg(fs *flag.FlagSet, pos []string) (string, error) {
 	return pos[0], nil
 }
 
+// readPlanArg takes the one plan argument of a command and reads it, with
+// readPlan's notes going to notes.
+func readPlanArg(ctx context.Context, fs *flag.FlagSet, pos []string, stdin io.Reader, notes io.Writer) (grid.Plan, string, error) {
+	path, err := onePlanArg(fs, pos)
+	if err != nil {
+		return grid.Plan{}, "", err
+	}
+	p, err := readPlan(ctx, path, stdin, notes)
+	return p, path, err
+}
+
+// checkFormat refuses a -format value that is not one of the command's.
+func checkFormat(format string, allowed ...string) error {
+	if slices.Contains(allowed, format) {
+		return nil
+	}
+	return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use %s", format, grid.JoinOr(allowed))}
+}
+
 func quoteAll(ss []string) []string {
 	q := make([]string, len(ss))
 	for i, s := range ss {
@@ -186,11 +206,7 @@ func runCheck(ctx context.Context, args []string, stdin io.Reader, stdout, stder
 	if *format != "text" && *format != "json" {
 		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format of check; use text or json", *format)}
 	}
-	path, err := onePlanArg(fs, pos)
-	if err != nil {
-		return err
-	}
-	p, err := readPlan(ctx, path, stdin, stdout)
+	p, path, err := readPlanArg(ctx, fs, pos, stdin, stdout)
 	if err != nil {
 		return err
 	}
@@ -248,11 +264,7 @@ func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 	if opt.Layers, err = render.ParseLayers(*layers); err != nil {
 		return &exitError{code: exitBadInput, msg: "-" + err.Error()}
 	}
-	path, err := onePlanArg(fs, pos)
-	if err != nil {
-		return err
-	}
-	p, err := readPlan(ctx, path, stdin, stderr)
+	p, _, err := readPlanArg(ctx, fs, pos, stdin, stderr)
 	if err != nil {
 		return err
 	}
