@@ -384,7 +384,7 @@ var Fields = func() []Field {
 			form:    func(f *Form, i int) *string { return &f.Parts[i].RIV }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].LocationAndBandwidth }},
 		{Key: "dir", Path: "direction", Block: BlockPartition, Label: "Direction", Noun: "Direction",
 			form: func(f *Form, i int) *string { return &f.Parts[i].Dir }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].Direction }},
-		{Key: "layers", Path: "layers", Block: BlockPartition, Label: "Layers", Noun: "Layers",
+		{Key: "layers", Path: "layers", Block: BlockPartition, Label: "MIMO layers", Noun: "MIMO layers",
 			Allowed: fixed("a whole number: 1 to 8 for DL, 1 to 4 for UL"),
 			form:    func(f *Form, i int) *string { return &f.Parts[i].Layers }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].Layers }},
 		{Key: "mod", Path: "modulation", Block: BlockPartition, Label: "Modulation", Noun: "Modulation",
