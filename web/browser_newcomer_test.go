@@ -179,3 +179,51 @@ func TestBrowserBandwidthsSaySo(t *testing.T) {
 		t.Errorf("the partition's layers are labelled %q", got)
 	}
 }
+
+// TestBrowserHoldsGeometryWhileFixing: a typo in a partition's start keeps
+// the figure of the last plan that parsed (point A and the other partitions
+// do not move), marked as held, until the value parses; an invalid TDD
+// value makes its section say "invalid", not "not in the plan".
+func TestBrowserHoldsGeometryWhileFixing(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	tb := newTab(t, 1440, 1000)
+	tb.open(srv.URL + "/?" + campusQuery(t))
+	tb.do("marking the figure", chromedp.Evaluate[chromedp.Void](`window.glFigureBefore = document.querySelector('#gl-figure svg').outerHTML`))
+	typeInto := func(id, text string) {
+		tb.do("typing "+text+" into "+id, chromedp.Focus(chromedp.ID(id)),
+			chromedp.Evaluate[chromedp.Void](`document.getElementById('`+id+`').select()`), chromedp.KeyEvent(text))
+	}
+	typeInto("f-p1-start", "2x")
+	tb.waitFor("the message beside Start CRB", `document.getElementById('n-f-p1-start').textContent.includes('not a whole number')`)
+	tb.waitFor("the figure marked as held", `document.querySelector('.gl-figure-box').classList.contains('gl-held')`)
+	if !eval[bool](tb, `document.querySelector('#gl-figure svg').outerHTML === window.glFigureBefore`) {
+		t.Error("the figure changed while Start CRB did not parse")
+	}
+	typeInto("f-p1-start", "30")
+	tb.waitFor("the figure follows the fixed value", `!document.querySelector('.gl-figure-box').classList.contains('gl-held') && document.querySelector('#gl-figure svg').outerHTML !== window.glFigureBefore`)
+
+	typeInto("f-tdd-dl", "3q")
+	tb.waitFor("the TDD section says invalid", `document.getElementById('s-g-tdd').textContent.includes('invalid')`)
+	tb.checkConsole()
+}
+
+// TestBrowserBackAfterTypingAndButton: a value typed and, before the pause
+// that records it, a button (Add partition): Back returns to the typed
+// value, not to the state before it.
+func TestBrowserBackAfterTypingAndButton(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	tb := newTab(t, 1440, 1000)
+	tb.open(srv.URL + "/?" + campusQuery(t))
+	tb.do("typing a size and adding a partition at once", chromedp.Focus(chromedp.ID("f-p1-size")),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById('f-p1-size').select()`), chromedp.KeyEvent("40"),
+		chromedp.Evaluate[chromedp.Void](`document.getElementById('b-add').click()`))
+	tb.waitFor("a fourth partition", `document.getElementById('f-p3-name') !== null && location.search.includes('p3.')`)
+	tb.do("going back", chromedp.Evaluate[chromedp.Void](`history.back()`))
+	tb.waitFor("the typed size, three partitions", `document.getElementById('f-p3-name') === null && document.getElementById('f-p1-size').value === '40'`)
+	if !eval[bool](tb, `location.search.includes('p1.size=40')`) {
+		t.Errorf("one step back the address is %s, want the typed size", eval[string](tb, `location.search`))
+	}
+	tb.checkConsole()
+}

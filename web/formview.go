@@ -370,12 +370,20 @@ func (fb *formBuilder) initSection() section {
 func finishSection(sec section) section {
 	sec.OpName, sec.ClearID = planform.KeyOp, "b-"+sec.ClearOp
 	sec.Open = sec.Summary != "" || hasSerious(sec.Group.Notes)
+	invalid := false
 	for _, row := range sec.Rows {
 		for _, c := range row.Controls {
 			if strings.TrimSpace(c.Value) != "" || hasSerious(c.Notes) {
 				sec.Open = true
 			}
+			invalid = invalid || c.invalid()
 		}
+	}
+	if invalid {
+		// A value being fixed leaves the block out of the plan, or in it
+		// without that value: say so rather than "not in the plan" or a
+		// summary of what the user did not type (issue 19).
+		sec.Summary = "invalid: fix the marked field"
 	}
 	return sec
 }

@@ -28,6 +28,9 @@ type pageView struct {
 	Query   string // the canonical query of the form as shown
 	Focus   string // id of the control to focus after an edit, or ""
 	Status  int    // the HTTP status of the page of this plan: 200 or 422
+	// Unparsed is set while a value does not parse: the plan drawn lacks
+	// it, so the page script keeps the last figure it showed (issue 19).
+	Unparsed bool
 	Form    formView
 	Results resultsView
 	Upload  uploadView
@@ -50,6 +53,7 @@ func buildPage(s planform.State, fig drawn, demos []demoLink) pageView {
 		Title:  pageTitle(s.Form.Name),
 		Query:  q,
 		Status: statusOf(s.Invalid()),
+		Unparsed: len(s.InputErr) > 0,
 		Demos:  demos,
 		Upload: uploadView{
 			From:  q,
