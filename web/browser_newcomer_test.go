@@ -227,3 +227,31 @@ func TestBrowserBackAfterTypingAndButton(t *testing.T) {
 	}
 	tb.checkConsole()
 }
+
+// TestBrowserAccessibleLayout: the page has one level-one heading, the
+// upload label is read whole at every width, and the timing table fits at
+// 1440 px without a horizontal scroll.
+func TestBrowserAccessibleLayout(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	for _, width := range []int{390, 1024, 1440} {
+		t.Run(fmt.Sprint(width), func(t *testing.T) {
+			tb := newTab(t, width, 900)
+			tb.open(srv.URL + "/?" + campusQuery(t))
+			if n := eval[int](tb, `document.querySelectorAll('h1').length`); n != 1 {
+				t.Errorf("%d level-one headings, want 1", n)
+			}
+			if cut := eval[bool](tb, `(() => {
+				const l = document.querySelector('#gl-upload > label'), box = document.getElementById('gl-upload');
+				return l.getBoundingClientRect().right > box.getBoundingClientRect().right || (l.clientWidth > 0 && l.scrollWidth > l.clientWidth + 1);
+			})()`); cut {
+				t.Error("the upload label is cut")
+			}
+			if width == 1440 {
+				if cut := eval[bool](tb, `(() => { const s = document.querySelector('[data-testid=timing-table]').parentElement; return s.scrollWidth > s.clientWidth + 1; })()`); cut {
+					t.Error("the timing table scrolls sideways at 1440 px")
+				}
+			}
+		})
+	}
+}
