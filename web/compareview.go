@@ -171,7 +171,7 @@ func prefixForm(fv formView, keyPrefix, idPrefix string) formView {
 		row.Offset = ctl([]control{row.Offset})[0]
 		row.CarrierBW = ctl([]control{row.CarrierBW})[0]
 	}
-	for _, sec := range []*section{&fv.TDD, &fv.SSB, &fv.Env, &fv.Init} {
+	for _, sec := range []*section{&fv.TDD, &fv.SSB, &fv.Env, &fv.Init, &fv.PRACH} {
 		sec.Group.ID = idPrefix + sec.Group.ID
 		sec.OpName, sec.ClearID = keyPrefix+planform.KeyOp, idPrefix+sec.ClearID
 		sec.Rows = slices.Clone(sec.Rows)
