@@ -117,7 +117,7 @@ func loadMix(t *testing.T, cfg Config) []loadRequest {
 		if err != nil {
 			t.Fatal(err)
 		}
-		postReq("/api/v1/render", "", data, c.apiStatus)
+		postReq("/api/v1/render", planType(c.file), data, c.apiStatus)
 	}
 	return mix
 }
