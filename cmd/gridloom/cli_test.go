@@ -21,14 +21,14 @@ const (
 )
 
 // "gridloom -h" is the default command's help, and lists every command
-// with it, png among render's formats.
+// with it, png and asn1 (TS 38.331 value notation) among render's formats.
 func TestTopLevelHelp(t *testing.T) {
 	for _, args := range [][]string{{"-h"}, {"--help"}, {"-help"}} {
 		out, errOut, code := runCLI(t, "", args...)
 		if code != 0 {
 			t.Errorf("%v: exit %d", args, code)
 		}
-		for _, want := range []string{"gridloom render", "gridloom check", "gridloom version", "svg, png, json or csv", "-addr", "-plan"} {
+		for _, want := range []string{"gridloom render", "gridloom check", "gridloom version", "svg, png, json, csv or asn1", "-addr", "-plan"} {
 			if !strings.Contains(out+errOut, want) {
 				t.Errorf("%v: the help does not say %q:\n%s", args, want, out+errOut)
 			}

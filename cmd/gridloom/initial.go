@@ -56,14 +56,10 @@ func runInitial(ctx context.Context, args []string, stdin io.Reader, stdout, std
 	if err != nil {
 		return err
 	}
-	if *format != "table" && *format != "json" {
-		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use table or json", *format)}
-	}
-	path, err := onePlanArg(fs, pos)
-	if err != nil {
+	if err := checkFormat(*format, "table", "json"); err != nil {
 		return err
 	}
-	p, err := readPlan(ctx, path, stdin)
+	p, path, err := readPlanArg(ctx, fs, pos, stdin, stderr)
 	if err != nil {
 		return err
 	}

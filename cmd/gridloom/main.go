@@ -3,16 +3,17 @@
 // the plan, and draws it.
 //
 //	gridloom [serve] [-addr 127.0.0.1:8080] [-plan FILE]       the web app
-//	gridloom render [-format svg|png|json|csv] [-o FILE] PLAN  draw or export a plan
+//	gridloom render [-format svg|png|json|csv|asn1] [-o FILE] PLAN  draw or export a plan
 //	gridloom check [-format text|json] [-strict] PLAN          list the findings
 //	gridloom ssb [-band nBAND] [-format table|json] PLAN       where the SS/PBCH block fits on the sync raster
 //	gridloom initial [-band nBAND] [-format table|json] PLAN   the GSCNs and pdcch-ConfigSIB1 values that fit
 //	gridloom timing PLAN                                       the timing tables and the numerology advice
 //	gridloom version                                           the version and the 3GPP release
 //
-// PLAN is a JSON or YAML plan file, or "-" for standard input. Ctrl-C or
-// SIGTERM ends render and check at once and lets the server drain; a
-// second one ends the server at once.
+// PLAN is a JSON or YAML plan file, TS 38.331 ASN.1 value notation (.asn,
+// .asn1, or recognised by its first line), or "-" for standard input.
+// Ctrl-C or SIGTERM ends render and check at once and lets the server
+// drain; a second one ends the server at once.
 package main
 
 import (
@@ -97,7 +98,7 @@ const usage = `gridloom plans 5G NR carriers split into partitions of different 
 
 Usage:
   gridloom [serve] [flags]          start the web app (default 127.0.0.1:8080)
-  gridloom render [flags] PLAN      draw or export a plan: -format svg, png, json or csv
+  gridloom render [flags] PLAN      draw or export a plan: -format svg, png, json, csv or asn1
   gridloom check [flags] PLAN       list the plan's findings: -format text or json, -strict
   gridloom ssb [flags] PLAN         list the GSCNs where the SS/PBCH block fits, with
                                     offsetToPointA and k_SSB: -band, -format table or json
@@ -108,8 +109,9 @@ Usage:
   gridloom version                  print the version and the 3GPP release it follows
   gridloom help                     print this text
 
-PLAN is a JSON or YAML plan file, or - for standard input. Flags may come
-before or after PLAN; after "--" every argument is taken as a plan file.
+PLAN is a JSON or YAML plan file, TS 38.331 value notation (.asn, .asn1),
+or - for standard input. Flags may come before or after PLAN; after "--"
+every argument is taken as a plan file.
 Run "gridloom COMMAND -h" for the flags of a command.
 `
 

@@ -158,7 +158,7 @@ func TestCheckExitCodes(t *testing.T) {
 		{"undecodable", `{"carrier":`, []string{"check", "-"}, 2, "not valid JSON"},
 		{"no plan argument", "", []string{"check"}, 2, "exactly one plan"},
 		{"unknown command", "", []string{"draw"}, 2, "unknown command"},
-		{"unknown format", "", []string{"render", "-format", "pdf", "x.yaml"}, 2, "svg, png, json or csv"},
+		{"unknown format", "", []string{"render", "-format", "pdf", "x.yaml"}, 2, "svg, png, json, csv or asn1"},
 		{"unknown theme", "", []string{"render", "-theme", "dark", "x.yaml"}, 2, "light or print"},
 		{"unknown layer", "", []string{"render", "-layers", "grid", "x.yaml"}, 2, "lattice"},
 		{"width out of range", "", []string{"render", "-width", "100", "../../grid/demo/campus.yaml"}, 2, "640"},

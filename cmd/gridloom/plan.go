@@ -8,12 +8,14 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 	"unicode/utf8"
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
+	"gridloom/grid/rrc"
 	"gridloom/render"
 )
 
@@ -72,10 +74,11 @@ func parseInterspersed(fs *flag.FlagSet, args []string) ([]string, error) {
 // plan file beyond planfile.MaxSize themselves, naming its size.
 const maxInput = render.MaxSVGBytes
 
-// readPlan reads and decodes the plan named by path, "-" for stdin. It
+// readPlan reads and decodes the plan named by path, "-" for stdin, and
+// writes the decoder's notes (what value notation skipped) to notes. It
 // gives up when ctx ends: standard input (or a named pipe) may never
 // deliver, and Ctrl-C must still end the program.
-func readPlan(ctx context.Context, path string, stdin io.Reader) (grid.Plan, error) {
+func readPlan(ctx context.Context, path string, stdin io.Reader, notes io.Writer) (grid.Plan, error) {
 	type result struct {
 		data []byte
 		err  error
@@ -104,19 +107,25 @@ func readPlan(ctx context.Context, path string, stdin io.Reader) (grid.Plan, err
 	var p grid.Plan
 	var err error
 	ext := strings.ToLower(filepath.Ext(path))
-	if ext == ".svg" || (ext != ".json" && ext != ".yaml" && ext != ".yml" && looksLikeXML(data)) {
+	if ext == ".svg" || (ext != ".json" && ext != ".yaml" && ext != ".yml" && ext != ".asn" && ext != ".asn1" && looksLikeXML(data)) {
 		// A figure gridloom exported carries its plan, as on the page.
 		if data, err = render.PlanFromSVG(data); err != nil {
 			return grid.Plan{}, &exitError{code: exitBadInput, msg: fmt.Sprintf("%s cannot be opened as a plan: %s.", displayName(path), strings.TrimSuffix(err.Error(), "."))}
 		}
 	}
+	var said []string
 	switch ext {
 	case ".json":
 		p, err = planfile.DecodeJSON(data)
 	case ".yaml", ".yml":
 		p, err = planfile.DecodeYAML(data)
+	case ".asn", ".asn1":
+		p, said, err = planfile.DecodeValueNotation(data)
 	default:
-		p, err = planfile.Decode(data)
+		p, said, err = planfile.DecodeNotes(data)
+	}
+	for _, n := range said {
+		fmt.Fprintf(notes, "%s: note: %s\n", displayName(path), n)
 	}
 	if err != nil {
 		return grid.Plan{}, &exitError{code: exitBadInput, msg: fmt.Sprintf("%s: %v", displayName(path), err)}
@@ -159,6 +168,25 @@ func onePlanArg(fs *flag.FlagSet, pos []string) (string, error) {
 	return pos[0], nil
 }
 
+// readPlanArg takes the one plan argument of a command and reads it, with
+// readPlan's notes going to notes.
+func readPlanArg(ctx context.Context, fs *flag.FlagSet, pos []string, stdin io.Reader, notes io.Writer) (grid.Plan, string, error) {
+	path, err := onePlanArg(fs, pos)
+	if err != nil {
+		return grid.Plan{}, "", err
+	}
+	p, err := readPlan(ctx, path, stdin, notes)
+	return p, path, err
+}
+
+// checkFormat refuses a -format value that is not one of the command's.
+func checkFormat(format string, allowed ...string) error {
+	if slices.Contains(allowed, format) {
+		return nil
+	}
+	return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use %s", format, grid.JoinOr(allowed))}
+}
+
 func quoteAll(ss []string) []string {
 	q := make([]string, len(ss))
 	for i, s := range ss {
@@ -178,11 +206,7 @@ func runCheck(ctx context.Context, args []string, stdin io.Reader, stdout, stder
 	if *format != "text" && *format != "json" {
 		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format of check; use text or json", *format)}
 	}
-	path, err := onePlanArg(fs, pos)
-	if err != nil {
-		return err
-	}
-	p, err := readPlan(ctx, path, stdin)
+	p, path, err := readPlanArg(ctx, fs, pos, stdin, stdout)
 	if err != nil {
 		return err
 	}
@@ -217,8 +241,8 @@ func runCheck(ctx context.Context, args []string, stdin io.Reader, stdout, stder
 }
 
 func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.Writer) error {
-	fs := newFlags("render", "[-format svg|png|json|csv] [-o FILE] [figure flags] PLAN", stderr)
-	format := fs.String("format", "svg", "output `format`: svg or png (the figure), json (lattice, summary and findings) or csv (one row per symbol)")
+	fs := newFlags("render", "[-format svg|png|json|csv|asn1] [-o FILE] [figure flags] PLAN", stderr)
+	format := fs.String("format", "svg", "output `format`: svg or png (the figure), json (lattice, summary and findings), csv (one row per symbol) or asn1 (TS 38.331 value notation)")
 	out := fs.String("o", "-", "write to `FILE` instead of standard output")
 	width := fs.Int("width", 0, fmt.Sprintf("figure width in px, %d to %d (0 for %d)", render.MinWidth, render.MaxWidth, render.DefaultWidth))
 	theme := fs.String("theme", "light", "figure `theme`: light, or print (greyscale-safe)")
@@ -229,9 +253,9 @@ func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 		return err
 	}
 	switch *format {
-	case "svg", "png", "json", "csv":
+	case "svg", "png", "json", "csv", "asn1":
 	default:
-		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use svg, png, json or csv", *format)}
+		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-format %q is not a format; use svg, png, json, csv or asn1", *format)}
 	}
 	opt := render.Options{Width: *width}
 	if opt.Theme, err = render.ParseTheme(*theme); err != nil {
@@ -240,13 +264,17 @@ func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 	if opt.Layers, err = render.ParseLayers(*layers); err != nil {
 		return &exitError{code: exitBadInput, msg: "-" + err.Error()}
 	}
-	path, err := onePlanArg(fs, pos)
+	p, _, err := readPlanArg(ctx, fs, pos, stdin, stderr)
 	if err != nil {
 		return err
 	}
-	p, err := readPlan(ctx, path, stdin)
-	if err != nil {
-		return err
+	var asn1 []byte
+	if *format == "asn1" {
+		// An export is for a checked plan: Encode refuses one with errors,
+		// before an output file is created.
+		if asn1, err = rrc.Encode(p); err != nil {
+			return &exitError{code: exitPlanErrors, msg: err.Error()}
+		}
 	}
 	res := grid.Compute(p)
 	switch c := strings.TrimSpace(*caption); c {
@@ -278,6 +306,8 @@ func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 		err = render.SymbolCSV(w, res)
 	case "json":
 		err = writeJSON(w, res)
+	case "asn1":
+		_, err = w.Write(asn1)
 	}
 	if file != nil {
 		if cerr := file.Close(); err == nil {

@@ -100,7 +100,7 @@ func runServe(ctx context.Context, args []string, stdout, stderr io.Writer, impl
 		if *planPath == "-" {
 			return &exitError{code: exitBadInput, msg: "-plan needs a file: the web app cannot read its plan from standard input"}
 		}
-		if start, err = readPlan(ctx, *planPath, nil); err != nil {
+		if start, err = readPlan(ctx, *planPath, nil, stderr); err != nil {
 			return err
 		}
 	}

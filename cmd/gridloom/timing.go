@@ -20,11 +20,7 @@ func runTiming(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 	if err != nil {
 		return err
 	}
-	path, err := onePlanArg(fs, pos)
-	if err != nil {
-		return err
-	}
-	p, err := readPlan(ctx, path, stdin)
+	p, _, err := readPlanArg(ctx, fs, pos, stdin, stderr)
 	if err != nil {
 		return err
 	}

@@ -1,5 +1,7 @@
 // Package planfile reads and writes gridloom plan files, JSON or YAML with
-// the same keys (see the README's plan file reference).
+// the same keys (see the README's plan file reference). It also reads
+// TS 38.331 ASN.1 value notation, through package grid/rrc, so that every
+// caller that opens a plan file opens a configuration from a log too.
 //
 // Security: Decode takes untrusted bytes. It refuses input over MaxSize,
 // unknown keys, duplicate keys, values of the wrong type, numbers that are
@@ -26,6 +28,7 @@ import (
 	"go.yaml.in/yaml/v3"
 
 	"gridloom/grid"
+	"gridloom/grid/rrc"
 )
 
 var bom = []byte("\ufeff")
@@ -69,24 +72,63 @@ type Format int
 const (
 	JSON Format = iota
 	YAML
+	// ValueNotation is TS 38.331 information elements in ASN.1 value
+	// notation (X.680), as package grid/rrc writes and reads them.
+	ValueNotation
 )
 
 // Sniff guesses the format of data: JSON when it starts with '{' after
-// white space, YAML otherwise.
+// white space, value notation when it starts (after comments) with a value
+// assignment "name Type ::=", YAML otherwise.
 func Sniff(data []byte) Format {
 	if t := bytes.TrimLeft(data, " \t\r\n\ufeff"); len(t) > 0 && t[0] == '{' {
 		return JSON
 	}
+	if rrc.Looks(bytes.TrimPrefix(data, bom)) {
+		return ValueNotation
+	}
 	return YAML
 }
 
-// Decode reads a plan file in either format. A leading UTF-8 byte order
-// mark, which some editors write, is ignored.
+// Decode reads a plan file in any of the formats. A leading UTF-8 byte
+// order mark, which some editors write, is ignored.
 func Decode(data []byte) (grid.Plan, error) {
-	if Sniff(data) == JSON {
-		return DecodeJSON(data)
+	p, _, err := DecodeNotes(data)
+	return p, err
+}
+
+// DecodeNotes is Decode that also returns the notes a reader should see:
+// for value notation, the values and fields skipped and anything assumed
+// (rrc.Decoded.Notes); JSON and YAML have none.
+func DecodeNotes(data []byte) (grid.Plan, []string, error) {
+	switch Sniff(data) {
+	case JSON:
+		p, err := DecodeJSON(data)
+		if err != nil {
+			// A value of value notation standing alone opens with '{' too.
+			if q, notes, verr := DecodeValueNotation(data); verr == nil {
+				return q, notes, nil
+			}
+		}
+		return p, nil, err
+	case ValueNotation:
+		return DecodeValueNotation(data)
 	}
-	return DecodeYAML(data)
+	p, err := DecodeYAML(data)
+	return p, nil, err
+}
+
+// DecodeValueNotation reads TS 38.331 value notation into a plan (see
+// package grid/rrc) and returns its notes. Errors give the line and column.
+func DecodeValueNotation(data []byte) (grid.Plan, []string, error) {
+	if len(data) > MaxSize {
+		return grid.Plan{}, nil, tooLarge(len(data))
+	}
+	d, err := rrc.Decode(bytes.TrimPrefix(data, bom))
+	if err != nil {
+		return grid.Plan{}, nil, &FieldError{Msg: "The plan is not TS 38.331 value notation gridloom can read: " + err.Error()}
+	}
+	return d.Plan, d.Notes(), nil
 }
 
 // DecodeJSON reads a JSON plan file.
