@@ -1048,3 +1048,23 @@ func TestUploadOverLinkLimitOpensAsPage(t *testing.T) {
 	body, ctype := multipartBody(t, "plan", "campus.json", ok)
 	wantStatus(t, post(t, srv, "/open", ctype, body), http.StatusSeeOther)
 }
+
+// A client that leaves while its export is gathered is no server error:
+// nothing is sent and the access log says 499, not 500.
+func TestExportClientGoneIsNo500(t *testing.T) {
+	logs := &logBuffer{}
+	ctx, cancel := context.WithCancel(context.Background())
+	cfg := testConfig(t)
+	cfg.SymbolCSV = func(w io.Writer, r grid.Result) error {
+		_, _ = w.Write([]byte("a,b\n"))
+		cancel()
+		_, err := w.Write([]byte("c,d\n"))
+		return err
+	}
+	h := NewServer(slog.New(slog.NewTextHandler(logs, nil)), cfg)
+	w := httptest.NewRecorder()
+	h.ServeHTTP(w, httptest.NewRequest(http.MethodGet, "/symbols.csv?"+campusQuery(t), nil).WithContext(ctx))
+	if w.Body.Len() > 0 || strings.Contains(logs.String(), "level=ERROR") || !strings.Contains(logs.String(), "status=499") {
+		t.Errorf("%d bytes sent; log:\n%s\nwant nothing sent, no error and status 499", w.Body.Len(), logs)
+	}
+}

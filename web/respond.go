@@ -272,11 +272,11 @@ func stream(w http.ResponseWriter, r *http.Request, status int, ctype string, wr
 	if err == nil {
 		return nil
 	}
+	if r.Context().Err() != nil {
+		return nil // the client left: no one to answer; the access log says 499
+	}
 	if sw.out == nil {
 		return err
-	}
-	if r.Context().Err() != nil {
-		return nil // the client left; the access log says 499
 	}
 	panic(http.ErrAbortHandler)
 }
