@@ -55,6 +55,9 @@ func (a *admission) heavy(h handlerFunc) handlerFunc {
 			}
 		}
 		defer func() { <-a.slots }()
+		if err := r.Context().Err(); err != nil {
+			return err // left while waiting: the work would be for no one
+		}
 		return h(w, r)
 	}
 }

@@ -18,7 +18,11 @@
 // response carries a Content Security Policy that allows only the app's own
 // script and stylesheet. Names reach the page, the figure and the downloads
 // only as escaped text. The app has no login: it is meant for the loopback
-// interface.
+// interface, so it answers only its own host names (Config.AllowHosts; a
+// rebound DNS name is refused), refuses POSTs that a browser marks as
+// cross-site, and takes API bodies only as JSON or YAML. Heavy answers run
+// a bounded number at a time (admission), and large exports are streamed,
+// so memory stays bounded whatever the number of clients.
 package web
 
 import (
