@@ -13,6 +13,7 @@ import (
 	"io"
 	"log/slog"
 	"mime"
+	"net"
 	"net/http"
 	"net/http/httptest"
 	"net/url"
@@ -1066,5 +1067,50 @@ func TestExportClientGoneIsNo500(t *testing.T) {
 	h.ServeHTTP(w, httptest.NewRequest(http.MethodGet, "/symbols.csv?"+campusQuery(t), nil).WithContext(ctx))
 	if w.Body.Len() > 0 || strings.Contains(logs.String(), "level=ERROR") || !strings.Contains(logs.String(), "status=499") {
 		t.Errorf("%d bytes sent; log:\n%s\nwant nothing sent, no error and status 499", w.Body.Len(), logs)
+	}
+}
+
+// The answers net/http writes itself (a malformed request, headers over
+// the limit) carry the security headers through SecureListener; the app's
+// own answers pass through it unchanged.
+func TestServerWrittenAnswersCarryHeaders(t *testing.T) {
+	ln, err := net.Listen("tcp", "127.0.0.1:0")
+	if err != nil {
+		t.Fatal(err)
+	}
+	srv := &http.Server{Handler: NewServer(slog.New(slog.DiscardHandler), testConfig(t)), MaxHeaderBytes: 4 << 10}
+	go func() { _ = srv.Serve(SecureListener(ln)) }()
+	t.Cleanup(func() { _ = srv.Close() })
+	raw := func(req string) string {
+		c, err := net.Dial("tcp", ln.Addr().String())
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer c.Close()
+		_ = c.SetDeadline(time.Now().Add(5 * time.Second))
+		_, _ = io.WriteString(c, req)
+		b, _ := io.ReadAll(c)
+		return string(b)
+	}
+	for name, c := range map[string]struct{ req, status string }{
+		"431":          {"GET / HTTP/1.1\r\nHost: localhost\r\nX-Big: " + strings.Repeat("a", 16<<10) + "\r\n\r\n", "HTTP/1.1 431 "},
+		"bad line":     {"GET\r\n\r\n", "HTTP/1.1 400 "},
+		"no host":      {"GET / HTTP/1.1\r\n\r\n", "HTTP/1.1 400 Bad Request: missing required Host header"},
+		"app's answer": {"GET /static/app.css HTTP/1.1\r\nHost: localhost\r\nConnection: close\r\n\r\n", "HTTP/1.1 200 OK"},
+	} {
+		got := raw(c.req)
+		head, body, _ := strings.Cut(got, "\r\n\r\n")
+		if !strings.HasPrefix(head, c.status) {
+			t.Errorf("%s: answer %.80q, want status %q", name, got, c.status)
+			continue
+		}
+		for _, kv := range securityHeaderList {
+			if strings.Count(head, "\r\n"+kv[0]+": "+kv[1]) != 1 {
+				t.Errorf("%s: header %s not once in\n%s", name, kv[0], head)
+			}
+		}
+		if name != "app's answer" && !strings.HasPrefix(body, strings.Fields(c.status)[1]) {
+			t.Errorf("%s: body %q lost its text", name, body)
+		}
 	}
 }

@@ -14,17 +14,26 @@ import (
 	"github.com/go-chi/chi/v5/middleware"
 )
 
+// securityHeaderList is what every answer carries, those of the app and
+// those net/http writes itself (see SecureListener). Another site's page
+// may not embed the app's answers (a figure, a download) as images or
+// scripts, by Cross-Origin-Resource-Policy: it would read a plan through
+// them.
+var securityHeaderList = [][2]string{
+	{"Content-Security-Policy", basePolicy},
+	{"X-Content-Type-Options", "nosniff"},
+	{"Referrer-Policy", "no-referrer"},
+	{"X-Frame-Options", "DENY"},
+	{"Cross-Origin-Opener-Policy", "same-origin"},
+	{"Cross-Origin-Resource-Policy", "same-origin"},
+}
+
 func securityHeaders(next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		h := w.Header()
-		h.Set("Content-Security-Policy", basePolicy)
-		h.Set("X-Content-Type-Options", "nosniff")
-		h.Set("Referrer-Policy", "no-referrer")
-		h.Set("X-Frame-Options", "DENY")
-		h.Set("Cross-Origin-Opener-Policy", "same-origin")
-		// Another site's page may not embed the app's answers (a figure,
-		// a download) as images or scripts: it would read a plan through them.
-		h.Set("Cross-Origin-Resource-Policy", "same-origin")
+		for _, kv := range securityHeaderList {
+			h.Set(kv[0], kv[1])
+		}
 		next.ServeHTTP(w, r)
 	})
 }

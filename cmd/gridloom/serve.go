@@ -118,7 +118,7 @@ func runServe(ctx context.Context, args []string, stdout, stderr io.Writer, impl
 	fmt.Fprintf(stdout, "gridloom: serving %s\n", serveURL(ln.Addr(), *addr))
 
 	served := make(chan error, 1)
-	go func() { served <- srv.Serve(ln) }()
+	go func() { served <- srv.Serve(web.SecureListener(ln)) }()
 	select {
 	case err := <-served:
 		return &exitError{code: 1, msg: "the web server stopped: " + err.Error()}
