@@ -36,6 +36,10 @@ type Result struct {
 	// InitialAccess is CORESET#0, its monitoring occasions, the MIB fields
 	// and the initial BWPs, when the plan asks for them and CORESET#0 fits.
 	InitialAccess *InitialAccess
+	// PRACH is the random-access configuration with its occasions over the
+	// association period, when the plan has a prach block that can be placed
+	// (prachplan.go).
+	PRACH *PRACH
 }
 
 // HasErrors reports whether any finding is an Error.
@@ -296,6 +300,9 @@ func Compute(plan Plan) Result {
 		}
 	}
 	computeTiming(&fs, rng, tin, p.TDD != nil && tdd == nil, &res)
+	if p.PRACH != nil && rangeOK {
+		res.PRACH = checkPRACH(&fs, rng, p.PRACH, &res)
+	}
 	if e := p.Environment; e != nil && res.Timing != nil && (res.Fit != nil || !wantsFit(e)) {
 		res.Advice = computeAdvice(rng, e, tin, res.Fit, &res)
 	}

@@ -35,6 +35,9 @@ type Document struct {
 	// InitialAccess is present when the plan has an initialAccess block
 	// whose CORESET#0 could be placed.
 	InitialAccess *InitialAccess `json:"initialAccess,omitempty"`
+	// PRACH is present when the plan has a prach block that could be placed
+	// (prach.go).
+	PRACH *PRACH `json:"prach,omitempty"`
 }
 
 // InitialAccess is the initial access of a Document: CORESET#0, the
@@ -322,6 +325,9 @@ func Build(r grid.Result, symbols bool) Document {
 	out.Fit = r.Fit
 	if ia := r.InitialAccess; ia != nil {
 		out.InitialAccess = initialAccess(ia, ch)
+	}
+	if p := r.PRACH; p != nil {
+		out.PRACH = prachDoc(p)
 	}
 	if t := r.TDD; t != nil {
 		out.TDD = &TDD{ReferenceSCSKHz: t.Reference.SCSKHz(), PeriodMs: float64(t.Period) / float64(grid.TcPerSubframe), Slots: t.SlotString()}
