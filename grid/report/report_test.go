@@ -6,6 +6,7 @@ import (
 	"errors"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"gridloom/grid"
@@ -116,7 +117,8 @@ func TestBuildCrossLink(t *testing.T) {
 
 // Write streams the symbol lists into the document that Build gives without
 // them; the bytes must be those of marshalling Build's whole document for
-// every demo plan and the heaviest plans a user can ask for (partitions
+// every demo plan, the plans with initial access and PRACH, and the
+// heaviest plans a user can ask for (partitions
 // with and without a TDD pattern, absolute and relative channels, 16
 // partitions of 960 kHz), in both forms.
 func TestWriteStreamsBuildsBytes(t *testing.T) {
@@ -132,7 +134,16 @@ func TestWriteStreamsBuildsBytes(t *testing.T) {
 	if len(files) == 0 {
 		t.Fatal("no stress plans under testdata/stress")
 	}
+	// Plans with initial access and PRACH blocks: documents with more
+	// keys around the symbol lists.
+	for _, glob := range []string{"../../testdata/initial/*.yaml", "../../testdata/prach/*.yaml"} {
+		more, _ := filepath.Glob(glob)
+		files = append(files, more...)
+	}
 	for _, f := range files {
+		if testing.Short() && strings.Contains(f, "16-partitions") {
+			continue // 143 360 symbols: seconds of marshalling on a loaded machine
+		}
 		b, err := os.ReadFile(f)
 		if err != nil {
 			t.Fatal(err)
