@@ -64,6 +64,7 @@ type formView struct {
 	SSB      section
 	Env      section
 	Init     section // initial access: CORESET#0, Type0-PDCCH, the initial BWPs
+	PRACH    section // random access: RACH-ConfigCommon
 	PartsBox group   // partitions as a whole
 	Parts    []partView
 	CanAdd   bool
@@ -130,6 +131,7 @@ func buildForm(s planform.State, notes map[string][]note) formView {
 	fv.Carriers = group{ID: planform.IDCarriers, Notes: fb.take(planform.IDCarriers)}
 	fv.SCSOpen = fv.SCSOpen || hasSerious(fv.Carriers.Notes)
 	fv.TDD, fv.SSB, fv.Env, fv.Init = fb.tddSection(), fb.ssbSection(), fb.envSection(), fb.initSection()
+	fv.PRACH = fb.prachSection()
 	fv.PartsBox = group{ID: planform.IDParts, Notes: fb.take(planform.IDParts)}
 	for i := range fb.f.Parts {
 		fv.Parts = append(fv.Parts, fb.part(i))
@@ -328,6 +330,12 @@ func (fb *formBuilder) envSection() section {
 	}
 	if fit := fb.s.Result.Fit; fit != nil {
 		sec.Summary = fmt.Sprintf("the rules favour %d kHz %s CP", fit.Suggested.SCSKHz, fit.Suggested.CP)
+	} else if a := fb.s.Result.Advice; a != nil {
+		// Only the timing keys: the section names the timing advice's choice.
+		sec.Summary = "no numerology suits every timing criterion"
+		if a.Chosen != nil {
+			sec.Summary = fmt.Sprintf("the timing advice favours %d kHz %s CP", a.Chosen.SCSKHz, a.Chosen.CP)
+		}
 	}
 	return finishSection(sec)
 }
@@ -361,6 +369,38 @@ func (fb *formBuilder) initSection() section {
 	if ia := fb.s.Result.InitialAccess; ia != nil {
 		c := ia.CORESET0
 		sec.Summary = fmt.Sprintf("CORESET#0 of %d RBs × %d symbols from CRB %d at %d kHz", c.NRB, c.Symbols, c.StartCRB, c.SCSKHz)
+	}
+	return finishSection(sec)
+}
+
+func (fb *formBuilder) prachSection() section {
+	sets := []option{{Value: "", Label: "unrestrictedSet (default)"}, {Value: "unrestrictedSet", Label: "unrestrictedSet"},
+		{Value: "restrictedSetTypeA", Label: "restrictedSetTypeA"}, {Value: "restrictedSetTypeB", Label: "restrictedSetTypeB"}}
+	sec := section{
+		Group: group{ID: planform.IDPRACH, Notes: fb.take(planform.IDPRACH)}, Title: "Random access", ClearOp: "clear.prach",
+		Hint: "RACH-ConfigCommon: prach-ConfigurationIndex picks a row of TS 38.211 Table 6.3.3.2-2 (FR1 paired), -3 (FR1 unpaired) or -4 (FR2), by the range and the band's duplex mode; the occasions sit in the initial uplink BWP (or the first uplink partition) from msg1-FrequencyStart, msg1-FDM side by side. `gridloom prach PLAN` lists every index whose occasions all fit. Leave it empty for no random access.",
+		Rows: []sectionRow{
+			{Label: "Configuration", Controls: []control{
+				fb.text("prach.idx", "4", "numeric", ""),
+				fb.text("prach.scs", "4", "decimal", "BWP's"),
+				fb.text("prach.fdm", "2", "numeric", "1"),
+				fb.text("prach.start", "3", "numeric", "0"),
+			}},
+			{Label: "Preambles", Controls: []control{
+				fb.text("prach.zcz", "2", "numeric", "0"),
+				fb.choice("prach.set", "6", pick(sets, fb.f.PRACH.Set, nil)),
+				fb.text("prach.ssbro", "4", "", "1"),
+			}},
+		},
+	}
+	if pr := fb.s.Result.PRACH; pr != nil {
+		valid := 0
+		for _, o := range pr.Occasions {
+			if o.Valid {
+				valid++
+			}
+		}
+		sec.Summary = fmt.Sprintf("index %d, format %s: %d of %d occasions valid", pr.ConfigurationIndex, pr.Format, valid, len(pr.Occasions))
 	}
 	return finishSection(sec)
 }
