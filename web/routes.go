@@ -69,7 +69,7 @@ func (s *server) routes(r *chi.Mux) {
 		r.Get("/plan.json", page(s.planFile("json")))                         // the plan as a JSON plan file
 		r.Get("/plan.yaml", page(s.planFile("yaml")))                         // the plan as a YAML plan file
 		r.Get("/symbols.csv", heavy(s.symbols))                               // one row per OFDM symbol of every partition, streamed
-		r.Post("/open", page(s.open))                                         // upload a plan file and redirect to its page
+		r.Post("/open", page(s.open))                                         // upload a plan file and redirect to its page, or show it when its link would be over MaxQuery
 		r.Get("/static/*", page(s.assets.serve))                              // embedded script, stylesheet and icon
 	})
 	r.NotFound(s.notFound(pageErrors))
