@@ -330,6 +330,12 @@ func (fb *formBuilder) envSection() section {
 	}
 	if fit := fb.s.Result.Fit; fit != nil {
 		sec.Summary = fmt.Sprintf("the rules favour %d kHz %s CP", fit.Suggested.SCSKHz, fit.Suggested.CP)
+	} else if a := fb.s.Result.Advice; a != nil {
+		// Only the timing keys: the section names the timing advice's choice.
+		sec.Summary = "no numerology suits every timing criterion"
+		if a.Chosen != nil {
+			sec.Summary = fmt.Sprintf("the timing advice favours %d kHz %s CP", a.Chosen.SCSKHz, a.Chosen.CP)
+		}
 	}
 	return finishSection(sec)
 }

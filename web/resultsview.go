@@ -35,6 +35,7 @@ type resultsView struct {
 	HasTDD                  bool
 	SSB                     *ssbView
 	Fit                     *fitView
+	Timing                  *timingView // issue 17; nil without timing
 }
 
 type ssbView struct {
@@ -223,6 +224,7 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 	rv.Channel, rv.HasTDD = channelFacts(res), res.TDD != nil
 	rv.SSB = ssbOf(res)
 	rv.Fit = fitOf(res)
+	rv.Timing = timingOf(res)
 	rv.Lattice = latticeOf(res)
 	return rv
 }
