@@ -87,6 +87,7 @@ func (s *server) open(w http.ResponseWriter, r *http.Request) error {
 		for _, m := range reasons {
 			v.Upload.Notes = append(v.Upload.Notes, note{Severity: string(grid.Error), Text: m})
 		}
+		v.Focus = "f-file" // the page script brings the reason into view
 		return writeHTML(w, r, status, page(v), styles)
 	}
 	ff := planform.ParseFigureForm(r.URL.Query())
