@@ -45,6 +45,7 @@ const (
 	CodeChannelRaster  = "channel-raster"  // centre off the band's channel raster (TS 38.101-1/-2 Table 5.4.2.3-1)
 	CodeTiming         = "timing"          // ueCapability, dmrsAdditionalPosition or carrier.nTaOffset not defined; capability 2 falling back to 1
 	CodeInitialAccess  = "initial-access"  // CORESET#0, Type0-PDCCH occasions or initial BWPs that do not fit (TS 38.213 12, 13)
+	CodePRACH          = "prach"           // a PRACH configuration undefined, off the uplink symbols, the BWP or the carrier, or not mapping every SS/PBCH block (TS 38.211 6.3.3, TS 38.213 8.1)
 )
 
 // Finding is one result of checking a plan. Field is the path of the plan

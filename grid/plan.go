@@ -24,6 +24,9 @@ type Plan struct {
 	// InitialAccess is pdcch-ConfigSIB1, dmrs-TypeA-Position and the
 	// initial BWPs; optional, and it needs SSB.
 	InitialAccess *InitialAccessPlan `json:"initialAccess,omitempty" yaml:"initialAccess,omitempty"`
+	// PRACH is the random-access configuration (prachplan.go); optional,
+	// and it needs SSB.
+	PRACH *PRACHPlan `json:"prach,omitempty" yaml:"prach,omitempty"`
 }
 
 // CarrierPlan is the channel and its SCS-specific carriers.
@@ -110,6 +113,7 @@ func (p Plan) Clone() Plan {
 	}
 	q.Environment = clonePtr(p.Environment)
 	q.InitialAccess = p.InitialAccess.clone()
+	q.PRACH = clonePtr(p.PRACH)
 	if p.TDD != nil {
 		t := *p.TDD
 		t.Pattern2 = clonePtr(p.TDD.Pattern2)

@@ -102,7 +102,7 @@ func TestBrowserReadoutCell(t *testing.T) {
 // initialCampusPlan is the campus plan with initial access.
 func initialCampusPlan(t *testing.T) grid.Plan {
 	t.Helper()
-	data, err := os.ReadFile(initialCampus)
+	data, err := os.ReadFile(initialCampusFile)
 	if err != nil {
 		t.Fatal(err)
 	}

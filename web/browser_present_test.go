@@ -91,14 +91,14 @@ func TestBrowserWalkthrough(t *testing.T) {
 	tb.open(srv.URL + "/walk?" + q)
 	tb.do("marking the window", chromedp.Evaluate[chromedp.Void](`window.glMarker = 'still here'`))
 	start := tb.walkState()
-	if start.Shown != "step-channel" || start.Count != "Step 1 of 10" || !strings.Contains(start.Figure, "gl-hl-channel") {
+	if start.Shown != "step-channel" || start.Count != "Step 1 of 12" || !strings.Contains(start.Figure, "gl-hl-channel") {
 		t.Fatalf("the walkthrough opens at %+v, want the first step", start)
 	}
 
 	// → moves one step: the address, the text, the counter and the highlight follow.
 	tb.do("pressing →", chromedp.KeyEvent(kb.ArrowRight))
 	s := tb.waitStep("grids")
-	if s.Count != "Step 2 of 10" || s.Figure != "gl-walk-figure "+highlightClass(steps[1].Highlight) || s.History != start.History+1 {
+	if s.Count != "Step 2 of 12" || s.Figure != "gl-walk-figure "+highlightClass(steps[1].Highlight) || s.History != start.History+1 {
 		t.Errorf("after →: %+v; want step 2, its highlight, one more history entry", s)
 	}
 
@@ -109,7 +109,7 @@ func TestBrowserWalkthrough(t *testing.T) {
 	tb.waitFor("partition 0 highlighted, 1 and 2 dimmed",
 		opacityOf(`.gl-part[data-index="0"] .gl-body`)+` === 1 && `+opacityOf(`.gl-part[data-index="1"] .gl-body`)+` < 0.3 && `+
 			opacityOf(`.gl-part[data-index="2"] .gl-body`)+` < 0.3 && `+opacityOf(`.gl-legend-part[data-index="0"]`)+` === 1 && `+
-			opacityOf(`.gl-legend-part[data-index="1"]`)+` < 0.3`)
+			opacityOf(`.gl-legend-part[data-index="1"]`)+` < 0.7`) // dimmed labels stay legible (issue 19): .62, see app.css
 	tb.do("pressing → twice", chromedp.KeyEvent(kb.ArrowRight+kb.ArrowRight))
 	tb.waitStep("part-2")
 	tb.waitFor("partition 2 highlighted, 0 dimmed", opacityOf(`.gl-part[data-index="2"] .gl-body`)+` === 1 && `+opacityOf(`.gl-part[data-index="0"] .gl-body`)+` < 0.3`)
@@ -152,7 +152,7 @@ func TestBrowserWalkthrough(t *testing.T) {
 	if s.Marker != "still here" {
 		t.Error("moving between steps reloaded the page")
 	}
-	if got := eval[string](tb, `document.title`); !strings.HasPrefix(got, "7/10 The TDD pattern") {
+	if got := eval[string](tb, `document.title`); !strings.HasPrefix(got, "7/12 The TDD pattern") {
 		t.Errorf("title %q does not name the step", got)
 	}
 
@@ -163,6 +163,19 @@ func TestBrowserWalkthrough(t *testing.T) {
 		t.Errorf("the link to the SS/PBCH step opens %+v", s)
 	}
 	tb.waitFor("the blocks at full strength", opacityOf(`.gl-ssb`)+` === 1 && `+opacityOf(`.gl-body`)+` < 0.3`)
+
+	// The switching step (issue 17) lights the two partitions it is about
+	// and gives the delays of the matrix: sensors at 15 kHz to video at 30 kHz
+	// is max(1 slot of 1 ms, 2 of 0.5 ms) = 1 ms for type 1 and max(3 ms,
+	// 5 · 0.5 ms) = 3 ms for type 2 (TS 38.133 Table 8.6.2-1).
+	tb.open(srv.URL + "/walk?" + q + "&step=switch")
+	s = tb.walkState()
+	if s.Shown != "step-switch" || !strings.Contains(s.Figure, "gl-hl-part-0") || !strings.Contains(s.Figure, "gl-hl-part-1") {
+		t.Errorf("the switching step opens %+v", s)
+	}
+	if got := eval[string](tb, `document.querySelector('#step-switch').textContent`); !strings.Contains(got, "Switching from sensors to video") || !strings.Contains(got, "1000.00 µs if it reports delay type 1 and 3000.00 µs if type 2") {
+		t.Errorf("the switching step says %q", got)
+	}
 
 	// The projector layout keeps its layout from step to step.
 	tb.open(srv.URL + "/walk?" + q + "&view=projector&step=channel")
@@ -187,7 +200,7 @@ func TestBrowserWalkthroughPrint(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1280, 900)
 	tb.do("opening the print layout", chromedp.Navigate(srv.URL+"/walk?"+campusQuery(t)+"&view=print"))
-	tb.waitFor("the steps", `document.readyState === 'complete' && document.querySelectorAll('.gl-print-step svg').length === 10`)
+	tb.waitFor("the steps", `document.readyState === 'complete' && document.querySelectorAll('.gl-print-step svg').length === 12`)
 	if _, err := chromedp.Call(tb.ctx, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{Media: "print"}); err != nil {
 		t.Fatal(err)
 	}

@@ -51,6 +51,7 @@ type compareView struct {
 	Parts  diffParts
 	Finds  []findingGroup
 	Swap   string
+	Cross  crossLinkView // synchronised TDD (issue 17)
 }
 
 type compareSide struct {
@@ -110,7 +111,8 @@ func buildCompare(c planform.Compare, figs [2]drawn) compareView {
 	q := c.Query()
 	v := compareView{Query: q, Status: statusOf(c.Invalid()),
 		Scale: scaleNote(c.Sides[0].Result, c.Sides[1].Result),
-		Swap:  "/compare?" + planform.CompareQuery(c.Sides[1].Form, c.Sides[0].Form, c.Fig),
+		Swap:  "/compare?" + c.SwapQuery(),
+		Cross: crossLinkOf(c),
 	}
 	if c.LinkErr != "" {
 		v.Notes = []note{{Severity: string(grid.Error), Text: c.LinkErr}}
@@ -120,7 +122,7 @@ func buildCompare(c planform.Compare, figs [2]drawn) compareView {
 		st := c.Sides[i]
 		sv := compareSide{Key: side, Label: strings.ToUpper(side), Name: strings.TrimSpace(st.Plan.Name),
 			Placed: len(st.Result.Partitions), Total: len(st.Plan.Partitions),
-			Figure: figs[i].SVG, FigureErr: figs[i].Failed,
+			Figure: markConflicts(figs[i].SVG, c, i), FigureErr: figs[i].Failed,
 			Planner: "/?" + st.Query(),
 			SVG:     "/compare/figure.svg?" + planform.JoinQuery("side="+side, q, "download=1"),
 			PNG:     "/compare/figure.png?" + planform.JoinQuery("side="+side, q, "download=1"),
@@ -171,7 +173,7 @@ func prefixForm(fv formView, keyPrefix, idPrefix string) formView {
 		row.Offset = ctl([]control{row.Offset})[0]
 		row.CarrierBW = ctl([]control{row.CarrierBW})[0]
 	}
-	for _, sec := range []*section{&fv.TDD, &fv.SSB, &fv.Env, &fv.Init} {
+	for _, sec := range []*section{&fv.TDD, &fv.SSB, &fv.Env, &fv.Init, &fv.PRACH} {
 		sec.Group.ID = idPrefix + sec.Group.ID
 		sec.OpName, sec.ClearID = keyPrefix+planform.KeyOp, idPrefix+sec.ClearID
 		sec.Rows = slices.Clone(sec.Rows)

@@ -13,15 +13,15 @@ import (
 	"gridloom/web/planform"
 )
 
-// initialCampus is the campus plan with initial access (testdata/initial).
-const initialCampus = "../testdata/initial/campus.yaml"
+// initialCampusFile is the campus plan with initial access (testdata/initial).
+const initialCampusFile = "../testdata/initial/campus.yaml"
 
 // TestAPISSB: POST /api/v1/ssb lists GSCN 8016 of the campus plan at
 // SS_REF 3744.48 MHz: N = 8016 − 7499 = 517, 3000 MHz + 517 × 1.44 MHz
 // (TS 38.101-1 Table 5.4.3.1-1, 3000–24250 MHz), in the CLI's shape.
 func TestAPISSB(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
-	body, err := os.ReadFile(initialCampus)
+	body, err := os.ReadFile(initialCampusFile)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -58,7 +58,7 @@ func TestAPISSB(t *testing.T) {
 // which checks clean, with pdcch-ConfigSIB1 = 2·16 + 0 = 32 (TS 38.213 13).
 func TestAPIInitial(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
-	body, err := os.ReadFile(initialCampus)
+	body, err := os.ReadFile(initialCampusFile)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -91,7 +91,7 @@ var applyRE = regexp.MustCompile(`href="(/\?[^"]*)"[^>]*data-testid="find-apply"
 // its cell section, without any script.
 func TestFindPagesApply(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
-	data, err := os.ReadFile(initialCampus)
+	data, err := os.ReadFile(initialCampusFile)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -64,10 +64,22 @@ type formView struct {
 	SSB      section
 	Env      section
 	Init     section // initial access: CORESET#0, Type0-PDCCH, the initial BWPs
+	PRACH    section // random access: RACH-ConfigCommon
 	PartsBox group   // partitions as a whole
 	Parts    []partView
 	CanAdd   bool
 	Figure   *figureView // the figure's options; nil where the page has its own box
+	MIB      *mibBoxView // the MIB panel's frame and block; the planner's only
+}
+
+// mibBoxView is the controls of the MIB panel (mibview.go), in the
+// planner's form so that the live update and the page without script both
+// carry them.
+type mibBoxView struct {
+	Group    group
+	SFN, SSB control
+	Open     bool
+	Hint     string
 }
 
 // id is the form's id for name.
@@ -130,6 +142,7 @@ func buildForm(s planform.State, notes map[string][]note) formView {
 	fv.Carriers = group{ID: planform.IDCarriers, Notes: fb.take(planform.IDCarriers)}
 	fv.SCSOpen = fv.SCSOpen || hasSerious(fv.Carriers.Notes)
 	fv.TDD, fv.SSB, fv.Env, fv.Init = fb.tddSection(), fb.ssbSection(), fb.envSection(), fb.initSection()
+	fv.PRACH = fb.prachSection()
 	fv.PartsBox = group{ID: planform.IDParts, Notes: fb.take(planform.IDParts)}
 	for i := range fb.f.Parts {
 		fv.Parts = append(fv.Parts, fb.part(i))
@@ -289,7 +302,7 @@ func (fb *formBuilder) ssbSection() section {
 		Hint: "offsetToPointA counts RBs of 15 kHz (FR1) or 60 kHz (FR2); k_SSB counts subcarriers. A GSCN places the block on the synchronization raster and sets both. The bitmap is ssb-PositionsInBurst, empty for every candidate.",
 		Rows: []sectionRow{
 			{Label: "Blocks", Controls: []control{
-				fb.text("ssb.scs", "4", "numeric", ""),
+				fb.choice("ssb.scs", "4", ssbSCSOptions(fb.rng, fb.f.SSB.SCS)),
 				fb.choice("ssb.case", "4", pick(cases, fb.f.SSB.Case, nil)),
 				fb.choice("ssb.period", "4", pick(periods, fb.f.SSB.Period, nil)),
 				fb.text("ssb.bitmap", "12", "numeric", "all candidates"),
@@ -328,6 +341,12 @@ func (fb *formBuilder) envSection() section {
 	}
 	if fit := fb.s.Result.Fit; fit != nil {
 		sec.Summary = fmt.Sprintf("the rules favour %d kHz %s CP", fit.Suggested.SCSKHz, fit.Suggested.CP)
+	} else if a := fb.s.Result.Advice; a != nil {
+		// Only the timing keys: the section names the timing advice's choice.
+		sec.Summary = "no numerology suits every timing criterion"
+		if a.Chosen != nil {
+			sec.Summary = fmt.Sprintf("the timing advice favours %d kHz %s CP", a.Chosen.SCSKHz, a.Chosen.CP)
+		}
 	}
 	return finishSection(sec)
 }
@@ -365,17 +384,57 @@ func (fb *formBuilder) initSection() section {
 	return finishSection(sec)
 }
 
+func (fb *formBuilder) prachSection() section {
+	sets := []option{{Value: "", Label: "unrestrictedSet (default)"}, {Value: "unrestrictedSet", Label: "unrestrictedSet"},
+		{Value: "restrictedSetTypeA", Label: "restrictedSetTypeA"}, {Value: "restrictedSetTypeB", Label: "restrictedSetTypeB"}}
+	sec := section{
+		Group: group{ID: planform.IDPRACH, Notes: fb.take(planform.IDPRACH)}, Title: "Random access", ClearOp: "clear.prach",
+		Hint: "RACH-ConfigCommon: prach-ConfigurationIndex picks a row of TS 38.211 Table 6.3.3.2-2 (FR1 paired), -3 (FR1 unpaired) or -4 (FR2), by the range and the band's duplex mode; the occasions sit in the initial uplink BWP (or the first uplink partition) from msg1-FrequencyStart, msg1-FDM side by side. `gridloom prach PLAN` lists every index whose occasions all fit. Leave it empty for no random access.",
+		Rows: []sectionRow{
+			{Label: "Configuration", Controls: []control{
+				fb.text("prach.idx", "4", "numeric", ""),
+				fb.text("prach.scs", "4", "decimal", "BWP's"),
+				fb.text("prach.fdm", "2", "numeric", "1"),
+				fb.text("prach.start", "3", "numeric", "0"),
+			}},
+			{Label: "Preambles", Controls: []control{
+				fb.text("prach.zcz", "2", "numeric", "0"),
+				fb.choice("prach.set", "6", pick(sets, fb.f.PRACH.Set, nil)),
+				fb.text("prach.ssbro", "4", "", "1"),
+			}},
+		},
+	}
+	if pr := fb.s.Result.PRACH; pr != nil {
+		valid := 0
+		for _, o := range pr.Occasions {
+			if o.Valid {
+				valid++
+			}
+		}
+		sec.Summary = fmt.Sprintf("index %d, format %s: %d of %d occasions valid", pr.ConfigurationIndex, pr.Format, valid, len(pr.Occasions))
+	}
+	return finishSection(sec)
+}
+
 // finishSection names a section's clear button and opens it when the plan
 // makes something of it or it holds a value or a message worth seeing.
 func finishSection(sec section) section {
 	sec.OpName, sec.ClearID = planform.KeyOp, "b-"+sec.ClearOp
 	sec.Open = sec.Summary != "" || hasSerious(sec.Group.Notes)
+	invalid := false
 	for _, row := range sec.Rows {
 		for _, c := range row.Controls {
 			if strings.TrimSpace(c.Value) != "" || hasSerious(c.Notes) {
 				sec.Open = true
 			}
+			invalid = invalid || c.invalid()
 		}
+	}
+	if invalid {
+		// A value being fixed leaves the block out of the plan, or in it
+		// without that value: say so rather than "not in the plan" or a
+		// summary of what the user did not type (issue 19).
+		sec.Summary = "invalid: fix the marked field"
 	}
 	return sec
 }
@@ -471,25 +530,39 @@ func pick(allowed []option, cur string, why func(string) string) []option {
 	return out
 }
 
-// bandwidthOptions offers the channel bandwidths that every spacing in use
-// allows in the range, or all of the range's when no spacing is usable or
-// the spacings share none (the findings then say which spacing cannot
-// have it).
+// bandwidthOptions offers every channel bandwidth of the range. One that a
+// spacing in use does not allow stays in the list, labelled with the
+// spacings it lacks: hiding 60–100 MHz while a partition is at 15 kHz left a
+// newcomer with no word why (issue 19); choosing it gives the finding that
+// names the partition to change.
 func bandwidthOptions(rng grid.Range, scsInUse []int, cur string) []option {
-	allowed := rng.CommonBandwidths(scsInUse)
-	if len(allowed) == 0 {
-		scsInUse, allowed = nil, rng.AllBandwidths()
-	}
-	vals := make([]string, len(allowed))
-	for i, bw := range allowed {
-		vals[i] = strconv.Itoa(bw)
-	}
-	why := func(string) string {
-		if len(scsInUse) == 0 {
-			return "not a channel bandwidth of " + rng.String()
+	var opts []option
+	for _, bw := range rng.AllBandwidths() {
+		v := strconv.Itoa(bw)
+		var lacking []int
+		for _, scs := range scsInUse {
+			if !slices.Contains(rng.CommonBandwidths([]int{scs}), bw) {
+				lacking = append(lacking, scs)
+			}
 		}
-		return "not defined for " + grid.JoinInts(scsInUse) + " kHz in " + rng.String()
+		label := v
+		if len(lacking) > 0 {
+			label = v + " (not at " + grid.JoinInts(lacking) + " kHz)"
+		}
+		opts = append(opts, option{Value: v, Label: label})
 	}
+	why := func(string) string { return "not a channel bandwidth of " + rng.String() }
+	return pick(opts, strings.TrimSpace(cur), why)
+}
+
+// ssbSCSOptions offers the SS/PBCH spacings of the range as a list, like
+// a partition's SCS, where free text invited values no case has (issue 19).
+func ssbSCSOptions(rng grid.Range, cur string) []option {
+	var vals []string
+	for _, scs := range rng.SSBSCS() {
+		vals = append(vals, strconv.Itoa(scs))
+	}
+	why := func(string) string { return "not an SS/PBCH spacing of " + rng.String() }
 	return pick(plain(vals), strings.TrimSpace(cur), why)
 }
 

@@ -161,7 +161,7 @@ func TestWalkPage(t *testing.T) {
 	wantContains(t, "walk", r.body,
 		`href="`+strings.ReplaceAll(next, "&", "&amp;")+`" data-testid="walk-next"`,
 		`href="/?`+strings.ReplaceAll(q, "&", "&amp;")+`" data-testid="walk-planner"`,
-		"Step 1 of 10", "The channel and its guardbands", "552.5 kHz", // narration from the plan's numbers
+		"Step 1 of 12", "The channel and its guardbands", "552.5 kHz", // narration from the plan's numbers
 		`id="gl-plot"`,
 	)
 	if strings.Contains(r.body, "gl-caption") {
@@ -175,7 +175,7 @@ func TestWalkPage(t *testing.T) {
 		if cls := attrOf(t, r.body, `id="gl-walk-figure"`, "class"); cls != "gl-walk-figure gl-hl gl-hl-part-1" {
 			t.Errorf("step=%s: figure class %q, want the second partition highlighted", step, cls)
 		}
-		wantContains(t, "step "+step, r.body, "Step 4 of 10", `<section class="gl-step" id="step-part-1" data-step="3"`, `aria-current="step">Partition video</a>`)
+		wantContains(t, "step "+step, r.body, "Step 4 of 12", `<section class="gl-step" id="step-part-1" data-step="3"`, `aria-current="step">Partition video</a>`)
 		if regexp.MustCompile(`<section class="gl-step" id="step-part-1"[^>]* hidden[ >]`).MatchString(r.body) {
 			t.Errorf("step=%s: the step shown is hidden", step)
 		}
@@ -188,14 +188,14 @@ func TestWalkPage(t *testing.T) {
 	// The projector layout keeps the step.
 	r = get(t, srv, "/walk?"+q+"&step=tdd&view=projector")
 	wantStatus(t, r, http.StatusOK)
-	wantContains(t, "projector", r.body, `<body class="gl-walking gl-projector">`, "Page layout", "Step 7 of 10")
+	wantContains(t, "projector", r.body, `<body class="gl-walking gl-projector">`, "Page layout", "Step 7 of 12")
 	if href := attrOf(t, r.body, `data-testid="walk-layout"`, "href"); !strings.HasSuffix(href, "step=tdd") {
 		t.Errorf("the page-layout link %q does not keep the step", href)
 	}
 
 	// Refusals: the parameter, what it allows, and the walkthrough still shown.
 	for _, c := range []struct{ query, param, allowed string }{
-		{"&step=99", "step", "1 to 10"},
+		{"&step=99", "step", "1 to 12"},
 		{"&step=warp", "step", "channel, grids, part-0"},
 		{"&view=cinema", "view", "projector or print"},
 		{"&fig.theme=sepia", "fig.theme", "The link holds values that do not parse"},

@@ -35,7 +35,9 @@ type resultsView struct {
 	HasTDD                  bool
 	SSB                     *ssbView
 	Cell                    *cellView
+	MIB                     *mibView // the MIB as bits; the planner's only
 	Fit                     *fitView
+	Timing                  *timingView // issue 17; nil without timing
 }
 
 // cellView is the summary's cell and initial-access section (cellview.go
@@ -76,6 +78,9 @@ type fitCell struct{ Value, Verdict string }
 
 type download struct {
 	Label, Href, TestID, Hint string
+	// Copy marks a link whose text the page script copies to the
+	// clipboard instead of following it; without script it opens the text.
+	Copy bool
 }
 
 type findingView struct {
@@ -161,8 +166,8 @@ func findingsOf(s planform.State) (out []findingView, errors, warnings, infos in
 		default:
 			infos++
 		}
-		out = append(out, findingView{Severity: string(f.Severity), Code: f.Code, Text: f.Message,
-			Partition: f.Partition, Control: planform.ControlID(f.Field), ControlLabel: fieldLabel(f.Field)})
+		out = append(out, findingView{Severity: string(f.Severity), Code: f.Code, Text: planform.NamePaths(f.Message, s.Plan.Partitions),
+			Partition: f.Partition, Control: planform.ControlID(f.Field), ControlLabel: findingLabel(f.Field, s.Plan.Partitions)})
 	}
 	for _, k := range planform.FigKeys {
 		if m, ok := s.Fig.Msgs[k]; ok {
@@ -225,6 +230,8 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 		{Label: "Plan (JSON)", Href: "/plan.json?" + query, TestID: "download-json", Hint: "a plan file to open again"},
 		{Label: "Plan (YAML)", Href: "/plan.yaml?" + query, TestID: "download-yaml", Hint: "a plan file to open again"},
 		{Label: "Symbols (CSV)", Href: "/symbols.csv?" + query, TestID: "download-csv", Hint: "one row per OFDM symbol"},
+		{Label: "Plan (TS 38.331)", Href: "/plan.asn?" + withKey(query, "download", "1"), TestID: "download-asn", Hint: "the plan as TS 38.331 value notation (MIB, ServingCellConfigCommon(SIB), the BWPs): to open again or to take to a base station's configuration"},
+		{Label: "Copy as TS 38.331", Href: "/plan.asn?" + query, TestID: "copy-asn", Copy: true, Hint: "copies the plan as TS 38.331 value notation; without the page script it opens the text"},
 		{Label: "Figure options…", Href: "#" + planform.IDFigure, TestID: "figure-options-link", Hint: "width, theme, layers and caption of the figure and its downloads"},
 	}
 	rv.Views = []download{
@@ -237,6 +244,7 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 	rv.Channel, rv.HasTDD = channelFacts(res), res.TDD != nil
 	rv.SSB = ssbOf(res)
 	rv.Fit = fitOf(res)
+	rv.Timing = timingOf(res)
 	rv.Lattice = latticeOf(res)
 	return rv
 }
@@ -437,7 +445,7 @@ func fieldLabel(field string) string {
 	if s, ok := strings.CutPrefix(field, "partitions["); ok {
 		num, rest, _ := strings.Cut(s, "]")
 		i, _ := strconv.Atoi(num)
-		return fmt.Sprintf("partition %d %s", i+1, strings.TrimPrefix(rest, "."))
+		return strings.TrimSpace(fmt.Sprintf("partition %d %s", i+1, strings.TrimPrefix(rest, ".")))
 	}
 	return strings.TrimPrefix(field, "carrier.")
 }
@@ -510,4 +518,12 @@ func criterionLabel(name string) string {
 
 func sortedKeys[V any](m map[string]V) []string {
 	return slices.Sorted(maps.Keys(m))
+}
+
+// findingLabel names the control of a finding's field for its "Go to" link.
+func findingLabel(field string, parts []grid.PartitionPlan) string {
+	if strings.HasPrefix(field, "partitions[") {
+		return planform.NamePaths(field, parts)
+	}
+	return fieldLabel(field)
 }

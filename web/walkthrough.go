@@ -6,13 +6,14 @@ import (
 	"strings"
 
 	"gridloom/grid"
+	"gridloom/web/planform"
 )
 
 // WalkStep is one step of a walkthrough: a title, two or three sentences
 // of narration made from the plan's own numbers, and the parts of the
 // figure it highlights (the others are dimmed).
 type WalkStep struct {
-	Key       string // stable name of the step: "channel", "grids", "part-0", "align", "tdd", "ssb", "band", "initial", "findings"
+	Key       string // stable name of the step: "channel", "grids", "part-0", "align", "tdd", "timing", "switch", "ssb", "band", "initial", "findings"
 	Title     string
 	Narration []string
 	Highlight []string // figure targets: "channel", "guards", "carriers", "part:I", "align", "longcp", "tdd", "ssb", "raster", "coreset0"
@@ -36,6 +37,12 @@ func Walkthrough(res grid.Result) []WalkStep {
 	}
 	if res.TDD != nil {
 		steps = append(steps, tddStep(res))
+	}
+	if st, ok := timingStep(res); ok {
+		steps = append(steps, st)
+	}
+	if st, ok := switchStep(res); ok {
+		steps = append(steps, st)
 	}
 	if res.SSB != nil {
 		steps = append(steps, ssbStep(res))
@@ -171,6 +178,76 @@ func tddStep(res grid.Result) WalkStep {
 	return s
 }
 
+// timingStep tells what each numerology in use buys in time (issue 17):
+// processing, HARQ round trip, the latency of a slot, and the guard's
+// range; false when the plan has no timing.
+func timingStep(res grid.Result) (WalkStep, bool) {
+	pt := res.Timing
+	if pt == nil || len(res.Partitions) == 0 {
+		return WalkStep{}, false
+	}
+	s := WalkStep{Key: "timing", Title: "What each numerology buys in time"}
+	if res.TDD != nil {
+		s.Highlight = append(s.Highlight, "tdd")
+	}
+	seen := map[string]bool{}
+	for i, l := range res.Partitions {
+		t, n := l.Timing, l.Numerology
+		if t == nil {
+			continue
+		}
+		key := fmt.Sprintf("%d %s %d %s", n.SCSKHz(), n.CP, t.Capability, t.DMRS)
+		if seen[key] {
+			continue
+		}
+		seen[key] = true
+		s.Highlight = append(s.Highlight, fmt.Sprintf("part:%d", i))
+		line := fmt.Sprintf("At %d kHz (%s) the UE needs T_proc,1 = %s to acknowledge a PDSCH and T_proc,2 = %s to prepare a PUSCH (TS 38.214 5.3, 6.4); a downlink HARQ round trip takes %s to %s",
+			n.SCSKHz(), l.Name, microseconds(t.TProc1), microseconds(t.TProc2), microseconds(t.HARQMin), microseconds(t.HARQMax))
+		if d, u := t.Slot.DL, t.Slot.UL; d != nil && u != nil {
+			line += fmt.Sprintf(", and a packet waits and travels %s on average downlink (%s at worst), %s uplink (%s at worst)",
+				microseconds(grid.Tc(d.Mean)), microseconds(d.Worst), microseconds(grid.Tc(u.Mean)), microseconds(u.Worst))
+		}
+		s.Narration = append(s.Narration, line+".")
+	}
+	if pt.HasGuard {
+		s.Narration = append(s.Narration, fmt.Sprintf("The shortest downlink-to-uplink guard is %s; after N_TA,offset and the UE's switch from receiving to sending it covers a cell of %s km.",
+			microseconds(pt.Guard), strconv.FormatFloat(pt.MaxCellRadiusM/1000, 'f', 2, 64)))
+	}
+	s.Narration = append(s.Narration, "These latencies are an estimate of the air-interface part only; the results list every assumption behind them.")
+	return s, true
+}
+
+// switchStep walks through switching a UE from the first partition to the
+// first after it of another numerology, with the delays of the switching
+// matrix; false when the plan has no such pair in the matrix.
+func switchStep(res grid.Result) (WalkStep, bool) {
+	pt := res.Timing
+	if pt == nil || len(res.Partitions) < 2 {
+		return WalkStep{}, false
+	}
+	a := res.Partitions[0]
+	for j, b := range res.Partitions[1:] {
+		if a.Numerology == b.Numerology {
+			continue
+		}
+		for _, sw := range pt.BWPSwitch {
+			if sw.From != a.Name || sw.To != b.Name {
+				continue
+			}
+			s := WalkStep{Key: "switch", Title: fmt.Sprintf("Switching from %s to %s", a.Name, b.Name),
+				Highlight: []string{"part:0", fmt.Sprintf("part:%d", 1+j)}}
+			s.Narration = append(s.Narration,
+				fmt.Sprintf("A UE moved from %s (%d kHz) to %s (%d kHz) by DCI or by the inactivity timer is off the air for %s if it reports delay type 1 and %s if type 2 (TS 38.133 Table 8.6.2-1: the larger of the two spacings' delays).",
+					a.Name, a.Numerology.SCSKHz(), b.Name, b.Numerology.SCSKHz(), microseconds(sw.Type1), microseconds(sw.Type2)),
+				fmt.Sprintf("Switched by RRC reconfiguration it takes %s (TS 38.133 8.6.3, with 10 ms of RRC processing); the results show the whole matrix.", microseconds(pt.BWPSwitchRRC)))
+			return s, true
+		}
+		break // the matrix has no row for this pair (μ above 3)
+	}
+	return WalkStep{}, false
+}
+
 func ssbStep(res grid.Result) WalkStep {
 	b := res.SSB
 	s := WalkStep{Key: "ssb", Title: "SS/PBCH blocks", Highlight: []string{"ssb"}}
@@ -242,7 +319,7 @@ func findingsStep(res grid.Result) WalkStep {
 		if f.Severity == grid.Info || shown == 2 {
 			continue
 		}
-		s.Narration = append(s.Narration, f.Message)
+		s.Narration = append(s.Narration, planform.NamePaths(f.Message, res.Plan.Partitions))
 		shown++
 		for i, l := range res.Partitions {
 			if l.Name == f.Partition {
@@ -253,7 +330,7 @@ func findingsStep(res grid.Result) WalkStep {
 	if counts[grid.Info] > 0 && shown < 2 {
 		for _, f := range res.Findings {
 			if f.Severity == grid.Info {
-				s.Narration = append(s.Narration, f.Message)
+				s.Narration = append(s.Narration, planform.NamePaths(f.Message, res.Plan.Partitions))
 				break
 			}
 		}

@@ -25,7 +25,7 @@ func TestWalkthroughCampus(t *testing.T) {
 			t.Errorf("step %s has %d sentences", s.Key, len(s.Narration))
 		}
 	}
-	if got, want := strings.Join(keys, " "), "channel grids part-0 part-1 part-2 align tdd ssb band findings"; got != want {
+	if got, want := strings.Join(keys, " "), "channel grids part-0 part-1 part-2 align tdd timing switch ssb band findings"; got != want {
 		t.Errorf("steps %q, want %q", got, want)
 	}
 	say := func(key string) string {
@@ -45,8 +45,18 @@ func TestWalkthroughCampus(t *testing.T) {
 		"align":  {"7 symbols of 15 kHz", "14 symbols of 30 kHz", "10 times in the 5 ms"},
 		"tdd":    {"DDDSU", "every 5 ms on 15 kHz slots"},
 		"ssb":    {"Case C at 30 kHz has 8 candidate", "4 symbols by 240 subcarriers"},
-		// GSCN 8016: 3000 MHz + (8016 − 7499) × 1.44 MHz = 3744.48 MHz (TS 38.101-1 Table 5.4.3.1-1).
-		"band": {"band n78 (TDD)", "GSCN 8016, SS_REF 3744.48 MHz"},
+		// Worked by hand, capability 1 with dmrs pos2 (TS 38.214 5.3, 6.4): at 30 kHz
+		// T_proc,1 = N1 13 · (2048+144)·64·2^-1 Tc = 911872 Tc = 463.80 µs and
+		// T_proc,2 = (N2 12 + d2,1 1) · 70144 Tc = 463.80 µs; at 15 kHz 13 · 140288 Tc
+		// = 927.60 µs and 11 · 140288 Tc = 784.90 µs. The guard is the special
+		// slot's 2 flexible 15 kHz symbols, 2 · 140288 Tc = 142.71 µs; less
+		// N_TA,offset 25600 Tc and N_Rx-Tx 25600 Tc it leaves 229376 Tc = 116.67 µs,
+		// c·t/2 = 17.49 km (TS 38.133 Table 7.1.2-2, TS 38.211 Table 4.3.2-3).
+		"timing": {"At 30 kHz (video) the UE needs T_proc,1 = 463.80 µs", "T_proc,2 = 463.80 µs", "At 15 kHz (sensors) the UE needs T_proc,1 = 927.60 µs", "T_proc,2 = 784.90 µs", "guard is 142.71 µs", "17.49 km", "air-interface part only"},
+		// TS 38.133 Table 8.6.2-1: μ0 1 / 3 slots of 1 ms, μ1 2 / 5 slots of 0.5 ms;
+		// the larger of the two: 1 ms for type 1, 3 ms for type 2. RRC: 10 ms of
+		// RRC processing + 6 ms (8.6.3).
+		"switch": {"from sensors (15 kHz) to video (30 kHz)", "1000.00 µs if it reports delay type 1 and 3000.00 µs if type 2", "16000.00 µs"},
 	} {
 		got := say(key)
 		for _, w := range want {

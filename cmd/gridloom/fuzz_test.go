@@ -18,10 +18,11 @@ import (
 // JSON, SVG and CSV, on any input: it fails on a panic, on any float of
 // the result that is not finite (the JSON encoder refuses them and the
 // page would show "+Inf kHz"), and on any encoding error for a plan the
-// decoder accepted. The seeds are the demo plans, the hostile corpus and
-// the extreme numbers that once made the numerology fit infinite.
+// decoder accepted. The seeds are the demo plans, the initial-access and
+// PRACH plans, the hostile corpus and the extreme numbers that once made the
+// numerology fit infinite.
 func FuzzPipeline(f *testing.F) {
-	for _, glob := range []string{"../../grid/demo/*.yaml", "../../testdata/initial/*.yaml", "../../testdata/stress/fr2-1-initial-access.yaml", "../../testdata/hostile/*.json", "../../testdata/hostile/*.yaml"} {
+	for _, glob := range []string{"../../grid/demo/*.yaml", "../../testdata/initial/*.yaml", "../../testdata/prach/*.yaml", "../../testdata/stress/fr2-1-initial-access.yaml", "../../testdata/hostile/*.json", "../../testdata/hostile/*.yaml"} {
 		files, err := filepath.Glob(glob)
 		if err != nil {
 			f.Fatal(err)

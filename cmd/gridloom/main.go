@@ -7,6 +7,7 @@
 //	gridloom check [-format text|json] [-strict] PLAN          list the findings
 //	gridloom ssb [-band nBAND] [-format table|json] PLAN       where the SS/PBCH block fits on the sync raster
 //	gridloom initial [-band nBAND] [-format table|json] PLAN   the GSCNs and pdcch-ConfigSIB1 values that fit
+//	gridloom prach [-format table|json] PLAN                   the PRACH configuration indexes that fit
 //	gridloom timing PLAN                                       the timing tables and the numerology advice
 //	gridloom version                                           the version and the 3GPP release
 //
@@ -104,6 +105,8 @@ Usage:
                                     offsetToPointA and k_SSB: -band, -format table or json
   gridloom initial [flags] PLAN     list the GSCNs, controlResourceSetZero and searchSpaceZero
                                     that fit CORESET#0: -band, -format table or json
+  gridloom prach [flags] PLAN       list the prach-ConfigurationIndex values whose occasions
+                                    all fit the TDD pattern and SS/PBCH blocks: -format table or json
   gridloom timing PLAN              processing times, HARQ, latency, guard range, BWP
                                     switching and the numerology advice, as text tables
   gridloom version                  print the version and the 3GPP release it follows
@@ -140,6 +143,8 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 		return runSSB(ctx, args, stdin, stdout, stderr)
 	case "initial":
 		return runInitial(ctx, args, stdin, stdout, stderr)
+	case "prach":
+		return runPRACH(ctx, args, stdin, stdout, stderr)
 	case "timing":
 		return runTiming(ctx, args, stdin, stdout, stderr)
 	case "help":
@@ -147,5 +152,5 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 		return nil
 	}
 	fmt.Fprint(stderr, usage)
-	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check, ssb, initial, timing, version or help", cmd)}
+	return &exitError{code: 2, msg: fmt.Sprintf("unknown command %q; use serve, render, check, ssb, initial, prach, timing, version or help", cmd)}
 }

@@ -30,6 +30,8 @@ func full() grid.Plan {
 				SubcarrierSpacingKHz: 30, CyclicPrefix: "normal"},
 			InitialUplinkBWP: &grid.InitialBWPPlan{Partition: "q", StartCRB: i(4), SizePRB: 25, LocationAndBandwidth: i(8),
 				SubcarrierSpacingKHz: 15, CyclicPrefix: "extended"}},
+		PRACH: &grid.PRACHPlan{ConfigurationIndex: 98, Msg1SubcarrierSpacing: 30, Msg1FDM: 2, Msg1FrequencyStart: 3,
+			ZeroCorrelationZoneConfig: 12, RestrictedSetConfig: "unrestrictedSet", SSBPerRachOccasion: "1/2"},
 	}
 }
 
@@ -89,7 +91,7 @@ func TestKeysFromTags(t *testing.T) {
 		got  []string
 		want string
 	}{
-		{keys.plan, "name spanMs carrier partitions numerologyGapKHz tdd ssb environment initialAccess"},
+		{keys.plan, "name spanMs carrier partitions numerologyGapKHz tdd ssb environment initialAccess prach"},
 		{keys.carrier, "range band bandwidthMHz centerMHz arfcn offsetToCarrier carrierBandwidth nTaOffset"},
 		{keys.partition, "name scsKHz cp startCrb sizePrb locationAndBandwidth direction layers modulation ueCapability dmrsAdditionalPosition"},
 		{keys.tdd, "referenceScsKHz pattern1 pattern2"},
@@ -98,6 +100,7 @@ func TestKeysFromTags(t *testing.T) {
 		{keys.environment, "delaySpreadNs delayProfile speedKmh carrierMHz cellRadiusKm latencyTargetMs"},
 		{keys.initialAccess, "controlResourceSetZero searchSpaceZero dmrsTypeAPosition initialDownlinkBWP initialUplinkBWP"},
 		{keys.initialBWP, "partition startCrb sizePrb locationAndBandwidth subcarrierSpacing cyclicPrefix"},
+		{keys.prach, "configurationIndex msg1SubcarrierSpacing msg1FDM msg1FrequencyStart zeroCorrelationZoneConfig restrictedSetConfig ssbPerRachOccasion"},
 	} {
 		if got := strings.Join(c.got, " "); got != c.want {
 			t.Errorf("keys %q, want %q", got, c.want)

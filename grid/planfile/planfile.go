@@ -430,7 +430,7 @@ func FromTree(tree any) (grid.Plan, error) {
 // own the format, and the walk accepts exactly the keys they write.
 var keys = struct {
 	plan, carrier, partition, tdd, tddPattern, ssb, environment []string
-	initialAccess, initialBWP                                   []string
+	initialAccess, initialBWP, prach                            []string
 }{
 	plan:        tagKeys(reflect.TypeFor[grid.Plan]()),
 	carrier:     tagKeys(reflect.TypeFor[grid.CarrierPlan]()),
@@ -442,6 +442,7 @@ var keys = struct {
 
 	initialAccess: tagKeys(reflect.TypeFor[grid.InitialAccessPlan]()),
 	initialBWP:    tagKeys(reflect.TypeFor[grid.InitialBWPPlan]()),
+	prach:         tagKeys(reflect.TypeFor[grid.PRACHPlan]()),
 }
 
 // tagKeys lists the json keys of a struct's fields. A field without a key,
@@ -696,6 +697,9 @@ func (w *walker) plan(v any) grid.Plan {
 	if ia := m["initialAccess"]; ia != nil {
 		p.InitialAccess = w.initialAccess(ia)
 	}
+	if pr := m["prach"]; pr != nil {
+		p.PRACH = w.prach(pr)
+	}
 	switch ps := m["partitions"].(type) {
 	case nil:
 	case []any:
@@ -869,6 +873,44 @@ func (w *walker) initialBWP(v any, f string) *grid.InitialBWPPlan {
 		SubcarrierSpacingKHz: w.intOr0(m["subcarrierSpacing"], f+".subcarrierSpacing"),
 		CyclicPrefix:         w.str(m["cyclicPrefix"], f+".cyclicPrefix"),
 	}
+}
+
+func (w *walker) prach(v any) *grid.PRACHPlan {
+	const f = "prach"
+	m := w.object(v, f, keys.prach...)
+	if m == nil {
+		return nil
+	}
+	p := &grid.PRACHPlan{
+		ConfigurationIndex:        w.intOr0(m["configurationIndex"], f+".configurationIndex"),
+		Msg1FDM:                   w.intOr0(m["msg1FDM"], f+".msg1FDM"),
+		Msg1FrequencyStart:        w.intOr0(m["msg1FrequencyStart"], f+".msg1FrequencyStart"),
+		ZeroCorrelationZoneConfig: w.intOr0(m["zeroCorrelationZoneConfig"], f+".zeroCorrelationZoneConfig"),
+		RestrictedSetConfig:       w.str(m["restrictedSetConfig"], f+".restrictedSetConfig"),
+		SSBPerRachOccasion:        w.fraction(m["ssbPerRachOccasion"], f+".ssbPerRachOccasion"),
+	}
+	if s := m["msg1SubcarrierSpacing"]; s != nil {
+		p.Msg1SubcarrierSpacing, _ = w.float(s, f+".msg1SubcarrierSpacing")
+	}
+	return p
+}
+
+// fraction reads a value written as text ("1/8", "4") or as a number (4,
+// 0.125), so that YAML's unquoted 4 and JSON's "1/8" both read; a number
+// below 1 becomes the fraction 1/n it equals.
+func (w *walker) fraction(v any, field string) string {
+	n, ok := v.(number)
+	if !ok {
+		return w.str(v, field)
+	}
+	f, ok := w.float(n, field)
+	if !ok {
+		return ""
+	}
+	if f > 0 && f < 1 && 1/f == math.Trunc(1/f) {
+		return "1/" + strconv.FormatFloat(1/f, 'f', -1, 64)
+	}
+	return strconv.FormatFloat(f, 'f', -1, 64)
 }
 
 func periodList() string {

@@ -2,7 +2,9 @@ package planform
 
 import (
 	"fmt"
+	"math"
 	"net/url"
+	"strconv"
 	"strings"
 
 	"gridloom/grid"
@@ -12,6 +14,11 @@ import (
 // The comparison holds two plans in one link: plan A's keys after "a.",
 // plan B's after "b." (a.name, b.p0.scs, a.op …), and the figure options,
 // which both figures share, under their own "fig." keys.
+
+// KeyFrameOffset is the comparison's frame offset: plan B's frame starts
+// this many µs after plan A's on absolute time (negative: before), for the
+// cross-link conflicts of synchronised TDD (issue 17). The key is a contract.
+const KeyFrameOffset = "b.frameOffsetUs"
 
 // Sides are the key prefixes of the comparison's two plans, A then B.
 var Sides = [2]string{"a", "b"}
@@ -65,17 +72,77 @@ type Compare struct {
 	Fig     FigureForm
 	Focus   string // the control to focus after an edit, with its side's prefix
 	LinkErr string // a sentence about a link that does not parse as a whole, or ""
+	// FrameOffset is b.frameOffsetUs as typed ("" for 0), FrameOffsetUs
+	// its value once read, and FrameOffsetErr the sentence when it does not
+	// read (then FrameOffsetUs is 0).
+	FrameOffset    string
+	FrameOffsetUs  float64
+	FrameOffsetErr string
 }
 
 // Query is the canonical link of c.
 func (c Compare) Query() string {
-	return CompareQuery(c.Sides[0].Form, c.Sides[1].Form, c.Fig)
+	return JoinQuery(CompareQuery(c.Sides[0].Form, c.Sides[1].Form, c.Fig), frameOffsetQuery(c.FrameOffset))
 }
 
-// Invalid reports whether the page of c answers 422: the link or either
-// side has a problem.
+// SwapQuery is the link of the comparison with A and B swapped: B's frame
+// offset against A becomes A's against B, its negative.
+func (c Compare) SwapQuery() string {
+	off := c.FrameOffset
+	if c.FrameOffsetErr == "" && c.FrameOffsetUs != 0 {
+		off = strconv.FormatFloat(-c.FrameOffsetUs, 'f', -1, 64)
+	}
+	return JoinQuery(CompareQuery(c.Sides[1].Form, c.Sides[0].Form, c.Fig), frameOffsetQuery(off))
+}
+
+func frameOffsetQuery(v string) string {
+	if v == "" {
+		return ""
+	}
+	return url.Values{KeyFrameOffset: {v}}.Encode()
+}
+
+// Invalid reports whether the page of c answers 422: the link, the frame
+// offset or either side has a problem.
 func (c Compare) Invalid() bool {
-	return c.LinkErr != "" || c.Sides[0].Invalid() || c.Sides[1].Invalid()
+	return c.LinkErr != "" || c.FrameOffsetErr != "" || c.Sides[0].Invalid() || c.Sides[1].Invalid()
+}
+
+// readFrameOffset reads b.frameOffsetUs: a number of µs within
+// ±grid.MaxFrameOffsetUs (a common cycle of two TDD patterns is at most 20 ms).
+func readFrameOffset(v string) (float64, string) {
+	if v == "" {
+		return 0, ""
+	}
+	x, err := strconv.ParseFloat(strings.TrimSpace(v), 64)
+	if err != nil || math.IsNaN(x) || math.IsInf(x, 0) || math.Abs(x) > grid.MaxFrameOffsetUs {
+		return 0, fmt.Sprintf("The frame offset (%s) must be a number of µs from −%d to %d; got %q.", KeyFrameOffset, grid.MaxFrameOffsetUs, grid.MaxFrameOffsetUs, Truncate(v, 40))
+	}
+	return x, ""
+}
+
+// CrossLink puts both plans' TDD patterns on absolute time, B's frame
+// FrameOffsetUs after A's, and lists their cross-link conflicts. ok is
+// false, with the sentence why, when the two cannot be set against each
+// other: a side without a TDD pattern, or an offset that does not read.
+func (c Compare) CrossLink() (x grid.CrossLink, why string, ok bool) {
+	if c.FrameOffsetErr != "" {
+		return x, c.FrameOffsetErr, false
+	}
+	ta, tb := c.Sides[0].Result.TDD, c.Sides[1].Result.TDD
+	switch {
+	case ta == nil && tb == nil:
+		return x, "Neither plan has a TDD pattern, so neither switches direction and there is no cross-link conflict to find.", false
+	case ta == nil:
+		return x, "Plan A has no TDD pattern; give it one (tdd.*) to set its directions against plan B's.", false
+	case tb == nil:
+		return x, "Plan B has no TDD pattern; give it one (tdd.*) to set its directions against plan A's.", false
+	}
+	x, err := grid.CrossLinkConflicts(*ta, *tb, c.FrameOffsetUs)
+	if err != nil {
+		return x, err.Error(), false
+	}
+	return x, "", true
 }
 
 // ReadCompare reads a comparison's raw query and applies each side's op.
@@ -86,6 +153,8 @@ func ReadCompare(raw string) (c Compare, opErr error) {
 		c.LinkErr = fmt.Sprintf("Part of the link could not be read (%s), so a value it holds may be missing from the forms; check them against the plans you meant.", err)
 	}
 	c.Fig = ParseFigureForm(q)
+	c.FrameOffset = q.Get(KeyFrameOffset)
+	c.FrameOffsetUs, c.FrameOffsetErr = readFrameOffset(c.FrameOffset)
 	for i, side := range Sides {
 		sv := sideValues(q, side)
 		f, msgs := ParseQuery(sv)

@@ -14,7 +14,7 @@ import (
 // work on the Form, not the plan, so every other value stays as typed,
 // including ones that do not parse. The op key names one: "add"; "del.I",
 // "dup.I", "up.I" or "down.I" for partition I; "clear.tdd", "clear.ssb",
-// "clear.env" or "clear.init".
+// "clear.env", "clear.init" or "clear.prach".
 
 // OpError is an edit that cannot be made; its text is a whole sentence for
 // the user, shown beside the partitions.
@@ -52,6 +52,9 @@ func ApplyOp(f Form, op string, res grid.Result) (Form, string, error) {
 		case "init":
 			g.Init = InitForm{}
 			return g, KeyID("ia.coreset"), nil
+		case "prach":
+			g.PRACH = PRACHForm{}
+			return g, KeyID("prach.idx"), nil
 		}
 	}
 	i, ok := Index(num)

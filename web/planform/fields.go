@@ -2,6 +2,7 @@ package planform
 
 import (
 	"fmt"
+	"regexp"
 	"strconv"
 	"strings"
 
@@ -25,6 +26,7 @@ import (
 //	ia.coreset ia.ss0 ia.dmrs                    initial access: pdcch-ConfigSIB1, dmrs-TypeA-Position
 //	ia.dl.part ia.dl.start ia.dl.size ia.dl.riv ia.dl.scs ia.dl.cp   initial downlink BWP
 //	ia.ul.*                                      initial uplink BWP, the same keys
+//	prach.idx prach.scs prach.fdm prach.start prach.zcz prach.set prach.ssbro   RACH-ConfigCommon
 //	pI.name pI.scs pI.cp pI.start pI.size        partition I, from 0
 //	pI.riv pI.dir pI.layers pI.mod pI.cap pI.dmrs
 //
@@ -40,6 +42,7 @@ type Form struct {
 	SSB                                                         SSBForm
 	Env                                                         EnvForm
 	Init                                                        InitForm
+	PRACH                                                       PRACHForm
 	Parts                                                       []PartForm
 }
 
@@ -66,6 +69,11 @@ type InitForm struct {
 	DL, UL             BWPForm
 }
 
+// PRACHForm is the random access of a Form: prach-ConfigurationIndex,
+// msg1-SubcarrierSpacing, msg1-FDM, msg1-FrequencyStart,
+// zeroCorrelationZoneConfig, restrictedSetConfig and ssb-perRACH-Occasion.
+type PRACHForm struct{ Index, SCS, FDM, Start, ZCZ, Set, SSBPerRO string }
+
 // BWPForm is an initial BWP of a Form: a partition's name, or a place.
 type BWPForm struct{ Part, Start, Size, RIV, SCS, CP string }
 
@@ -89,7 +97,8 @@ const (
 	BlockInit      Block = "initialAccess"
 	BlockInitDL    Block = "initialAccess.initialDownlinkBWP" // brings the initial access with it
 	BlockInitUL    Block = "initialAccess.initialUplinkBWP"   // brings the initial access with it
-	BlockPartition Block = "partitions"                       // one set per partition, keys after "pI.", paths after "partitions[I]."
+	BlockPRACH     Block = "prach"
+	BlockPartition Block = "partitions" // one set per partition, keys after "pI.", paths after "partitions[I]."
 )
 
 // Field is one plan field of the form: everything the codec, the messages,
@@ -205,6 +214,13 @@ func initial(p *grid.Plan) *grid.InitialAccessPlan {
 		p.InitialAccess = &grid.InitialAccessPlan{}
 	}
 	return p.InitialAccess
+}
+
+func prachOf(p *grid.Plan) *grid.PRACHPlan {
+	if p.PRACH == nil {
+		p.PRACH = &grid.PRACHPlan{}
+	}
+	return p.PRACH
 }
 
 func initialDL(p *grid.Plan) *grid.InitialBWPPlan {
@@ -365,6 +381,27 @@ var Fields = func() []Field {
 	fs = append(fs, bwpFields("ia.ul", "initialAccess.initialUplinkBWP", BlockInitUL,
 		func(f *Form) *BWPForm { return &f.Init.UL }, initialUL)...)
 	fs = append(fs, []Field{
+		{Key: "prach.idx", Path: "prach.configurationIndex", Block: BlockPRACH, Label: "prach-ConfigurationIndex", Noun: "prach-ConfigurationIndex", KeepZero: true,
+			Allowed: fixed("a row of TS 38.211 Table 6.3.3.2-2, -3 or -4, from 0 to 255 (to 262 in FR1 unpaired spectrum)"),
+			form:    func(f *Form, _ int) *string { return &f.PRACH.Index }, plan: func(p *grid.Plan, _ int) any { return &prachOf(p).ConfigurationIndex }},
+		{Key: "prach.scs", Path: "prach.msg1SubcarrierSpacing", Block: BlockPRACH, Label: "msg1-SubcarrierSpacing (kHz)", Noun: "msg1-SubcarrierSpacing",
+			Allowed: fixed("15 or 30 kHz in FR1, 60 or 120 kHz in FR2 for a short format, or nothing for the long formats and the initial uplink BWP's spacing"),
+			form:    func(f *Form, _ int) *string { return &f.PRACH.SCS }, plan: func(p *grid.Plan, _ int) any { return &prachOf(p).Msg1SubcarrierSpacing }},
+		{Key: "prach.fdm", Path: "prach.msg1FDM", Block: BlockPRACH, Label: "msg1-FDM", Noun: "msg1-FDM",
+			Allowed: fixed("1, 2, 4 or 8, or nothing for 1"),
+			form:    func(f *Form, _ int) *string { return &f.PRACH.FDM }, plan: func(p *grid.Plan, _ int) any { return &prachOf(p).Msg1FDM }},
+		{Key: "prach.start", Path: "prach.msg1FrequencyStart", Block: BlockPRACH, Label: "msg1-FrequencyStart", Noun: "msg1-FrequencyStart",
+			Allowed: fixed("a PRB from 0 to 274 counted from the initial uplink BWP's first PRB, or nothing for 0"),
+			form:    func(f *Form, _ int) *string { return &f.PRACH.Start }, plan: func(p *grid.Plan, _ int) any { return &prachOf(p).Msg1FrequencyStart }},
+		{Key: "prach.zcz", Path: "prach.zeroCorrelationZoneConfig", Block: BlockPRACH, Label: "zeroCorrelationZoneConfig", Noun: "zeroCorrelationZoneConfig",
+			Allowed: fixed("a row from 0 to 15, or nothing for 0"),
+			form:    func(f *Form, _ int) *string { return &f.PRACH.ZCZ }, plan: func(p *grid.Plan, _ int) any { return &prachOf(p).ZeroCorrelationZoneConfig }},
+		{Key: "prach.set", Path: "prach.restrictedSetConfig", Block: BlockPRACH, Label: "restrictedSetConfig", Noun: "restrictedSetConfig", Trim: true,
+			form: func(f *Form, _ int) *string { return &f.PRACH.Set }, plan: func(p *grid.Plan, _ int) any { return &prachOf(p).RestrictedSetConfig }},
+		{Key: "prach.ssbro", Path: "prach.ssbPerRachOccasion", Block: BlockPRACH, Label: "ssb-perRACH-Occasion", Noun: "ssb-perRACH-Occasion", Trim: true,
+			form: func(f *Form, _ int) *string { return &f.PRACH.SSBPerRO }, plan: func(p *grid.Plan, _ int) any { return &prachOf(p).SSBPerRachOccasion }},
+	}...)
+	fs = append(fs, []Field{
 		// Partition fields, in the order a partition's keys are written.
 		{Key: "name", Path: "name", Block: BlockPartition, Label: "Name", Noun: "Name",
 			form: func(f *Form, i int) *string { return &f.Parts[i].Name }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].Name }},
@@ -383,7 +420,7 @@ var Fields = func() []Field {
 			form:    func(f *Form, i int) *string { return &f.Parts[i].RIV }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].LocationAndBandwidth }},
 		{Key: "dir", Path: "direction", Block: BlockPartition, Label: "Direction", Noun: "Direction",
 			form: func(f *Form, i int) *string { return &f.Parts[i].Dir }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].Direction }},
-		{Key: "layers", Path: "layers", Block: BlockPartition, Label: "Layers", Noun: "Layers",
+		{Key: "layers", Path: "layers", Block: BlockPartition, Label: "MIMO layers", Noun: "MIMO layers",
 			Allowed: fixed("a whole number: 1 to 8 for DL, 1 to 4 for UL"),
 			form:    func(f *Form, i int) *string { return &f.Parts[i].Layers }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].Layers }},
 		{Key: "mod", Path: "modulation", Block: BlockPartition, Label: "Modulation", Noun: "Modulation",
@@ -433,6 +470,36 @@ func PartFieldOf(key string) Field {
 		panic("planform: no partition field " + key)
 	}
 	return *f
+}
+
+// partPath is a partition's plan path in a finding's text:
+// "partitions[1]" or "partitions[1].startCrb".
+var partPath = regexp.MustCompile(`partitions\[(\d+)\](?:\.([A-Za-z][A-Za-z0-9]*))?`)
+
+// NamePaths names the partitions and fields in a finding's text as the page
+// shows them: "Start CRB of 2 · lowlat" for "partitions[1].startCrb", since
+// the partition's box is titled by its number and name and the control by
+// its label. The CLI and the API keep the plan path, which is what a plan
+// file spells. parts are the plan's partitions; a path beyond them is left.
+func NamePaths(text string, parts []grid.PartitionPlan) string {
+	return partPath.ReplaceAllStringFunc(text, func(m string) string {
+		sub := partPath.FindStringSubmatch(m)
+		i, err := strconv.Atoi(sub[1])
+		if err != nil || i >= len(parts) {
+			return m
+		}
+		who := strconv.Itoa(i + 1)
+		if parts[i].Name != "" {
+			who += " · " + parts[i].Name
+		}
+		if sub[2] == "" {
+			return who
+		}
+		if f, ok := partFieldByPath[sub[2]]; ok {
+			return f.Label + " of " + who
+		}
+		return sub[2] + " of " + who
+	})
 }
 
 func joinFloats(v []float64) string {

@@ -348,6 +348,7 @@ func FormOf(p grid.Plan) Form {
 		BlockInit:   p.InitialAccess != nil,
 		BlockInitDL: p.InitialAccess != nil && p.InitialAccess.InitialDownlinkBWP != nil,
 		BlockInitUL: p.InitialAccess != nil && p.InitialAccess.InitialUplinkBWP != nil,
+		BlockPRACH:  p.PRACH != nil,
 	}
 	for k := range Fields {
 		fl := &Fields[k]

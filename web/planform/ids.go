@@ -17,7 +17,8 @@ const (
 	IDTDD      = "g-tdd"
 	IDSSB      = "g-ssb"
 	IDEnv      = "g-env"
-	IDInit     = "g-init" // the initial access
+	IDInit     = "g-init"  // the initial access
+	IDPRACH    = "g-prach" // the random access
 	IDForm     = "gl-form"
 	IDFigure   = "g-fig" // the figure's options
 )
@@ -41,6 +42,7 @@ var groupIDs = map[string]string{
 	"partitions": IDParts, "tdd": IDTDD, "tdd.pattern1": IDTDD, "tdd.pattern2": IDTDD,
 	"ssb": IDSSB, "environment": IDEnv,
 	"initialAccess": IDInit, "initialAccess.initialDownlinkBWP": IDInit, "initialAccess.initialUplinkBWP": IDInit,
+	"prach": IDPRACH,
 }
 
 // ControlID is the id of the control or group that a plan path concerns,
