@@ -100,15 +100,16 @@ const (
 	LayerLabels                    // names in the plot, TDD letters, SS/PBCH labels, notes beside the rail
 	LayerTDD                       // TDD direction bands and the wash over the other direction
 	LayerSSB                       // SS/PBCH blocks, the sync raster, CORESET#0 and its occasions, the initial BWPs
+	LayerPRACH                     // PRACH occasions, valid and not
 	allLayers    Layer = 1<<iota - 1
 )
 
 // layerNames lists the layers in the order of their bits.
-var layerNames = []string{"lattice", "cp", "guards", "labels", "tdd", "ssb"}
+var layerNames = []string{"lattice", "cp", "guards", "labels", "tdd", "ssb", "prach"}
 
 // layerTitles says what each layer draws, in words for a form's
 // checkboxes, in the order of layerNames.
-var layerTitles = []string{"lattice lines", "cyclic prefixes", "guardbands", "labels", "TDD directions", "SS/PBCH blocks and initial access"}
+var layerTitles = []string{"lattice lines", "cyclic prefixes", "guardbands", "labels", "TDD directions", "SS/PBCH blocks and initial access", "random access occasions"}
 
 // LayerTitles returns a few words for each layer, in the order of
 // LayerNames, so that a page lists every layer render has without keeping

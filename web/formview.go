@@ -679,8 +679,9 @@ func countChecked(cs []checkbox) int {
 	return n
 }
 
-// layerLabels names the layers of render.LayerNames for the checkboxes.
-var layerLabels = []string{"lattice lines", "cyclic prefixes", "guardbands", "labels", "TDD directions", "SS/PBCH blocks"}
+// layerLabels names the layers of render.LayerNames for the checkboxes;
+// render keeps them, so that a new layer gets its checkbox.
+var layerLabels = render.LayerTitles()
 
 // shape names the figure box's set of controls, for formShape.
 func (fv figureView) shape() string {
