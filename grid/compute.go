@@ -794,9 +794,29 @@ func checkOverlaps(fs *findings, ls []Lattice) {
 				fs.add(Warning, CodeOverlap, b.Name, f, "Partitions %q (%s) and %q (%s) share %s of spectrum%s; on a TDD carrier that is legal only if they never transmit at the same time.", a.Name, a.Direction, b.Name, b.Direction, fmtKHz(over), why)
 				continue
 			}
-			fs.add(Error, CodeOverlap, b.Name, f, "Partitions %q (%s to %s) and %q (%s to %s) overlap by %s%s.", a.Name, fmtKHz(a.Low), fmtKHz(a.High), b.Name, fmtKHz(b.Low), fmtKHz(b.High), fmtKHz(over), why)
+			fs.add(Error, CodeOverlap, b.Name, f, "Partitions %q (%s to %s) and %q (%s to %s) overlap by %s%s; %s.", a.Name, fmtKHz(a.Low), fmtKHz(a.High), b.Name, fmtKHz(b.Low), fmtKHz(b.High), fmtKHz(over), why, clearOverlap(a, b))
 		}
 	}
+}
+
+// clearOverlap says how to part two overlapping partitions: the first CRB
+// of its own grid at which the upper one clears the lower, or the most PRBs
+// the lower one may keep below the upper (issue 19). CRB k of spacing Δf
+// spans [12·k·Δf − Δf/2, 12·(k+1)·Δf − Δf/2) from point A, the outer edges
+// of its subcarriers (TS 38.211 4.4.4.3 puts subcarrier 0 of CRB 0 on
+// point A).
+func clearOverlap(a, b Lattice) string {
+	lower, upper := a, b
+	if b.Low < a.Low || (b.Low == a.Low && b.High < a.High) {
+		lower, upper = b, a
+	}
+	scsU, scsL := Hz(upper.Numerology.SCSKHz())*1000, Hz(lower.Numerology.SCSKHz())*1000
+	start := ceilDiv(lower.High+scsU/2, 12*scsU)
+	s := fmt.Sprintf("to clear it, start %q at CRB %d or above", upper.Name, start)
+	if keep := floorDiv(upper.Low+scsL/2, 12*scsL) - Hz(lower.StartCRB); keep > 0 {
+		s += fmt.Sprintf(", or shrink %q to %d PRBs or fewer", lower.Name, keep)
+	}
+	return s
 }
 
 // checkEdgeGuards applies the mixed-numerology rule of TS 38.101-1 5.3.3:

@@ -222,6 +222,16 @@ func TestFindings(t *testing.T) {
 		// 15 kHz CRBs 0–23 end at 4312.5 kHz; the 30 kHz carrier at offset 1
 		// puts CRB 12 at 360·12 − 15 = 4305 kHz: 7.5 kHz of overlap.
 		{"half-subcarrier overlap", plan(40, part("a", 15, 0, 24), part("b", 30, 12, 10)), Error, CodeOverlap, "partitions[1].startCrb", "7.5 kHz"},
+		// How to clear it, worked by hand: a's 15 kHz CRBs 0–29 end at
+		// 30·180 − 7.5 = 5392.5 kHz, so b clears from CRB 30 (30·180 − 7.5);
+		// b starts at 20·180 − 7.5 = 3592.5 kHz, so a may keep 20 PRBs.
+		{"overlap, how to clear", plan(40, part("a", 15, 0, 30), part("b", 15, 20, 30)), Error, CodeOverlap, "partitions[1].startCrb",
+			`to clear it, start "b" at CRB 30 or above, or shrink "a" to 20 PRBs or fewer.`},
+		// a ends at 4312.5 kHz: b's 30 kHz CRB k starts at 360·k − 15 kHz,
+		// ≥ 4312.5 from k = 13 (12 gives 4305); a's m PRBs end at
+		// 180·m − 7.5 ≤ 4305 up to m = 23.
+		{"half-subcarrier overlap, how to clear", plan(40, part("a", 15, 0, 24), part("b", 30, 12, 10)), Error, CodeOverlap, "partitions[1].startCrb",
+			`start "b" at CRB 13 or above, or shrink "a" to 23 PRBs or fewer`},
 		{"DL/UL overlap", plan(40, part("a", 15, 0, 30), with(part("b", 15, 20, 30), func(p *PartitionPlan) { p.Direction = "UL" })), Warning, CodeOverlap, "partitions[1].startCrb", "TDD"},
 		{"carrier beyond channel", withCarrier(plan(40, part("a", 15, 0, 10)), func(c *CarrierPlan) {
 			c.OffsetToCarrier = map[int]int{15: 0}

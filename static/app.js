@@ -54,6 +54,7 @@
   let inflight = null; // AbortController of the fragment request in flight
   let seq = 0; // number of the latest request; older answers are dropped
   let typing = false; // the current burst of typing has its history entry
+  let pendingTyping = false; // typed values wait for the pause before their update
   let swapping = false; // the form is being replaced: its events are not edits
   let moves = 0; // steps the user has taken in the history (popstate events)
   let shownParts = null; // the text of each part of the results shown, split at PART_MARK
@@ -78,6 +79,7 @@
 
   function schedule() {
     clearTimeout(timer);
+    pendingTyping = true;
     timer = setTimeout(() => update({ commit: false }), DEBOUNCE_MS);
   }
 
@@ -85,6 +87,7 @@
   // history gives one) and applies it.
   async function update({ commit, op = null, query = null, fromHistory = false }) {
     clearTimeout(timer);
+    pendingTyping = false;
     const form = liveForm();
     if (!form) return;
     const q = query !== null ? query : queryOf(form, op);
@@ -133,7 +136,7 @@
       }
       stamp('parsed');
       showResults(work);
-      shownParts = parts;
+      shownParts = held(work) ? null : parts; // a held figure is compared again in full
     }
     trouble('');
     stamp('shown');
@@ -215,11 +218,30 @@
 
   // showResults brings the figures, tables and findings in line with the
   // server's new rendering of them.
+  // held says whether an answer's figure is to be held: while a value
+  // does not parse, the server draws the plan without it, which moves point
+  // A and the other partitions under the user's typing. The page keeps the
+  // last figure (and its lattice, for the readout) until the value parses.
+  const held = (work) => work.hasAttribute('data-unparsed');
+  const figurePart = (el) => el.id === 'gl-lattice' || el.querySelector('#gl-figure') !== null;
+
+  function markHeld(on) {
+    const box = document.querySelector('.gl-figure-box');
+    if (box) box.classList.toggle('gl-held', on);
+  }
+
   function showResults(work) {
     const results = byId('gl-results');
     const fresh = work.querySelector('#gl-results');
     if (results && fresh) {
+      if (held(work)) {
+        for (const el of Array.from(fresh.children)) {
+          const cur = figurePart(el) && (el.id ? byId(el.id) : results.querySelector('.gl-figure-box'));
+          if (cur) el.replaceWith(cur.cloneNode(true));
+        }
+      }
       morph(results, fresh);
+      markHeld(held(work));
       resetReadout();
     }
   }
@@ -240,8 +262,14 @@
     const fresh = work && work.querySelector('#gl-results');
     if (!fresh) return null;
     const changed = [];
+    const hold = held(work);
+    parts = parts.slice();
     for (let i = 1; i < parts.length; i++) {
       const cur = results.children[i - 1];
+      if (hold && figurePart(cur)) {
+        parts[i] = shownParts[i]; // still shown; compared again next time
+        continue;
+      }
       if (parts[i] === shownParts[i] && !cur.querySelector('#gl-figure')) continue;
       const f = parse(parts[i]).firstElementChild;
       if (!f) return null;
@@ -253,6 +281,7 @@
       if (sameNode(cur, f)) morph(cur, f);
       else cur.replaceWith(document.adoptNode(f));
     }
+    markHeld(hold);
     resetReadout();
     shownParts = parts;
     return work;
@@ -442,7 +471,19 @@
     if (!form || !form.hasAttribute('data-live')) return;
     e.preventDefault();
     const b = e.submitter;
-    update({ commit: true, op: b && /^([ab]\.)?op$/.test(b.name) ? { name: b.name, value: b.value } : null });
+    const op = b && /^([ab]\.)?op$/.test(b.name) ? { name: b.name, value: b.value } : null;
+    if (op) {
+      // Values typed just before a button (Add partition…) are a step of
+      // their own, so that Back returns to them and not to the state before
+      // the typing (issue 19): give them an entry now if the pause that
+      // would have given it has not come, and let the edit open the next.
+      if (pendingTyping) {
+        const url = form.dataset.page + '?' + queryOf(form);
+        if (url !== location.pathname + location.search) history.pushState(null, '', url);
+      }
+      typing = false;
+    }
+    update({ commit: true, op });
   });
 
   window.addEventListener('popstate', () => {
@@ -921,6 +962,18 @@
       if (f) f.focus();
     } else {
       trouble('The server could not open ' + file.name + ' (' + res.status + ').');
+    }
+  }
+
+  // A page answered for a refused Open (the button, a whole page) names the
+  // control whose reason it shows: focus it, which scrolls it into view, as
+  // a refused drop does, rather than leaving the reason far below the top.
+  {
+    const work = byId('gl-work');
+    if (work && work.dataset.focus) {
+      focusControl(work.dataset.focus);
+      const reason = byId('n-' + work.dataset.focus);
+      if (reason) reason.scrollIntoView({ block: 'nearest' });
     }
   }
 })();

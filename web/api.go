@@ -1,6 +1,7 @@
 package web
 
 import (
+	"fmt"
 	"io"
 	"mime"
 	"net/http"
@@ -15,10 +16,26 @@ import (
 // figure out. Its errors are JSON (see apiErrors).
 
 // readAPIPlan reads the plan of an API request: a plan file, JSON (the
-// API's own syntax) or YAML, by its Content-Type, or sniffed when that
-// names neither. A body over the limit is a 413, one that is no plan a 400
-// naming its fields.
+// API's own syntax) or YAML, as its Content-Type says. Any other type is
+// refused with 415 before the body is read: text/plain and form bodies are
+// what another site's page may post without asking (a "simple" request),
+// so the API does not guess a plan from them. A body over the limit is a
+// 413, one that is no plan a 400 naming its fields.
 func readAPIPlan(r *http.Request) (grid.Plan, error) {
+	ctype, _, _ := mime.ParseMediaType(r.Header.Get("Content-Type"))
+	yaml := false
+	switch ctype {
+	case "application/json":
+	case "application/yaml", "application/x-yaml", "text/yaml":
+		yaml = true
+	default:
+		given := "missing"
+		if ctype != "" {
+			given = fmt.Sprintf("%q", truncate(ctype, 100))
+		}
+		return grid.Plan{}, &problem{status: http.StatusUnsupportedMediaType,
+			text: fmt.Sprintf("The request's Content-Type is %s; the API takes a plan file as application/json or application/yaml (or application/x-yaml, text/yaml).", given)}
+	}
 	body, err := io.ReadAll(r.Body)
 	if err != nil {
 		if isTooLarge(err) {
@@ -27,14 +44,10 @@ func readAPIPlan(r *http.Request) (grid.Plan, error) {
 		return grid.Plan{}, &problem{status: http.StatusBadRequest, text: "The request body could not be read."}
 	}
 	var plan grid.Plan
-	ctype, _, _ := mime.ParseMediaType(r.Header.Get("Content-Type"))
-	switch ctype {
-	case "application/json":
-		plan, err = planfile.DecodeJSON(body)
-	case "application/yaml", "application/x-yaml", "text/yaml":
+	if yaml {
 		plan, err = planfile.DecodeYAML(body)
-	default:
-		plan, err = planfile.Decode(body)
+	} else {
+		plan, err = planfile.DecodeJSON(body)
 	}
 	if err != nil {
 		return grid.Plan{}, badPlan(err)
@@ -43,7 +56,8 @@ func readAPIPlan(r *http.Request) (grid.Plan, error) {
 }
 
 // apiRender computes a plan: the JSON document of the command line's
-// render -format json, with 422 when the plan has error findings.
+// render -format json, with 422 when the plan has error findings. The
+// document is streamed: for the largest plan it is 25 MB.
 func (s *server) apiRender(w http.ResponseWriter, r *http.Request) error {
 	plan, err := readAPIPlan(r)
 	if err != nil {
@@ -54,7 +68,10 @@ func (s *server) apiRender(w http.ResponseWriter, r *http.Request) error {
 	if res.HasErrors() {
 		status = http.StatusUnprocessableEntity
 	}
-	if err := sendJSON(w, r, status, report.Build(res, true)); err != nil {
+	err = stream(w, r, status, "application/json; charset=utf-8", func(w io.Writer) error {
+		return report.Write(w, res, true)
+	})
+	if err != nil {
 		return internal("lattice document", err)
 	}
 	return nil

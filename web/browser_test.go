@@ -581,3 +581,42 @@ func TestBrowserReadout(t *testing.T) {
 	tb.waitFor("the next partition", fmt.Sprintf(`document.getElementById('gl-readout').dataset.name === %q`, res.Partitions[1].Name))
 	tb.checkConsole()
 }
+
+// An upload whose link would be over the query limit opens as its page at
+// once, with the reason beside the file control, and not as a redirect to
+// a link the app answers with 414 (issue 13).
+func TestBrowserUploadOverLinkLimit(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	file, err := filepath.Abs("../testdata/hostile/link-too-long.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	tb := newTab(t, 1440, 1000)
+	tb.open(srv.URL + "/")
+	tb.do("choosing the file", chromedp.SetUploadFiles(chromedp.ID("f-file"), []string{file}))
+	tb.do("opening it", chromedp.Click(`[data-testid=open]`))
+	// The page is replaced by the answer: poll through the navigation,
+	// when an evaluation may find no page to run in.
+	note := `(document.querySelector('#n-f-file') || {textContent: ''}).textContent.includes('shown here without a link')`
+	for deadline := time.Now().Add(15 * time.Second); ; {
+		ctx, cancel := context.WithTimeout(tb.ctx, 2*time.Second)
+		ok, err := chromedp.Run(ctx, chromedp.Evaluate[bool](note))
+		cancel()
+		if err == nil && ok && eval[string](tb, `document.readyState`) == "complete" {
+			break
+		}
+		if time.Now().After(deadline) {
+			t.Fatalf("no note about the link after the upload (last error %v)", err)
+		}
+		time.Sleep(25 * time.Millisecond)
+	}
+	if got := eval[string](tb, `location.pathname`); got != "/open" {
+		t.Errorf("the page's address is %q, want /open: the plan was not redirected to a link", got)
+	}
+	if got := eval[string](tb, `document.title`); !strings.Contains(got, "sixty-four partitions") {
+		t.Errorf("title %q: the page is not the uploaded plan's", got)
+	}
+	// No console check: Chromium logs the page's own 422 (the plan has
+	// error findings) as a resource that failed to load.
+}

@@ -1,7 +1,7 @@
 package web
 
 import (
-	"bytes"
+	"io"
 	"net/http"
 
 	"gridloom/grid/planfile"
@@ -41,6 +41,9 @@ func (s *server) figureSVG(w http.ResponseWriter, r *http.Request) error {
 	if err != nil {
 		return err
 	}
+	if head(w, r, "image/svg+xml", st.Plan.Name, ".svg") {
+		return nil
+	}
 	opt := st.Fig.Opt
 	if opt.Plan, err = planfile.EncodeJSON(st.Plan); err != nil {
 		return internal("figure", err)
@@ -63,6 +66,9 @@ func (s *server) figurePNG(w http.ResponseWriter, r *http.Request) error {
 	st, err := figureState(r)
 	if err != nil {
 		return err
+	}
+	if head(w, r, "image/png", st.Plan.Name, ".png") {
+		return nil
 	}
 	png, err := drawFigure(s.cfg.PNG, st.Result, st.Fig.Opt)
 	if err != nil {
@@ -99,17 +105,36 @@ func (s *server) planFile(format string) handlerFunc {
 	}
 }
 
-// symbols serves the symbol table of the query's plan as CSV.
+// symbols serves the symbol table of the query's plan as CSV, streamed: for
+// the largest plan it is 46 MB.
 func (s *server) symbols(w http.ResponseWriter, r *http.Request) error {
 	st, err := downloadState(r)
 	if err != nil {
 		return err
 	}
-	var buf bytes.Buffer
-	if err := s.cfg.SymbolCSV(&buf, st.Result); err != nil {
+	attach(w, st.Plan.Name, "-symbols.csv")
+	err = stream(w, r, http.StatusOK, "text/csv; charset=utf-8", func(w io.Writer) error {
+		return s.cfg.SymbolCSV(w, st.Result)
+	})
+	if err != nil {
 		return internal("symbol table", err)
 	}
-	attach(w, st.Plan.Name, "-symbols.csv")
-	send(w, r, http.StatusOK, "text/csv; charset=utf-8", buf.Bytes())
 	return nil
+}
+
+// head answers a HEAD request for a figure with the headers its GET would
+// carry, without drawing it, and reports whether it did.
+func head(w http.ResponseWriter, r *http.Request, ctype, planName, suffix string) bool {
+	if r.Method != http.MethodHead {
+		return false
+	}
+	if r.URL.Query().Get("download") == "1" {
+		attach(w, planName, suffix)
+	}
+	w.Header().Set("Content-Type", ctype)
+	if isCompressible(ctype) {
+		w.Header().Add("Vary", "Accept-Encoding")
+	}
+	w.WriteHeader(http.StatusOK)
+	return true
 }

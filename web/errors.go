@@ -81,12 +81,15 @@ func (s *server) answer(w http.ResponseWriter, r *http.Request, style errorStyle
 // notFound answers an unknown path.
 func (s *server) notFound(style errorStyle) http.HandlerFunc {
 	return s.serve(style, func(w http.ResponseWriter, r *http.Request) error {
-		text := "There is no " + r.URL.Path + "."
-		if style == apiErrors {
-			text = fmt.Sprintf("There is no %s; the API has POST /api/v1/render and POST /api/v1/figure.", r.URL.Path)
-		}
-		return &problem{status: http.StatusNotFound, text: text}
+		return &problem{status: http.StatusNotFound, text: notFoundText(style, r.URL.Path)}
 	})
+}
+
+func notFoundText(style errorStyle, path string) string {
+	if style == apiErrors {
+		return fmt.Sprintf("There is no %s; the API has POST /api/v1/render and POST /api/v1/figure.", path)
+	}
+	return "There is no " + path + "."
 }
 
 // methodNotAllowed answers 405 with the Allow header listing the methods
@@ -103,6 +106,9 @@ func (s *server) methodNotAllowed(style errorStyle, routes chi.Routes) http.Hand
 			if routes.Match(chi.NewRouteContext(), m, path) {
 				allow = append(allow, m)
 			}
+		}
+		if len(allow) == 0 { // an unknown method on an unknown path: the path is what is wrong
+			return &problem{status: http.StatusNotFound, text: notFoundText(style, r.URL.Path)}
 		}
 		if slices.Contains(allow, http.MethodGet) && !slices.Contains(allow, http.MethodHead) {
 			allow = append(allow, http.MethodHead)

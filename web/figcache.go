@@ -13,7 +13,7 @@ import (
 // holds the whole plan and its options, so a figure asked for again (a
 // link opened twice, the download after the page, a reloaded image) costs
 // a lookup instead of a computation, a drawing and a compression. Only 200
-// answers are kept, by raw query, with their headers and, compressed once,
+// answers are kept, by path and raw query (the SVG and PNG figures share one cache), with their headers and, compressed once,
 // their gzip form. It holds at most maxEntries answers and maxBytes of
 // them; the least recently sent go first.
 type responseCache struct {
@@ -73,8 +73,13 @@ func (c *responseCache) put(r *cachedResponse) {
 // asked for the plain answer; the cache compresses it once.
 func cached(c *responseCache, next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
-		if e, ok := c.get(r.URL.RawQuery); ok {
+		key := r.URL.Path + "?" + r.URL.RawQuery // two routes may share a cache
+		if e, ok := c.get(key); ok {
 			e.send(w, r)
+			return
+		}
+		if r.Method == http.MethodHead { // no body to keep: the handler skips it
+			next.ServeHTTP(w, r)
 			return
 		}
 		plain := r.Clone(r.Context())
@@ -87,7 +92,7 @@ func cached(c *responseCache, next http.Handler) http.Handler {
 		}
 		rec.header.Del("Content-Length")
 		rec.header.Del("Vary")
-		e := &cachedResponse{query: r.URL.RawQuery, header: rec.header, body: rec.body.Bytes()}
+		e := &cachedResponse{query: key, header: rec.header, body: rec.body.Bytes()}
 		if isCompressible(rec.header.Get("Content-Type")) {
 			var gz bytes.Buffer
 			if gzipBytes(&gz, e.body) == nil {

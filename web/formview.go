@@ -291,7 +291,7 @@ func (fb *formBuilder) ssbSection() section {
 		Hint: "offsetToPointA counts RBs of 15 kHz (FR1) or 60 kHz (FR2); k_SSB counts subcarriers. A GSCN places the block on the synchronization raster and sets both. The bitmap is ssb-PositionsInBurst, empty for every candidate.",
 		Rows: []sectionRow{
 			{Label: "Blocks", Controls: []control{
-				fb.text("ssb.scs", "4", "numeric", ""),
+				fb.choice("ssb.scs", "4", ssbSCSOptions(fb.rng, fb.f.SSB.SCS)),
 				fb.choice("ssb.case", "4", pick(cases, fb.f.SSB.Case, nil)),
 				fb.choice("ssb.period", "4", pick(periods, fb.f.SSB.Period, nil)),
 				fb.text("ssb.bitmap", "12", "numeric", "all candidates"),
@@ -410,12 +410,20 @@ func (fb *formBuilder) prachSection() section {
 func finishSection(sec section) section {
 	sec.OpName, sec.ClearID = planform.KeyOp, "b-"+sec.ClearOp
 	sec.Open = sec.Summary != "" || hasSerious(sec.Group.Notes)
+	invalid := false
 	for _, row := range sec.Rows {
 		for _, c := range row.Controls {
 			if strings.TrimSpace(c.Value) != "" || hasSerious(c.Notes) {
 				sec.Open = true
 			}
+			invalid = invalid || c.invalid()
 		}
+	}
+	if invalid {
+		// A value being fixed leaves the block out of the plan, or in it
+		// without that value: say so rather than "not in the plan" or a
+		// summary of what the user did not type (issue 19).
+		sec.Summary = "invalid: fix the marked field"
 	}
 	return sec
 }
@@ -511,25 +519,39 @@ func pick(allowed []option, cur string, why func(string) string) []option {
 	return out
 }
 
-// bandwidthOptions offers the channel bandwidths that every spacing in use
-// allows in the range, or all of the range's when no spacing is usable or
-// the spacings share none (the findings then say which spacing cannot
-// have it).
+// bandwidthOptions offers every channel bandwidth of the range. One that a
+// spacing in use does not allow stays in the list, labelled with the
+// spacings it lacks: hiding 60–100 MHz while a partition is at 15 kHz left a
+// newcomer with no word why (issue 19); choosing it gives the finding that
+// names the partition to change.
 func bandwidthOptions(rng grid.Range, scsInUse []int, cur string) []option {
-	allowed := rng.CommonBandwidths(scsInUse)
-	if len(allowed) == 0 {
-		scsInUse, allowed = nil, rng.AllBandwidths()
-	}
-	vals := make([]string, len(allowed))
-	for i, bw := range allowed {
-		vals[i] = strconv.Itoa(bw)
-	}
-	why := func(string) string {
-		if len(scsInUse) == 0 {
-			return "not a channel bandwidth of " + rng.String()
+	var opts []option
+	for _, bw := range rng.AllBandwidths() {
+		v := strconv.Itoa(bw)
+		var lacking []int
+		for _, scs := range scsInUse {
+			if !slices.Contains(rng.CommonBandwidths([]int{scs}), bw) {
+				lacking = append(lacking, scs)
+			}
 		}
-		return "not defined for " + grid.JoinInts(scsInUse) + " kHz in " + rng.String()
+		label := v
+		if len(lacking) > 0 {
+			label = v + " (not at " + grid.JoinInts(lacking) + " kHz)"
+		}
+		opts = append(opts, option{Value: v, Label: label})
 	}
+	why := func(string) string { return "not a channel bandwidth of " + rng.String() }
+	return pick(opts, strings.TrimSpace(cur), why)
+}
+
+// ssbSCSOptions offers the SS/PBCH spacings of the range as a list, like
+// a partition's SCS, where free text invited values no case has (issue 19).
+func ssbSCSOptions(rng grid.Range, cur string) []option {
+	var vals []string
+	for _, scs := range rng.SSBSCS() {
+		vals = append(vals, strconv.Itoa(scs))
+	}
+	why := func(string) string { return "not an SS/PBCH spacing of " + rng.String() }
 	return pick(plain(vals), strings.TrimSpace(cur), why)
 }
 

@@ -2,6 +2,7 @@ package web
 
 import (
 	"bytes"
+	"compress/gzip"
 	"context"
 	"encoding/csv"
 	"encoding/json"
@@ -12,16 +13,22 @@ import (
 	"io"
 	"log/slog"
 	"mime"
+	"net"
 	"net/http"
 	"net/http/httptest"
 	"net/url"
+	"os"
 	"regexp"
 	"strings"
+	"sync"
+	"sync/atomic"
 	"testing"
+	"time"
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
 	"gridloom/grid/report"
+	"gridloom/render"
 	"gridloom/web/planform"
 )
 
@@ -646,5 +653,464 @@ func TestClientGoneIsNoServerError(t *testing.T) {
 	}
 	if s := logs.String(); strings.Contains(s, "level=ERROR") || strings.Count(s, "status=499") != 2 {
 		t.Errorf("log:\n%s\nwant no error and two requests with status 499", s)
+	}
+}
+
+// Issue 13: the server bounded under load and against hostile pages.
+
+// largestPlan is the plan with the most symbols the engine accepts (16
+// partitions at 960 kHz over 10 ms, 143 360 symbols), and its link.
+func largestPlan(t *testing.T) (grid.Plan, string) {
+	t.Helper()
+	data, err := os.ReadFile("../testdata/stress/fr2-2-16-partitions.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := planfile.Decode(data)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return p, planform.FormOf(p).Query()
+}
+
+func gunzip(t *testing.T, b []byte) []byte {
+	t.Helper()
+	zr, err := gzip.NewReader(bytes.NewReader(b))
+	if err != nil {
+		t.Fatal(err)
+	}
+	out, err := io.ReadAll(zr)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return out
+}
+
+// The symbol table and the lattice document of the largest plan are
+// streamed (no Content-Length, since they are not held whole), plain and
+// gzip, and are the bytes that render.SymbolCSV and report.Write give.
+func TestExportsAreStreamed(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	plan, q := largestPlan(t)
+	res := grid.Compute(plan)
+	var wantCSV, wantJSON bytes.Buffer
+	if err := render.SymbolCSV(&wantCSV, res); err != nil {
+		t.Fatal(err)
+	}
+	if err := report.Write(&wantJSON, res, true); err != nil {
+		t.Fatal(err)
+	}
+	body, _ := planfile.EncodeJSON(plan)
+	for _, gz := range []bool{false, true} {
+		req, _ := http.NewRequest(http.MethodGet, srv.URL+"/symbols.csv?"+q, nil)
+		req2, _ := http.NewRequest(http.MethodPost, srv.URL+"/api/v1/render", bytes.NewReader(body))
+		req2.Header.Set("Content-Type", "application/json")
+		for _, c := range []struct {
+			req  *http.Request
+			want []byte
+		}{{req, wantCSV.Bytes()}, {req2, wantJSON.Bytes()}} {
+			if gz {
+				c.req.Header.Set("Accept-Encoding", "gzip")
+			} else {
+				c.req.Header.Set("Accept-Encoding", "identity")
+			}
+			r := do(t, c.req)
+			wantStatus(t, r, http.StatusOK)
+			got := []byte(r.body)
+			if gz {
+				if r.Header.Get("Content-Encoding") != "gzip" {
+					t.Fatalf("%s with gzip: Content-Encoding %q", c.req.URL.Path, r.Header.Get("Content-Encoding"))
+				}
+				got = gunzip(t, got)
+			}
+			if r.ContentLength != -1 {
+				t.Errorf("%s: Content-Length %d; a streamed answer has none", c.req.URL.Path, r.ContentLength)
+			}
+			if !bytes.Equal(got, c.want) {
+				t.Errorf("%s (gzip %v): %d bytes differ from the %d of the direct writer", c.req.URL.Path, gz, len(got), len(c.want))
+			}
+		}
+	}
+	t.Logf("CSV %d bytes, JSON %d bytes", wantCSV.Len(), wantJSON.Len())
+}
+
+// A streamed export stops when its client leaves: the writer the symbol
+// table is written to fails from the next write on.
+func TestExportStopsWhenClientLeaves(t *testing.T) {
+	var rows atomic.Int64
+	ctx, cancel := context.WithCancel(context.Background())
+	cfg := testConfig(t)
+	cfg.SymbolCSV = func(w io.Writer, r grid.Result) error {
+		line := bytes.Repeat([]byte("x"), 1023)
+		line = append(line, '\n')
+		for i := range 100000 { // 100 MB if nothing stopped it
+			if i == 200 {
+				cancel() // the client leaves after 200 KB
+			}
+			if _, err := w.Write(line); err != nil {
+				return err
+			}
+			rows.Add(1)
+		}
+		return nil
+	}
+	h := NewServer(slog.New(slog.DiscardHandler), cfg)
+	w := httptest.NewRecorder()
+	h.ServeHTTP(w, httptest.NewRequest(http.MethodGet, "/symbols.csv?"+campusQuery(t), nil).WithContext(ctx))
+	if n := rows.Load(); n > 200 {
+		t.Errorf("%d rows written after the client left at row 200; want the next write to fail", n-200)
+	}
+}
+
+// blockingFigure is a figure drawer that waits until released, to hold
+// the heavy slots.
+type blockingFigure struct {
+	calls   atomic.Int64
+	started chan struct{}
+	release chan struct{}
+}
+
+func (b *blockingFigure) draw(w io.Writer, r grid.Result, opt render.Options) error {
+	b.calls.Add(1)
+	b.started <- struct{}{}
+	<-b.release
+	_, err := w.Write([]byte("\x89PNG\r\n\x1a\n"))
+	return err
+}
+
+// Heavy work waits for one of a bounded number of slots; when none frees up
+// in time the answer is 503 with Retry-After and a sentence, while the
+// light routes answer as usual. Once a slot frees, heavy work goes on.
+func TestHeavyWorkIsAdmitted(t *testing.T) {
+	fig := &blockingFigure{started: make(chan struct{}, 4), release: make(chan struct{})}
+	cfg := testConfig(t)
+	cfg.PNG = fig.draw
+	cfg.HeavySlots = 1
+	cfg.HeavyWait = 20 * time.Millisecond
+	srv, logs := newTestServer(t, cfg)
+	q := campusQuery(t)
+	var wg sync.WaitGroup
+	wg.Add(1)
+	var first response
+	go func() {
+		defer wg.Done()
+		req, _ := http.NewRequest(http.MethodGet, srv.URL+"/figure.png?"+q, nil)
+		res, err := http.DefaultClient.Do(req)
+		if err != nil {
+			t.Error(err)
+			return
+		}
+		b, _ := io.ReadAll(res.Body)
+		res.Body.Close()
+		first = response{res, string(b)}
+	}()
+	<-fig.started // the one slot is taken
+	body, _ := planfile.EncodeJSON(cfg.Plan)
+	for _, r := range []response{
+		get(t, srv, "/figure.png?"+q+"&fig.width=1000"),
+		get(t, srv, "/symbols.csv?"+q),
+		get(t, srv, "/compare?a."+strings.ReplaceAll(q, "&", "&a.")),
+		get(t, srv, "/walk?"+q+"&view=print"),
+		post(t, srv, "/api/v1/render", "application/json", body),
+	} {
+		wantStatus(t, r, http.StatusServiceUnavailable)
+		if r.Header.Get("Retry-After") != "1" {
+			t.Errorf("%s: Retry-After %q, want 1", r.Request.URL.Path, r.Header.Get("Retry-After"))
+		}
+		wantContains(t, r.Request.URL.Path+" 503", r.body, "gridloom is busy", "at most 1 heavy answers", "Try again in 1 second.")
+	}
+	for _, path := range []string{"/?" + q, "/fragment?" + q, "/figure.svg?" + q, "/plan.json?" + q, "/walk?" + q, "/static/app.js"} {
+		wantStatus(t, get(t, srv, path), http.StatusOK)
+	}
+	close(fig.release)
+	wg.Wait()
+	if first.StatusCode != http.StatusOK {
+		t.Errorf("the request holding the slot: %d", first.StatusCode)
+	}
+	wantStatus(t, get(t, srv, "/symbols.csv?"+q), http.StatusOK)
+	if strings.Contains(logs.String(), "level=ERROR") {
+		t.Errorf("a 503 of admission logged as an error:\n%s", logs)
+	}
+}
+
+// HEAD answers with the headers and builds no body: the figure is not
+// drawn nor the symbol table written.
+func TestHeadBuildsNoBody(t *testing.T) {
+	var drawn, written atomic.Int64
+	cfg := testConfig(t)
+	cfg.PNG = func(w io.Writer, r grid.Result, opt render.Options) error { drawn.Add(1); return nil }
+	cfg.Figure = cfg.PNG
+	cfg.SymbolCSV = func(w io.Writer, r grid.Result) error { written.Add(1); return nil }
+	srv, _ := newTestServer(t, cfg)
+	q := campusQuery(t)
+	for path, ctype := range map[string]string{
+		"/figure.png?" + q:                 "image/png",
+		"/figure.svg?" + q + "&download=1": "image/svg+xml",
+		"/symbols.csv?" + q:                "text/csv; charset=utf-8",
+	} {
+		req, _ := http.NewRequest(http.MethodHead, srv.URL+path, nil)
+		r := do(t, req)
+		wantStatus(t, r, http.StatusOK)
+		if got := r.Header.Get("Content-Type"); got != ctype {
+			t.Errorf("HEAD %.20s…: Content-Type %q, want %q", path, got, ctype)
+		}
+	}
+	if drawn.Load() != 0 || written.Load() != 0 {
+		t.Errorf("HEAD drew %d figures and wrote %d symbol tables; want none", drawn.Load(), written.Load())
+	}
+	// A HEAD leaves nothing in the cache: the GET after it draws.
+	wantStatus(t, get(t, srv, "/figure.png?"+q), http.StatusOK)
+	if drawn.Load() != 1 {
+		t.Errorf("GET after HEAD drew %d figures, want 1", drawn.Load())
+	}
+}
+
+// PNG figures are kept like SVG figures, each under its own route: the
+// second request of a query is not drawn again, and the SVG of the same
+// query is not answered with the PNG.
+func TestPNGFiguresAreCached(t *testing.T) {
+	var pngs atomic.Int64
+	cfg := testConfig(t)
+	cfg.PNG = func(w io.Writer, r grid.Result, opt render.Options) error {
+		pngs.Add(1)
+		_, err := w.Write([]byte("\x89PNG\r\n\x1a\nstand-in"))
+		return err
+	}
+	srv, _ := newTestServer(t, cfg)
+	q := campusQuery(t)
+	a, b := get(t, srv, "/figure.png?"+q), get(t, srv, "/figure.png?"+q)
+	if pngs.Load() != 1 || a.body != b.body || b.Header.Get("Content-Type") != "image/png" {
+		t.Errorf("two requests drew %d PNGs (want 1); second Content-Type %q", pngs.Load(), b.Header.Get("Content-Type"))
+	}
+	svg := get(t, srv, "/figure.svg?"+q)
+	if svg.Header.Get("Content-Type") != "image/svg+xml" || !strings.Contains(svg.body, "<svg") {
+		t.Errorf("the SVG of a query whose PNG is cached: %q, %.40q", svg.Header.Get("Content-Type"), svg.body)
+	}
+}
+
+// Only the names of the app are answered: the listen address's host,
+// localhost, IP addresses and the operator's names. A rebound name gets
+// 421 with the security headers and a sentence naming the flag.
+func TestHostCheck(t *testing.T) {
+	cfg := testConfig(t)
+	cfg.AllowHosts = []string{"planner.lan"}
+	cfg.Addr = "gridbox:8080"
+	h := NewServer(slog.New(slog.DiscardHandler), cfg)
+	q := campusQuery(t)
+	for host, want := range map[string]int{
+		"127.0.0.1:8080": 200, "localhost:8080": 200, "LOCALHOST": 200, "[::1]:8080": 200, "app.localhost": 200,
+		"192.168.1.20": 200, "planner.lan": 200, "Planner.LAN.:80": 200, "gridbox:8080": 200,
+		"evil.example": 421, "evil.example:8080": 421, "localhost.evil.example": 421, "127.0.0.1.nip.io": 421, "planner.lan.evil": 421,
+	} {
+		for _, path := range []string{"/?" + q, "/api/v1/render"} {
+			method := http.MethodGet
+			if strings.HasPrefix(path, "/api") {
+				method = http.MethodPost
+			}
+			req := httptest.NewRequest(method, path, strings.NewReader(`{}`))
+			req.Header.Set("Content-Type", "application/json")
+			req.Host = host
+			w := httptest.NewRecorder()
+			h.ServeHTTP(w, req)
+			got := w.Code
+			if got != 421 {
+				got = 200 // any answer of the app itself
+			}
+			if got != want {
+				t.Errorf("%s %s with Host %q: %d, want %d", method, path[:5], host, w.Code, want)
+			}
+			if w.Code == 421 {
+				wantContains(t, "421", w.Body.String(), "does not answer to the host name", "-allow-host")
+				if w.Header().Get("Content-Security-Policy") == "" || w.Header().Get("Cross-Origin-Resource-Policy") != "same-origin" {
+					t.Errorf("the 421 lacks the security headers: %v", w.Header())
+				}
+			}
+		}
+	}
+}
+
+// A POST from another site's page is refused, by Sec-Fetch-Site or, when a
+// browser sends no such header, by Origin; the app's own pages and programs
+// that are not browsers pass.
+func TestCrossSitePostsRefused(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	body, _ := planfile.EncodeJSON(testConfig(t).Plan)
+	upload, ctype := multipartBody(t, "plan", "campus.json", body)
+	for _, c := range []struct {
+		name, site, origin string
+		want               int
+	}{
+		{"cross-site", "cross-site", "https://evil.example", http.StatusForbidden},
+		{"same-site", "same-site", "http://sub." + strings.TrimPrefix(srv.URL, "http://"), http.StatusForbidden},
+		{"origin only", "", "https://evil.example", http.StatusForbidden},
+		{"same-origin", "same-origin", srv.URL, 0},
+		{"no browser", "", "", 0},
+	} {
+		for _, p := range []struct {
+			path, ctype string
+			body        []byte
+		}{
+			{"/api/v1/render", "application/json", body},
+			{"/api/v1/figure", "application/json", body},
+			{"/open", ctype, upload},
+		} {
+			req, _ := http.NewRequest(http.MethodPost, srv.URL+p.path, bytes.NewReader(p.body))
+			req.Header.Set("Content-Type", p.ctype)
+			if c.site != "" {
+				req.Header.Set("Sec-Fetch-Site", c.site)
+			}
+			if c.origin != "" {
+				req.Header.Set("Origin", c.origin)
+			}
+			r := do(t, req)
+			if c.want == http.StatusForbidden {
+				wantStatus(t, r, http.StatusForbidden)
+				wantContains(t, c.name+" "+p.path, r.body, "came from another site's page")
+			} else if r.StatusCode >= 400 {
+				t.Errorf("%s POST %s: %d; want it answered", c.name, p.path, r.StatusCode)
+			}
+		}
+	}
+}
+
+// The API takes plans as JSON or YAML only: the "simple" types a foreign
+// page may post without asking get 415 and a sentence naming the types.
+func TestAPIRequiresPlanType(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	body, _ := planfile.EncodeJSON(testConfig(t).Plan)
+	yamlBody, _ := planfile.EncodeYAML(testConfig(t).Plan)
+	for _, path := range []string{"/api/v1/render", "/api/v1/figure"} {
+		for _, ct := range []string{"", "text/plain", "text/plain; charset=utf-8", "application/x-www-form-urlencoded", "multipart/form-data; boundary=x"} {
+			r := post(t, srv, path, ct, body)
+			wantStatus(t, r, http.StatusUnsupportedMediaType)
+			wantContains(t, path+" "+ct, r.body, `"error"`, "application/json or application/yaml")
+		}
+		wantStatus(t, post(t, srv, path, "application/json; charset=utf-8", body), http.StatusOK)
+		wantStatus(t, post(t, srv, path, "application/yaml", yamlBody), http.StatusOK)
+		wantStatus(t, post(t, srv, path, "text/yaml", yamlBody), http.StatusOK)
+	}
+}
+
+// An unknown method on an unknown path is a 404 of the path, not a 405
+// that offers "use ." with an empty Allow.
+func TestUnknownMethodOnUnknownPath(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	for _, c := range []struct {
+		method, path string
+		want         int
+		allow        string
+	}{
+		{"FOO", "/nowhere", http.StatusNotFound, ""},
+		{"FOO", "/api/v1/nowhere", http.StatusNotFound, ""},
+		{"PROPFIND", "/x/y", http.StatusNotFound, ""},
+		{"FOO", "/", http.StatusMethodNotAllowed, "GET, HEAD"},
+		{"DELETE", "/api/v1/render", http.StatusMethodNotAllowed, "POST"},
+	} {
+		req, _ := http.NewRequest(c.method, srv.URL+c.path, nil)
+		r := do(t, req)
+		wantStatus(t, r, c.want)
+		if r.Header.Get("Allow") != c.allow {
+			t.Errorf("%s %s: Allow %q, want %q", c.method, c.path, r.Header.Get("Allow"), c.allow)
+		}
+		if strings.Contains(r.body, "use .") {
+			t.Errorf("%s %s: %q", c.method, c.path, r.body)
+		}
+	}
+}
+
+// An upload whose link would be over the query limit (64 partitions; a
+// name of 800 KB) opens as a page at once, with the reason, instead of
+// redirecting to a link that answers 414 or 431.
+func TestUploadOverLinkLimitOpensAsPage(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	var parts []string
+	for i := range 64 {
+		// 64 names of 62 four-byte characters and a number: 12 bytes of
+		// link a character, about 48 KB of names.
+		parts = append(parts, fmt.Sprintf(`{"name": "%s%02d", "scsKHz": 30, "sizePrb": 4}`, strings.Repeat("𝕏", 62), i))
+	}
+	many := []byte(`{"name": "sixty-four", "carrier": {"bandwidthMHz": 100}, "partitions": [` + strings.Join(parts, ",") + `]}`)
+	longName := []byte(`{"name": "` + strings.Repeat("n", 800<<10) + `", "carrier": {"bandwidthMHz": 20}, "partitions": [{"name": "a", "scsKHz": 30, "sizePrb": 51}]}`)
+	for name, plan := range map[string][]byte{"many.json": many, "long-name.json": longName} {
+		body, ctype := multipartBody(t, "plan", name, plan)
+		r := post(t, srv, "/open", ctype, body)
+		if loc := r.Header.Get("Location"); loc != "" || r.StatusCode == http.StatusSeeOther {
+			t.Errorf("%s: %d with a Location of %d bytes; want the page itself", name, r.StatusCode, len(loc))
+			continue
+		}
+		wantStatus(t, r, http.StatusUnprocessableEntity)
+		wantContains(t, name, r.body, name+" is shown here without a link", "gridloom reads at most 32768")
+		if !strings.Contains(r.body, `data-testid="figure`) && !strings.Contains(r.body, "<form") {
+			t.Errorf("%s: the answer is not the page", name)
+		}
+	}
+	// Within the limits, the upload still redirects to its link.
+	ok, _ := planfile.EncodeJSON(testConfig(t).Plan)
+	body, ctype := multipartBody(t, "plan", "campus.json", ok)
+	wantStatus(t, post(t, srv, "/open", ctype, body), http.StatusSeeOther)
+}
+
+// A client that leaves while its export is gathered is no server error:
+// nothing is sent and the access log says 499, not 500.
+func TestExportClientGoneIsNo500(t *testing.T) {
+	logs := &logBuffer{}
+	ctx, cancel := context.WithCancel(context.Background())
+	cfg := testConfig(t)
+	cfg.SymbolCSV = func(w io.Writer, r grid.Result) error {
+		_, _ = w.Write([]byte("a,b\n"))
+		cancel()
+		_, err := w.Write([]byte("c,d\n"))
+		return err
+	}
+	h := NewServer(slog.New(slog.NewTextHandler(logs, nil)), cfg)
+	w := httptest.NewRecorder()
+	h.ServeHTTP(w, httptest.NewRequest(http.MethodGet, "/symbols.csv?"+campusQuery(t), nil).WithContext(ctx))
+	if w.Body.Len() > 0 || strings.Contains(logs.String(), "level=ERROR") || !strings.Contains(logs.String(), "status=499") {
+		t.Errorf("%d bytes sent; log:\n%s\nwant nothing sent, no error and status 499", w.Body.Len(), logs)
+	}
+}
+
+// The answers net/http writes itself (a malformed request, headers over
+// the limit) carry the security headers through SecureListener; the app's
+// own answers pass through it unchanged.
+func TestServerWrittenAnswersCarryHeaders(t *testing.T) {
+	ln, err := net.Listen("tcp", "127.0.0.1:0")
+	if err != nil {
+		t.Fatal(err)
+	}
+	srv := &http.Server{Handler: NewServer(slog.New(slog.DiscardHandler), testConfig(t)), MaxHeaderBytes: 4 << 10}
+	go func() { _ = srv.Serve(SecureListener(ln)) }()
+	t.Cleanup(func() { _ = srv.Close() })
+	raw := func(req string) string {
+		c, err := net.Dial("tcp", ln.Addr().String())
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer c.Close()
+		_ = c.SetDeadline(time.Now().Add(5 * time.Second))
+		_, _ = io.WriteString(c, req)
+		b, _ := io.ReadAll(c)
+		return string(b)
+	}
+	for name, c := range map[string]struct{ req, status string }{
+		"431":          {"GET / HTTP/1.1\r\nHost: localhost\r\nX-Big: " + strings.Repeat("a", 16<<10) + "\r\n\r\n", "HTTP/1.1 431 "},
+		"bad line":     {"GET\r\n\r\n", "HTTP/1.1 400 "},
+		"no host":      {"GET / HTTP/1.1\r\n\r\n", "HTTP/1.1 400 Bad Request: missing required Host header"},
+		"app's answer": {"GET /static/app.css HTTP/1.1\r\nHost: localhost\r\nConnection: close\r\n\r\n", "HTTP/1.1 200 OK"},
+	} {
+		got := raw(c.req)
+		head, body, _ := strings.Cut(got, "\r\n\r\n")
+		if !strings.HasPrefix(head, c.status) {
+			t.Errorf("%s: answer %.80q, want status %q", name, got, c.status)
+			continue
+		}
+		for _, kv := range securityHeaderList {
+			if strings.Count(head, "\r\n"+kv[0]+": "+kv[1]) != 1 {
+				t.Errorf("%s: header %s not once in\n%s", name, kv[0], head)
+			}
+		}
+		if name != "app's answer" && !strings.HasPrefix(body, strings.Fields(c.status)[1]) {
+			t.Errorf("%s: body %q lost its text", name, body)
+		}
 	}
 }

@@ -117,7 +117,7 @@ func loadMix(t *testing.T, cfg Config) []loadRequest {
 		if err != nil {
 			t.Fatal(err)
 		}
-		postReq("/api/v1/render", "", data, c.apiStatus)
+		postReq("/api/v1/render", planType(c.file), data, c.apiStatus)
 	}
 	return mix
 }
@@ -142,6 +142,10 @@ func TestLoad(t *testing.T) {
 		maxHeapGrowth = 8 << 20
 	)
 	cfg := testConfig(t)
+	// The heavy routes queue rather than refuse here, so that every
+	// request gets the answer its kind should (the 503 of a full queue
+	// has its own test, TestHeavyWorkIsAdmitted).
+	cfg.HeavyWait = time.Minute
 	logs := &logBuffer{}
 	srv := httptest.NewServer(NewServer(slog.New(slog.NewTextHandler(logs, nil)), cfg))
 	defer srv.Close()

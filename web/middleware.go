@@ -4,7 +4,9 @@ import (
 	"cmp"
 	"fmt"
 	"log/slog"
+	"net"
 	"net/http"
+	"net/netip"
 	"runtime/debug"
 	"strings"
 	"time"
@@ -12,14 +14,26 @@ import (
 	"github.com/go-chi/chi/v5/middleware"
 )
 
+// securityHeaderList is what every answer carries, those of the app and
+// those net/http writes itself (see SecureListener). Another site's page
+// may not embed the app's answers (a figure, a download) as images or
+// scripts, by Cross-Origin-Resource-Policy: it would read a plan through
+// them.
+var securityHeaderList = [][2]string{
+	{"Content-Security-Policy", basePolicy},
+	{"X-Content-Type-Options", "nosniff"},
+	{"Referrer-Policy", "no-referrer"},
+	{"X-Frame-Options", "DENY"},
+	{"Cross-Origin-Opener-Policy", "same-origin"},
+	{"Cross-Origin-Resource-Policy", "same-origin"},
+}
+
 func securityHeaders(next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		h := w.Header()
-		h.Set("Content-Security-Policy", basePolicy)
-		h.Set("X-Content-Type-Options", "nosniff")
-		h.Set("Referrer-Policy", "no-referrer")
-		h.Set("X-Frame-Options", "DENY")
-		h.Set("Cross-Origin-Opener-Policy", "same-origin")
+		for _, kv := range securityHeaderList {
+			h.Set(kv[0], kv[1])
+		}
 		next.ServeHTTP(w, r)
 	})
 }
@@ -118,6 +132,71 @@ func (s *server) recoverPanics(style errorStyle) func(http.Handler) http.Handler
 					slog.Any("value", v), slog.String("stack", string(debug.Stack())))
 				s.answer(w, r, style, &problem{status: http.StatusInternalServerError, text: "Internal error; the log has the details."})
 			}()
+			next.ServeHTTP(w, r)
+		})
+	}
+}
+
+// checkHost answers only requests whose Host names the app: the host of
+// addr, localhost and names under .localhost (RFC 6761), any IP address,
+// and the names in allow. A name a foreign site controls is refused with
+// 421 (Misdirected Request): after DNS rebinding, that site's pages are
+// same-origin with the app and could otherwise read and drive it. An IP
+// address is safe to answer, since a page can only be same-origin with it
+// by being served from it.
+func (s *server) checkHost(addr string, allow []string) func(http.Handler) http.Handler {
+	names := map[string]bool{}
+	if host, _, err := net.SplitHostPort(addr); err == nil && host != "" {
+		names[hostName(host)] = true
+	}
+	for _, a := range allow {
+		names[hostName(a)] = true
+	}
+	return func(next http.Handler) http.Handler {
+		return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+			host := r.Host
+			if h, _, err := net.SplitHostPort(host); err == nil {
+				host = h
+			}
+			host = hostName(host)
+			_, ipErr := netip.ParseAddr(host)
+			if host == "" || ipErr == nil || host == "localhost" || strings.HasSuffix(host, ".localhost") || names[host] {
+				next.ServeHTTP(w, r)
+				return
+			}
+			s.answer(w, r, pageErrors, &problem{status: http.StatusMisdirectedRequest,
+				text: fmt.Sprintf("gridloom does not answer to the host name %q; it answers to localhost, IP addresses and the names given to gridloom serve -allow-host.", truncate(host, 100))})
+		})
+	}
+}
+
+// hostName is a host as compared: lower case, without brackets or a
+// final dot.
+func hostName(h string) string {
+	return strings.TrimSuffix(strings.ToLower(strings.Trim(h, "[]")), ".")
+}
+
+func truncate(s string, n int) string {
+	if len(s) <= n {
+		return s
+	}
+	return s[:n] + "…"
+}
+
+// sameOrigin refuses a request that changes or computes something (a POST)
+// when a browser says it comes from another site, by Sec-Fetch-Site or,
+// in older browsers, Origin: without it any web page could post a plan
+// to the app (a form or a text/plain fetch needs no permission). Requests
+// without those headers (curl, scripts) pass; so do GET and HEAD.
+func (s *server) sameOrigin(style errorStyle) func(http.Handler) http.Handler {
+	check := http.NewCrossOriginProtection()
+	return func(next http.Handler) http.Handler {
+		return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+			if err := check.Check(r); err != nil {
+				s.answer(w, r, style, &problem{status: http.StatusForbidden,
+					text: fmt.Sprintf("%s %s came from another site's page; gridloom takes plans only from its own pages and from programs that are not browsers.", r.Method, r.URL.Path)})
+				return
+			}
 			next.ServeHTTP(w, r)
 		})
 	}

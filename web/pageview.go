@@ -24,14 +24,17 @@ const partMark = "<!--gl-part-->"
 
 // pageView is everything the page and its live fragment show.
 type pageView struct {
-	Title   string // the document title
-	Query   string // the canonical query of the form as shown
-	Focus   string // id of the control to focus after an edit, or ""
-	Status  int    // the HTTP status of the page of this plan: 200 or 422
-	Form    formView
-	Results resultsView
-	Upload  uploadView
-	Demos   []demoLink
+	Title  string // the document title
+	Query  string // the canonical query of the form as shown
+	Focus  string // id of the control to focus after an edit, or ""
+	Status int    // the HTTP status of the page of this plan: 200 or 422
+	// Unparsed is set while a value does not parse: the plan drawn lacks
+	// it, so the page script keeps the last figure it showed (issue 19).
+	Unparsed bool
+	Form     formView
+	Results  resultsView
+	Upload   uploadView
+	Demos    []demoLink
 }
 
 type demoLink struct{ Href, Label string }
@@ -47,10 +50,11 @@ func buildPage(s planform.State, fig drawn, demos []demoLink) pageView {
 	q := s.Query()
 	notes := notesOf(s)
 	v := pageView{
-		Title:  pageTitle(s.Form.Name),
-		Query:  q,
-		Status: statusOf(s.Invalid()),
-		Demos:  demos,
+		Title:    pageTitle(s.Form.Name),
+		Query:    q,
+		Status:   statusOf(s.Invalid()),
+		Unparsed: len(s.InputErr) > 0,
+		Demos:    demos,
 		Upload: uploadView{
 			From:  q,
 			Notes: notes[planform.IDFile],
@@ -106,7 +110,7 @@ func notesOf(s planform.State) map[string][]note {
 			continue
 		}
 		id := planform.ControlID(f.Field)
-		out[id] = append(out[id], note{Severity: string(f.Severity), Text: f.Message})
+		out[id] = append(out[id], note{Severity: string(f.Severity), Text: planform.NamePaths(f.Message, s.Plan.Partitions)})
 	}
 	return out
 }

@@ -87,11 +87,35 @@ func (s *server) open(w http.ResponseWriter, r *http.Request) error {
 		for _, m := range reasons {
 			v.Upload.Notes = append(v.Upload.Notes, note{Severity: string(grid.Error), Text: m})
 		}
+		v.Focus = "f-file" // the page script brings the reason into view
 		return writeHTML(w, r, status, page(v), styles)
 	}
-	fig := planform.ParseFigureForm(r.URL.Query()).Query()
-	http.Redirect(w, r, "/?"+planform.JoinQuery(planform.FormOf(plan).Query(), fig), http.StatusSeeOther)
-	return nil
+	ff := planform.ParseFigureForm(r.URL.Query())
+	query := planform.JoinQuery(planform.FormOf(plan).Query(), ff.Query())
+	if len(query) <= MaxQuery {
+		http.Redirect(w, r, "/?"+query, http.StatusSeeOther)
+		return nil
+	}
+	// A plan whose link the app would refuse (64 partitions, a name of
+	// megabytes) is shown here, at once, rather than sent to a link that
+	// answers 414 or a Location header over the server's limit.
+	st := planform.NewState(planform.FormOf(plan), nil).WithFigure(ff)
+	v, styles := s.pageOf(r, st)
+	v.Upload.Notes = append(v.Upload.Notes, note{Severity: string(grid.Error), Text: fmt.Sprintf(
+		"%s is shown here without a link: its link would be %d bytes long and gridloom reads at most %d (32 KiB), so editing it on this page, downloading it and reloading need a smaller plan. Fix what the findings name in the file and open it again.",
+		uploadName(r), len(query), MaxQuery)})
+	return writeHTML(w, r, v.Status, page(v), styles)
+}
+
+// uploadName is the file name of an upload read by readUpload, for the
+// notes about it.
+func uploadName(r *http.Request) string {
+	if r.MultipartForm != nil {
+		if fs := r.MultipartForm.File["plan"]; len(fs) > 0 && fs[0].Filename != "" {
+			return truncate(fs[0].Filename, 100)
+		}
+	}
+	return "The plan"
 }
 
 // readUpload reads the plan of an upload, or the status and the sentences

@@ -1,9 +1,12 @@
 package web
 
 import (
-	"fmt"
-
+	"bufio"
 	"bytes"
+	"context"
+	"fmt"
+	"io"
+
 	"encoding/json"
 	"github.com/a-h/templ"
 	"github.com/klauspost/compress/gzip"
@@ -233,4 +236,132 @@ func putBuffer(b *bytes.Buffer) {
 	if b.Cap() <= 256<<10 {
 		buffers.put(b)
 	}
+}
+
+// streamAfter is how much of a streamed answer is gathered before any of
+// it is sent: an answer that ends within it leaves through send, whole and
+// with its length, so small exports are answered as before and a failure
+// within it is still a clean error answer.
+const streamAfter = 64 << 10
+
+// stream answers with what write writes, for answers too large to hold
+// (the symbol table and the lattice document of a large plan reach tens of
+// megabytes). Past streamAfter it sends the status and headers and writes
+// on through a 32 KiB buffer and, when the client takes it, a compressor,
+// so memory stays bounded whatever the size; a write fails once the client
+// has gone, which stops write. A HEAD request gets the headers and write
+// is not called. An error returned before anything was sent is the
+// caller's to answer; after that the connection is ended, since a body
+// half sent cannot turn into an error answer.
+func stream(w http.ResponseWriter, r *http.Request, status int, ctype string, write func(io.Writer) error) error {
+	if r.Method == http.MethodHead {
+		h := w.Header()
+		h.Set("Content-Type", ctype)
+		if isCompressible(ctype) {
+			h.Add("Vary", "Accept-Encoding")
+		}
+		w.WriteHeader(status)
+		return nil
+	}
+	sw := &streamWriter{w: w, r: r, status: status, ctype: ctype, first: getBuffer()}
+	defer sw.release()
+	err := write(sw)
+	if err == nil {
+		err = sw.finish()
+	}
+	if err == nil {
+		return nil
+	}
+	if r.Context().Err() != nil {
+		return nil // the client left: no one to answer; the access log says 499
+	}
+	if sw.out == nil {
+		return err
+	}
+	panic(http.ErrAbortHandler)
+}
+
+// streamWriter gathers the first streamAfter bytes of an answer and then
+// streams; see stream.
+type streamWriter struct {
+	w      http.ResponseWriter
+	r      *http.Request
+	status int
+	ctype  string
+	first  *bytes.Buffer // until streaming starts
+	out    *bufio.Writer // once streaming
+	zw     *gzip.Writer  // when compressing
+}
+
+func (s *streamWriter) Write(p []byte) (int, error) {
+	if err := s.r.Context().Err(); err != nil {
+		return 0, err
+	}
+	if s.out == nil {
+		if s.first.Len()+len(p) <= streamAfter {
+			return s.first.Write(p)
+		}
+		if err := s.start(); err != nil {
+			return 0, err
+		}
+	}
+	return s.out.Write(p)
+}
+
+// start sends the headers and what was gathered.
+func (s *streamWriter) start() error {
+	h := s.w.Header()
+	h.Set("Content-Type", s.ctype)
+	var to io.Writer = ctxWriter{s.r.Context(), s.w}
+	if isCompressible(s.ctype) {
+		h.Add("Vary", "Accept-Encoding")
+		if acceptsGzip(s.r) {
+			h.Set("Content-Encoding", "gzip")
+			s.zw = gzipWriters.get()
+			s.zw.Reset(to)
+			to = s.zw
+		}
+	}
+	s.w.WriteHeader(s.status)
+	s.out = bufio.NewWriterSize(to, 32<<10)
+	_, err := s.out.Write(s.first.Bytes())
+	return err
+}
+
+// finish sends an answer that fitted in the first bytes, or the rest of a
+// streamed one.
+func (s *streamWriter) finish() error {
+	if s.out == nil {
+		send(s.w, s.r, s.status, s.ctype, s.first.Bytes())
+		return nil
+	}
+	if err := s.out.Flush(); err != nil {
+		return err
+	}
+	if s.zw != nil {
+		return s.zw.Close()
+	}
+	return nil
+}
+
+func (s *streamWriter) release() {
+	putBuffer(s.first)
+	if s.zw != nil {
+		s.zw.Reset(io.Discard)
+		gzipWriters.put(s.zw)
+	}
+}
+
+// ctxWriter fails every write once ctx is done, so that work written to a
+// client that has gone stops at its next write.
+type ctxWriter struct {
+	ctx context.Context
+	w   io.Writer
+}
+
+func (c ctxWriter) Write(p []byte) (int, error) {
+	if err := c.ctx.Err(); err != nil {
+		return 0, err
+	}
+	return c.w.Write(p)
 }

@@ -148,8 +148,8 @@ func findingsOf(s planform.State) (out []findingView, errors, warnings, infos in
 		default:
 			infos++
 		}
-		out = append(out, findingView{Severity: string(f.Severity), Code: f.Code, Text: f.Message,
-			Partition: f.Partition, Control: planform.ControlID(f.Field), ControlLabel: fieldLabel(f.Field)})
+		out = append(out, findingView{Severity: string(f.Severity), Code: f.Code, Text: planform.NamePaths(f.Message, s.Plan.Partitions),
+			Partition: f.Partition, Control: planform.ControlID(f.Field), ControlLabel: findingLabel(f.Field, s.Plan.Partitions)})
 	}
 	for _, k := range planform.FigKeys {
 		if m, ok := s.Fig.Msgs[k]; ok {
@@ -425,7 +425,7 @@ func fieldLabel(field string) string {
 	if s, ok := strings.CutPrefix(field, "partitions["); ok {
 		num, rest, _ := strings.Cut(s, "]")
 		i, _ := strconv.Atoi(num)
-		return fmt.Sprintf("partition %d %s", i+1, strings.TrimPrefix(rest, "."))
+		return strings.TrimSpace(fmt.Sprintf("partition %d %s", i+1, strings.TrimPrefix(rest, ".")))
 	}
 	return strings.TrimPrefix(field, "carrier.")
 }
@@ -498,4 +498,12 @@ func criterionLabel(name string) string {
 
 func sortedKeys[V any](m map[string]V) []string {
 	return slices.Sorted(maps.Keys(m))
+}
+
+// findingLabel names the control of a finding's field for its "Go to" link.
+func findingLabel(field string, parts []grid.PartitionPlan) string {
+	if strings.HasPrefix(field, "partitions[") {
+		return planform.NamePaths(field, parts)
+	}
+	return fieldLabel(field)
 }

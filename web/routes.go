@@ -1,10 +1,12 @@
 package web
 
 import (
+	"cmp"
 	"log/slog"
+	"net/http"
+	"runtime"
 
 	"gridloom/render"
-	"net/http"
 
 	"github.com/go-chi/chi/v5"
 	"github.com/go-chi/chi/v5/middleware"
@@ -22,7 +24,8 @@ func NewServer(logger *slog.Logger, cfg Config) http.Handler {
 	if cfg.SymbolCSV == nil {
 		cfg.SymbolCSV = render.SymbolCSV
 	}
-	s := &server{logger: logger, cfg: cfg, figures: newResponseCache(maxCachedFigures, maxCachedBytes), assets: newAssets()}
+	s := &server{logger: logger, cfg: cfg, figures: newResponseCache(maxCachedFigures, maxCachedBytes), assets: newAssets(),
+		heavy: newAdmission(cmp.Or(cfg.HeavySlots, runtime.GOMAXPROCS(0)), cmp.Or(cfg.HeavyWait, defaultHeavyWait))}
 	r := chi.NewRouter()
 	s.routes(r)
 	return r
@@ -36,35 +39,38 @@ func (s *server) routes(r *chi.Mux) {
 	r.Use(middleware.RequestID)
 	r.Use(accessLog(s.logger))
 	r.Use(securityHeaders)
+	r.Use(s.checkHost(s.cfg.Addr, s.cfg.AllowHosts))
 	r.Use(middleware.GetHead)
 
 	r.Route("/api", func(r chi.Router) {
-		r.Use(s.recoverPanics(apiErrors), s.limitQuery(apiErrors), s.limitBody(apiErrors))
+		r.Use(s.recoverPanics(apiErrors), s.sameOrigin(apiErrors), s.limitQuery(apiErrors), s.limitBody(apiErrors))
 		r.NotFound(s.notFound(apiErrors))
 		r.MethodNotAllowed(s.methodNotAllowed(apiErrors, r))
-		api := func(h handlerFunc) http.HandlerFunc { return s.serve(apiErrors, h) }
-		r.Post("/v1/render", api(s.apiRender)) // plan JSON in, the lattice document out
-		r.Post("/v1/figure", api(s.apiFigure)) // plan JSON in, the figure out
+		api := func(h handlerFunc) http.HandlerFunc { return s.serve(apiErrors, s.heavy.heavy(h)) }
+		r.Post("/v1/render", api(s.apiRender)) // plan JSON or YAML in, the lattice document out, streamed
+		r.Post("/v1/figure", api(s.apiFigure)) // plan JSON or YAML in, the figure out
 	})
 
 	r.Group(func(r chi.Router) {
-		r.Use(s.recoverPanics(pageErrors), s.limitQuery(pageErrors), s.limitBody(pageErrors))
+		r.Use(s.recoverPanics(pageErrors), s.sameOrigin(pageErrors), s.limitQuery(pageErrors), s.limitBody(pageErrors))
 		page := func(h handlerFunc) http.HandlerFunc { return s.serve(pageErrors, h) }
-		r.Get("/", page(s.planner))                                          // the planner; an empty query opens the startup plan
-		r.Get("/fragment", page(s.plannerFragment))                          // the planner's workspace alone, for live updates
-		r.Get("/demo/{name}", page(s.demo))                                  // redirect to a demo plan
-		r.Get("/figure.svg", cached(s.figures, page(s.figureSVG)).ServeHTTP) // the figure, with the plan in its metadata; download=1 sends it as a file
-		r.Get("/figure.png", page(s.figurePNG))                              // the figure as a PNG image; download=1 sends it as a file
-		r.Get("/walk", page(s.walk))                                         // the plan step by step for a team: step=, view=projector or print
-		r.Get("/compare", page(s.compare))                                   // two plans side by side on shared scales, a. and b. keys
-		r.Get("/compare/fragment", page(s.compareFragment))                  // the comparison's workspace alone, for live updates
-		r.Get("/compare/figure.svg", page(s.compareFigure("svg")))           // one side's figure on the shared scales: side=a or b
-		r.Get("/compare/figure.png", page(s.compareFigure("png")))           // the same as a PNG image
-		r.Get("/plan.json", page(s.planFile("json")))                        // the plan as a JSON plan file
-		r.Get("/plan.yaml", page(s.planFile("yaml")))                        // the plan as a YAML plan file
-		r.Get("/symbols.csv", page(s.symbols))                               // one row per OFDM symbol of every partition
-		r.Post("/open", page(s.open))                                        // upload a plan file and redirect to its page
-		r.Get("/static/*", page(s.assets.serve))                             // embedded script, stylesheet and icon
+		heavy := func(h handlerFunc) http.HandlerFunc { return page(s.heavy.heavy(h)) }
+		printed := func(r *http.Request) bool { return r.URL.Query().Get("view") == "print" }
+		r.Get("/", page(s.planner))                                           // the planner; an empty query opens the startup plan
+		r.Get("/fragment", page(s.plannerFragment))                           // the planner's workspace alone, for live updates
+		r.Get("/demo/{name}", page(s.demo))                                   // redirect to a demo plan
+		r.Get("/figure.svg", cached(s.figures, page(s.figureSVG)).ServeHTTP)  // the figure, with the plan in its metadata; download=1 sends it as a file
+		r.Get("/figure.png", cached(s.figures, heavy(s.figurePNG)).ServeHTTP) // the figure as a PNG image; download=1 sends it as a file
+		r.Get("/walk", page(s.heavy.heavyWhen(printed, s.walk)))              // the plan step by step for a team: step=, view=projector or print
+		r.Get("/compare", heavy(s.compare))                                   // two plans side by side on shared scales, a. and b. keys
+		r.Get("/compare/fragment", heavy(s.compareFragment))                  // the comparison's workspace alone, for live updates
+		r.Get("/compare/figure.svg", heavy(s.compareFigure("svg")))           // one side's figure on the shared scales: side=a or b
+		r.Get("/compare/figure.png", heavy(s.compareFigure("png")))           // the same as a PNG image
+		r.Get("/plan.json", page(s.planFile("json")))                         // the plan as a JSON plan file
+		r.Get("/plan.yaml", page(s.planFile("yaml")))                         // the plan as a YAML plan file
+		r.Get("/symbols.csv", heavy(s.symbols))                               // one row per OFDM symbol of every partition, streamed
+		r.Post("/open", page(s.open))                                         // upload a plan file and redirect to its page, or show it when its link would be over MaxQuery
+		r.Get("/static/*", page(s.assets.serve))                              // embedded script, stylesheet and icon
 	})
 	r.NotFound(s.notFound(pageErrors))
 	r.MethodNotAllowed(s.methodNotAllowed(pageErrors, r))

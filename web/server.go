@@ -18,12 +18,17 @@
 // response carries a Content Security Policy that allows only the app's own
 // script and stylesheet. Names reach the page, the figure and the downloads
 // only as escaped text. The app has no login: it is meant for the loopback
-// interface.
+// interface, so it answers only its own host names (Config.AllowHosts; a
+// rebound DNS name is refused), refuses POSTs that a browser marks as
+// cross-site, and takes API bodies only as JSON or YAML. Heavy answers run
+// a bounded number at a time (admission), and large exports are streamed,
+// so memory stays bounded whatever the number of clients.
 package web
 
 import (
 	"io"
 	"log/slog"
+	"time"
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
@@ -42,6 +47,21 @@ type Config struct {
 	PNG FigureFunc
 	// SymbolCSV writes the symbol table; nil means render.SymbolCSV.
 	SymbolCSV func(w io.Writer, r grid.Result) error
+	// HeavySlots is how many heavy answers (PNG figures, symbol tables,
+	// the API, comparisons, printed walkthroughs) are worked on at once;
+	// 0 means runtime.GOMAXPROCS(0). See admission.
+	HeavySlots int
+	// HeavyWait is how long a heavy request waits for a slot before a 503;
+	// 0 means one second.
+	HeavyWait time.Duration
+	// Addr is the address the app listens on; its host name is one the
+	// app answers to (see AllowHosts).
+	Addr string
+	// AllowHosts are more host names the app answers to, besides Addr's,
+	// localhost (and names under .localhost) and IP addresses: the names
+	// an operator serves it under, such as a machine's name on a LAN.
+	// Any other Host header is refused, which defeats DNS rebinding.
+	AllowHosts []string
 }
 
 // Demo is a plan the page offers to open. Name is its short key in the
@@ -76,4 +96,5 @@ type server struct {
 	cfg     Config
 	figures *responseCache
 	assets  *assets
+	heavy   *admission
 }

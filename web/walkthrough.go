@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"gridloom/grid"
+	"gridloom/web/planform"
 )
 
 // WalkStep is one step of a walkthrough: a title, two or three sentences
@@ -266,7 +267,7 @@ func findingsStep(res grid.Result) WalkStep {
 		if f.Severity == grid.Info || shown == 2 {
 			continue
 		}
-		s.Narration = append(s.Narration, f.Message)
+		s.Narration = append(s.Narration, planform.NamePaths(f.Message, res.Plan.Partitions))
 		shown++
 		for i, l := range res.Partitions {
 			if l.Name == f.Partition {
@@ -277,7 +278,7 @@ func findingsStep(res grid.Result) WalkStep {
 	if counts[grid.Info] > 0 && shown < 2 {
 		for _, f := range res.Findings {
 			if f.Severity == grid.Info {
-				s.Narration = append(s.Narration, f.Message)
+				s.Narration = append(s.Narration, planform.NamePaths(f.Message, res.Plan.Partitions))
 				break
 			}
 		}

@@ -129,7 +129,7 @@ func TestSilentClientIsDropped(t *testing.T) {
 	}
 	defer conn.Close()
 	start := time.Now()
-	if _, err := io.WriteString(conn, "GET /static/app.css HTTP/1.1\r\nHost: x\r\nX-Slow: "); err != nil {
+	if _, err := io.WriteString(conn, "GET /static/app.css HTTP/1.1\r\nHost: localhost\r\nX-Slow: "); err != nil {
 		t.Fatal(err)
 	}
 	res, err := http.Get("http://" + addr + "/static/app.css")
@@ -155,7 +155,7 @@ func TestSlowBodyIsCut(t *testing.T) {
 		t.Fatal(err)
 	}
 	defer conn.Close()
-	if _, err := io.WriteString(conn, "POST /api/v1/render HTTP/1.1\r\nHost: x\r\nContent-Type: application/json\r\nContent-Length: 1000\r\n\r\n{\"name\": "); err != nil {
+	if _, err := io.WriteString(conn, "POST /api/v1/render HTTP/1.1\r\nHost: localhost\r\nContent-Type: application/json\r\nContent-Length: 1000\r\n\r\n{\"name\": "); err != nil {
 		t.Fatal(err)
 	}
 	_ = conn.SetReadDeadline(time.Now().Add(5 * time.Second))
@@ -179,7 +179,7 @@ func TestIdleConnectionIsClosed(t *testing.T) {
 		t.Fatal(err)
 	}
 	defer conn.Close()
-	if _, err := io.WriteString(conn, "GET /static/app.css HTTP/1.1\r\nHost: x\r\n\r\n"); err != nil {
+	if _, err := io.WriteString(conn, "GET /static/app.css HTTP/1.1\r\nHost: localhost\r\n\r\n"); err != nil {
 		t.Fatal(err)
 	}
 	br := bufio.NewReader(conn)

@@ -62,7 +62,7 @@ func newHTTPServer(h http.Handler, logger *slog.Logger, lim serverLimits) *http.
 // gracefully and returns nil. implicit says the user named no command, as
 // in "gridloom -h": the help then lists the commands too.
 func runServe(ctx context.Context, args []string, stdout, stderr io.Writer, implicit bool) error {
-	fs := newFlags("serve", "[-addr HOST:PORT] [-plan FILE]", stderr)
+	fs := newFlags("serve", "[-addr HOST:PORT] [-plan FILE] [-allow-host NAMES]", stderr)
 	if implicit {
 		fs.Usage = func() {
 			fmt.Fprint(stderr, usage)
@@ -72,6 +72,18 @@ func runServe(ctx context.Context, args []string, stdout, stderr io.Writer, impl
 	}
 	addr := fs.String("addr", "127.0.0.1:8080", "listen on `HOST:PORT`; the app has no login, so keep it on a loopback address")
 	planPath := fs.String("plan", "", "open with the plan in `FILE` (JSON or YAML) instead of the demo plan")
+	var allowHosts []string
+	fs.Func("allow-host", "also answer to the host `NAMES` (comma-separated, the flag repeatable) besides the -addr host, localhost and IP addresses; other names are refused against DNS rebinding",
+		func(v string) error {
+			for name := range strings.SplitSeq(v, ",") {
+				name = strings.TrimSpace(name)
+				if !validHostName(name) {
+					return fmt.Errorf("-allow-host takes host names separated by commas, such as planner.lan; %q is not one", name)
+				}
+				allowHosts = append(allowHosts, name)
+			}
+			return nil
+		})
 	if err := parseFlags(fs, args); err != nil {
 		return err
 	}
@@ -98,7 +110,7 @@ func runServe(ctx context.Context, args []string, stdout, stderr io.Writer, impl
 	if err != nil {
 		return &exitError{code: 1, msg: listenMessage(*addr, err)}
 	}
-	srv := newHTTPServer(web.NewServer(logger, web.Config{Plan: start, Demos: demos}), logger, defaultLimits)
+	srv := newHTTPServer(web.NewServer(logger, web.Config{Plan: start, Demos: demos, Addr: *addr, AllowHosts: allowHosts}), logger, defaultLimits)
 	if !isLoopback(ln.Addr()) {
 		logger.Warn("gridloom has no login: anyone who can reach this address can use the app; listen on 127.0.0.1 to keep it to this machine",
 			"addr", ln.Addr().String())
@@ -106,7 +118,7 @@ func runServe(ctx context.Context, args []string, stdout, stderr io.Writer, impl
 	fmt.Fprintf(stdout, "gridloom: serving %s\n", serveURL(ln.Addr(), *addr))
 
 	served := make(chan error, 1)
-	go func() { served <- srv.Serve(ln) }()
+	go func() { served <- srv.Serve(web.SecureListener(ln)) }()
 	select {
 	case err := <-served:
 		return &exitError{code: 1, msg: "the web server stopped: " + err.Error()}
@@ -119,6 +131,25 @@ func runServe(ctx context.Context, args []string, stdout, stderr io.Writer, impl
 		return &exitError{code: 1, msg: "the web server did not shut down cleanly: " + err.Error()}
 	}
 	return nil
+}
+
+// validHostName reports whether s is a DNS host name (letters, digits,
+// hyphens and dots, at most 253 bytes) that -allow-host can take.
+func validHostName(s string) bool {
+	if s == "" || len(s) > 253 {
+		return false
+	}
+	for _, label := range strings.Split(strings.TrimSuffix(s, "."), ".") {
+		if label == "" || len(label) > 63 || label[0] == '-' || label[len(label)-1] == '-' {
+			return false
+		}
+		for _, c := range label {
+			if !(c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z' || c >= '0' && c <= '9' || c == '-') {
+				return false
+			}
+		}
+	}
+	return true
 }
 
 // listenMessage explains a failure to listen in one line.

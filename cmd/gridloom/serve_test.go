@@ -169,10 +169,40 @@ func TestServeFlags(t *testing.T) {
 		{[]string{"serve", "-plan", "-"}, 2, "standard input"},
 		{[]string{"serve", "extra"}, 2, "no arguments"},
 		{[]string{"serve", "-addr", "256.1.1.1:0"}, 1, "cannot listen on 256.1.1.1:0"},
+		{[]string{"serve", "-allow-host", "planner.lan,evil/x"}, 2, `"evil/x" is not one`},
+		{[]string{"serve", "-allow-host", ""}, 2, "-allow-host takes host names"},
 	} {
 		_, stderr, code := runCLI(t, "", c.args...)
 		if code != c.code || !strings.Contains(stderr, c.want) {
 			t.Errorf("%v: exit %d, stderr %q; want %d and %q", c.args, code, stderr, c.code, c.want)
 		}
+	}
+}
+
+// The server answers its own names and the ones -allow-host adds, and
+// refuses another Host header with 421, which defeats DNS rebinding
+// (issue 13).
+func TestServeAllowHost(t *testing.T) {
+	base, _, cancel, done := startServe(t, "serve", "-addr", "127.0.0.1:0", "-allow-host", "planner.lan, gridbox.example", "-allow-host", "third.example")
+	for host, want := range map[string]int{
+		"": http.StatusOK, "localhost": http.StatusOK, "planner.lan": http.StatusOK, "GRIDBOX.example:8080": http.StatusOK,
+		"third.example": http.StatusOK, "rebound.example": http.StatusMisdirectedRequest,
+	} {
+		req, _ := http.NewRequest(http.MethodGet, base+"/static/app.css", nil)
+		if host != "" {
+			req.Host = host
+		}
+		res, err := http.DefaultClient.Do(req)
+		if err != nil {
+			t.Fatal(err)
+		}
+		res.Body.Close()
+		if res.StatusCode != want {
+			t.Errorf("Host %q: %d, want %d", host, res.StatusCode, want)
+		}
+	}
+	cancel()
+	if err := waitExit(t, done); err != nil {
+		t.Error(err)
 	}
 }

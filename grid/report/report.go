@@ -6,7 +6,10 @@
 package report
 
 import (
+	"bufio"
+	"bytes"
 	"encoding/json"
+	"errors"
 	"io"
 	"math"
 	"strconv"
@@ -293,10 +296,7 @@ func Build(r grid.Result, symbols bool) Document {
 		if symbols {
 			jp.Symbols = make([]Symbol, l.SymbolCount())
 			for k := range jp.Symbols {
-				jp.Symbols[k].Symbol = n.SymbolAt(k)
-				if l.Dirs != nil {
-					jp.Symbols[k].Direction = l.Dirs[k].String()
-				}
+				jp.Symbols[k] = symbolAt(l, k)
 			}
 		}
 		jp.Timing = partitionTiming(l.Timing, r.TDD != nil)
@@ -335,17 +335,91 @@ func Build(r grid.Result, symbols bool) Document {
 	return out
 }
 
+// symbolAt is the k-th symbol of partition l as the document lists it.
+func symbolAt(l grid.Lattice, k int) Symbol {
+	s := Symbol{Symbol: l.Numerology.SymbolAt(k)}
+	if l.Dirs != nil {
+		s.Direction = l.Dirs[k].String()
+	}
+	return s
+}
+
 // Write writes the document of r, symbols included, to w as JSON and a
 // newline; with indent each value stands on its own line, two spaces deep,
-// as the command line and the web API give it. Callers write through it
-// rather than marshal Build's value so that the document can later be
-// streamed without changing them.
+// as the command line and the web API give it. The bytes are those of
+// marshalling Build(r, true), but the symbol lists, which are nearly all of
+// a large document (143 360 symbols, 25 MB, for the largest plan), are
+// never held: the document is marshalled without them and each symbol is
+// encoded on its own into its place, through a buffer, so Write holds the
+// summary and one symbol at a time. A failing write stops it at once.
 func Write(w io.Writer, r grid.Result, indent bool) error {
-	enc := json.NewEncoder(w)
+	var head []byte
+	var err error
+	marker := []byte(`"symbols":[]`)
 	if indent {
-		enc.SetIndent("", "  ")
+		head, err = json.MarshalIndent(Build(r, false), "", "  ")
+		marker = []byte(`"symbols": []`)
+	} else {
+		head, err = json.Marshal(Build(r, false))
 	}
-	return enc.Encode(Build(r, true))
+	if err != nil {
+		return err
+	}
+	bw := bufio.NewWriterSize(w, 32<<10)
+	var one bytes.Buffer
+	enc := json.NewEncoder(&one)
+	// The key "symbols" with an empty list is a partition's and nothing
+	// else's (other "symbols" keys hold numbers), and cannot occur inside
+	// a string, where every quote is escaped; partitions come in order.
+	for _, l := range r.Partitions {
+		i := bytes.Index(head, marker)
+		if i < 0 {
+			return errors.New("report: a partition's symbol list is missing from the document")
+		}
+		open := i + len(marker) - 1 // the index of ']'
+		if _, err := bw.Write(head[:open]); err != nil {
+			return err
+		}
+		// In the indented form the key's line starts with its depth; the
+		// elements stand two spaces deeper, and ']' on a line at the key's.
+		var keyPad, elemPad string
+		if indent {
+			keyPad = "\n" + string(head[bytes.LastIndexByte(head[:i], '\n')+1:i])
+			elemPad = keyPad + "  "
+			enc.SetIndent(elemPad[1:], "  ")
+		}
+		head = head[open:]
+		n := l.SymbolCount()
+		for k := range n {
+			one.Reset()
+			if err := enc.Encode(symbolAt(l, k)); err != nil {
+				return err
+			}
+			if k > 0 {
+				if err := bw.WriteByte(','); err != nil {
+					return err
+				}
+			}
+			if _, err := bw.WriteString(elemPad); err != nil {
+				return err
+			}
+			if _, err := bw.Write(bytes.TrimSuffix(one.Bytes(), []byte{'\n'})); err != nil {
+				return err
+			}
+		}
+		if n > 0 {
+			if _, err := bw.WriteString(keyPad); err != nil {
+				return err
+			}
+		}
+	}
+	if _, err := bw.Write(head); err != nil {
+		return err
+	}
+	if err := bw.WriteByte('\n'); err != nil {
+		return err
+	}
+	return bw.Flush()
 }
 
 func initialAccess(ia *grid.InitialAccess, ch grid.Channel) *InitialAccess {

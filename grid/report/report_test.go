@@ -3,10 +3,15 @@ package report
 import (
 	"bytes"
 	"encoding/json"
+	"errors"
+	"os"
+	"path/filepath"
+	"strings"
 	"testing"
 
 	"gridloom/grid"
 	"gridloom/grid/demo"
+	"gridloom/grid/planfile"
 )
 
 func sample() grid.Result {
@@ -108,4 +113,108 @@ func TestBuildCrossLink(t *testing.T) {
 	if len(doc.Conflicts) == 0 || doc.Conflicts[0] != (CrossLinkConflict{StartUs: 0, EndUs: 500, StartTc: 0, EndTc: 983040, A: "D", B: "U"}) {
 		t.Errorf("one slot late: %+v", doc.Conflicts)
 	}
+}
+
+// Write streams the symbol lists into the document that Build gives without
+// them; the bytes must be those of marshalling Build's whole document for
+// every demo plan, the plans with initial access and PRACH, and the
+// heaviest plans a user can ask for (partitions
+// with and without a TDD pattern, absolute and relative channels, 16
+// partitions of 960 kHz), in both forms.
+func TestWriteStreamsBuildsBytes(t *testing.T) {
+	plans := map[string]grid.Plan{}
+	for _, name := range demo.Names() {
+		p, err := demo.Load(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		plans["demo "+name] = p
+	}
+	files, _ := filepath.Glob("../../testdata/stress/*.yaml")
+	if len(files) == 0 {
+		t.Fatal("no stress plans under testdata/stress")
+	}
+	// Plans with initial access and PRACH blocks: documents with more
+	// keys around the symbol lists.
+	for _, glob := range []string{"../../testdata/initial/*.yaml", "../../testdata/prach/*.yaml"} {
+		more, _ := filepath.Glob(glob)
+		files = append(files, more...)
+	}
+	for _, f := range files {
+		if testing.Short() && strings.Contains(f, "16-partitions") {
+			continue // 143 360 symbols: seconds of marshalling on a loaded machine
+		}
+		b, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		p, err := planfile.Decode(b)
+		if err != nil {
+			t.Fatalf("%s: %v", f, err)
+		}
+		plans[filepath.Base(f)] = p
+	}
+	symbols := 0
+	for name, p := range plans {
+		r := grid.Compute(p)
+		for _, indent := range []bool{true, false} {
+			var got bytes.Buffer
+			if err := Write(&got, r, indent); err != nil {
+				t.Fatalf("%s: %v", name, err)
+			}
+			doc := Build(r, true)
+			var want []byte
+			var err error
+			if indent {
+				want, err = json.MarshalIndent(doc, "", "  ")
+			} else {
+				want, err = json.Marshal(doc)
+			}
+			if err != nil {
+				t.Fatal(err)
+			}
+			want = append(want, '\n')
+			if !bytes.Equal(got.Bytes(), want) {
+				i := 0
+				for i < len(want) && i < got.Len() && want[i] == got.Bytes()[i] {
+					i++
+				}
+				t.Errorf("%s, indent %v: Write's %d bytes differ from Build's %d at byte %d: got %q, want %q",
+					name, indent, got.Len(), len(want), i, excerpt(got.Bytes(), i), excerpt(want, i))
+			}
+			if indent {
+				for _, jp := range doc.Partitions {
+					symbols += len(jp.Symbols)
+				}
+			}
+		}
+	}
+	if symbols == 0 {
+		t.Error("no plan had symbols to stream")
+	}
+	t.Logf("%d plans, %d symbols streamed", len(plans), symbols)
+}
+
+func excerpt(b []byte, i int) []byte {
+	return b[max(0, i-40):min(len(b), i+40)]
+}
+
+// A write that fails stops Write with the error instead of going on with a
+// document no one reads (a client that left).
+func TestWriteStopsOnWriteError(t *testing.T) {
+	w := &failAfter{}
+	err := Write(w, sample(), true)
+	if err == nil {
+		t.Fatal("Write into a failing writer returned no error")
+	}
+	if w.writes > 3 {
+		t.Errorf("Write went on after the failure: %d writes", w.writes)
+	}
+}
+
+type failAfter struct{ writes int }
+
+func (f *failAfter) Write(p []byte) (int, error) {
+	f.writes++
+	return 0, errors.New("client gone")
 }

@@ -2,6 +2,7 @@ package planform
 
 import (
 	"fmt"
+	"regexp"
 	"strconv"
 	"strings"
 
@@ -419,7 +420,7 @@ var Fields = func() []Field {
 			form:    func(f *Form, i int) *string { return &f.Parts[i].RIV }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].LocationAndBandwidth }},
 		{Key: "dir", Path: "direction", Block: BlockPartition, Label: "Direction", Noun: "Direction",
 			form: func(f *Form, i int) *string { return &f.Parts[i].Dir }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].Direction }},
-		{Key: "layers", Path: "layers", Block: BlockPartition, Label: "Layers", Noun: "Layers",
+		{Key: "layers", Path: "layers", Block: BlockPartition, Label: "MIMO layers", Noun: "MIMO layers",
 			Allowed: fixed("a whole number: 1 to 8 for DL, 1 to 4 for UL"),
 			form:    func(f *Form, i int) *string { return &f.Parts[i].Layers }, plan: func(p *grid.Plan, i int) any { return &p.Partitions[i].Layers }},
 		{Key: "mod", Path: "modulation", Block: BlockPartition, Label: "Modulation", Noun: "Modulation",
@@ -469,6 +470,36 @@ func PartFieldOf(key string) Field {
 		panic("planform: no partition field " + key)
 	}
 	return *f
+}
+
+// partPath is a partition's plan path in a finding's text:
+// "partitions[1]" or "partitions[1].startCrb".
+var partPath = regexp.MustCompile(`partitions\[(\d+)\](?:\.([A-Za-z][A-Za-z0-9]*))?`)
+
+// NamePaths names the partitions and fields in a finding's text as the page
+// shows them: "Start CRB of 2 · lowlat" for "partitions[1].startCrb", since
+// the partition's box is titled by its number and name and the control by
+// its label. The CLI and the API keep the plan path, which is what a plan
+// file spells. parts are the plan's partitions; a path beyond them is left.
+func NamePaths(text string, parts []grid.PartitionPlan) string {
+	return partPath.ReplaceAllStringFunc(text, func(m string) string {
+		sub := partPath.FindStringSubmatch(m)
+		i, err := strconv.Atoi(sub[1])
+		if err != nil || i >= len(parts) {
+			return m
+		}
+		who := strconv.Itoa(i + 1)
+		if parts[i].Name != "" {
+			who += " · " + parts[i].Name
+		}
+		if sub[2] == "" {
+			return who
+		}
+		if f, ok := partFieldByPath[sub[2]]; ok {
+			return f.Label + " of " + who
+		}
+		return sub[2] + " of " + who
+	})
 }
 
 func joinFloats(v []float64) string {
