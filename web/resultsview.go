@@ -36,6 +36,7 @@ type resultsView struct {
 	SSB                     *ssbView
 	Fit                     *fitView
 	Timing                  *timingView // issue 17; nil without timing
+	PRACH                   *prachView  // issue 16; nil without prach
 }
 
 type ssbView struct {
@@ -225,6 +226,7 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 	rv.SSB = ssbOf(res)
 	rv.Fit = fitOf(res)
 	rv.Timing = timingOf(res)
+	rv.PRACH = prachOf(res, query)
 	rv.Lattice = latticeOf(res)
 	return rv
 }

@@ -49,6 +49,7 @@ func (s *server) routes(r *chi.Mux) {
 		api := func(h handlerFunc) http.HandlerFunc { return s.serve(apiErrors, s.heavy.heavy(h)) }
 		r.Post("/v1/render", api(s.apiRender)) // plan JSON or YAML in, the lattice document out, streamed
 		r.Post("/v1/figure", api(s.apiFigure)) // plan JSON or YAML in, the figure out
+		r.Post("/v1/prach", api(s.apiPRACH))   // plan JSON or YAML in, the PRACH finder's document out
 	})
 
 	r.Group(func(r chi.Router) {
@@ -66,6 +67,7 @@ func (s *server) routes(r *chi.Mux) {
 		r.Get("/compare/fragment", heavy(s.compareFragment))                  // the comparison's workspace alone, for live updates
 		r.Get("/compare/figure.svg", heavy(s.compareFigure("svg")))           // one side's figure on the shared scales: side=a or b
 		r.Get("/compare/figure.png", heavy(s.compareFigure("png")))           // the same as a PNG image
+		r.Get("/prach", heavy(s.prachFind))                                   // the PRACH configuration finder: every index that fits, each a link that applies it
 		r.Get("/plan.json", page(s.planFile("json")))                         // the plan as a JSON plan file
 		r.Get("/plan.yaml", page(s.planFile("yaml")))                         // the plan as a YAML plan file
 		r.Get("/symbols.csv", heavy(s.symbols))                               // one row per OFDM symbol of every partition, streamed
