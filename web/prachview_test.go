@@ -7,6 +7,7 @@ import (
 	"os"
 	"reflect"
 	"regexp"
+	"slices"
 	"strings"
 	"testing"
 
@@ -112,5 +113,54 @@ func TestAPIPRACH(t *testing.T) {
 	r = post(t, srv, "/api/v1/prach", "application/json", []byte(`{"carrier":{}}`))
 	if r.StatusCode != http.StatusUnprocessableEntity && r.StatusCode != http.StatusBadRequest {
 		t.Errorf("a plan with errors: status %d, want 422 or 400", r.StatusCode)
+	}
+}
+
+// TestPRACHWalkAndCompare: a plan with prach gets a random access step
+// that highlights the prach layer, and the comparison rows for it; a plan
+// without prach gets neither. Index 160 is format B4 with 2 valid
+// occasions per 10 ms (see TestPRACHTable).
+func TestPRACHWalkAndCompare(t *testing.T) {
+	_, p := prachPlanFile(t)
+	steps := Walkthrough(grid.Compute(p))
+	i := slices.IndexFunc(steps, func(s WalkStep) bool { return s.Key == "prach" })
+	if i < 0 {
+		t.Fatal("no prach step")
+	}
+	text := strings.Join(steps[i].Narration, " ")
+	for _, want := range []string{"prach-ConfigurationIndex 160", "format B4 at 30 kHz", "2 valid per 10 ms"} {
+		if !strings.Contains(text, want) {
+			t.Errorf("the step does not say %q: %s", want, text)
+		}
+	}
+	if highlightClass(steps[i].Highlight) != "gl-hl gl-hl-prach" {
+		t.Errorf("highlight %q", highlightClass(steps[i].Highlight))
+	}
+	plain := testConfig(t).Plan
+	if slices.ContainsFunc(Walkthrough(grid.Compute(plain)), func(s WalkStep) bool { return s.Key == "prach" }) {
+		t.Error("a plan without prach has a prach step")
+	}
+
+	a := planform.NewState(planform.FormOf(p), nil)
+	q := p.Clone()
+	q.PRACH = nil
+	b := planform.NewState(planform.FormOf(q), nil)
+	rows := map[string]diffRow{}
+	for _, r := range diffTotals(a, b) {
+		rows[r.Label] = r
+	}
+	if r := rows["PRACH configuration"]; r.A != "index 160, format B4" || r.B != "none" || !r.Changed {
+		t.Errorf("PRACH configuration row %+v", r)
+	}
+	if r := rows["Valid PRACH occasions per 10 ms"]; r.A != "2.00" || r.B != "0.00" {
+		t.Errorf("occasions row %+v", r)
+	}
+	if _, ok := rows["PRACH cell range km"]; !ok {
+		t.Error("no cell range row")
+	}
+	for _, r := range diffTotals(b, b) {
+		if strings.Contains(r.Label, "PRACH") {
+			t.Errorf("two plans without prach get the row %q", r.Label)
+		}
 	}
 }

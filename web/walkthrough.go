@@ -13,10 +13,10 @@ import (
 // of narration made from the plan's own numbers, and the parts of the
 // figure it highlights (the others are dimmed).
 type WalkStep struct {
-	Key       string // stable name of the step: "channel", "grids", "part-0", "align", "tdd", "timing", "switch", "ssb", "findings"
+	Key       string // stable name of the step: "channel", "grids", "part-0", "align", "tdd", "timing", "switch", "ssb", "prach", "findings"
 	Title     string
 	Narration []string
-	Highlight []string // figure targets: "channel", "guards", "carriers", "part:I", "align", "longcp", "tdd", "ssb"
+	Highlight []string // figure targets: "channel", "guards", "carriers", "part:I", "align", "longcp", "tdd", "ssb", "prach"
 }
 
 // Walkthrough turns a computed plan into the steps an engineer would walk
@@ -46,6 +46,9 @@ func Walkthrough(res grid.Result) []WalkStep {
 	}
 	if res.SSB != nil {
 		steps = append(steps, ssbStep(res))
+	}
+	if res.PRACH != nil {
+		steps = append(steps, prachStep(res))
 	}
 	steps = append(steps, findingsStep(res))
 	return steps
@@ -248,6 +251,25 @@ func ssbStep(res grid.Result) WalkStep {
 	s.Narration = append(s.Narration, fmt.Sprintf("Case %s at %d kHz has %d candidate positions per half frame; %d blocks fall in the span shown, every %d ms.",
 		b.Case, b.Numerology.SCSKHz(), b.Candidates, len(b.Blocks), b.PeriodMs))
 	s.Narration = append(s.Narration, fmt.Sprintf("Each block is 4 symbols by 240 subcarriers, %s to %s from point A.", kHz(b.Low), kHz(b.High)))
+	return s
+}
+
+// prachStep is the random access step (issue 16): where the occasions
+// are, how many are valid, and the cell range.
+func prachStep(res grid.Result) WalkStep {
+	p := res.PRACH
+	s := WalkStep{Key: "prach", Title: "Random access", Highlight: []string{"prach"}}
+	valid := 0
+	for _, o := range p.Occasions {
+		if o.Valid {
+			valid++
+		}
+	}
+	s.Narration = append(s.Narration, fmt.Sprintf("prach-ConfigurationIndex %d of TS 38.211 Table %s is format %s at %s kHz; each occasion takes %d resource blocks of %d kHz, %d side by side (msg1-FDM).",
+		p.ConfigurationIndex, p.Table, p.Format, num(float64(p.SCSHz)/1000), p.NRBRA, p.PUSCHSCSKHz, p.FDM))
+	s.Narration = append(s.Narration, fmt.Sprintf("%d of the %d occasions listed are valid (TS 38.213 8.1): %s valid per 10 ms. The invalid ones are drawn dotted and crossed.",
+		valid, len(p.Occasions), num(p.ValidPer10ms)))
+	s.Narration = append(s.Narration, fmt.Sprintf("The preamble allows a cell of %s km, set by %s.", num(float64(int(p.Range.Limit/10+0.5))/100), rangeBinds(p)))
 	return s
 }
 
