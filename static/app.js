@@ -25,6 +25,9 @@
 //    and history entry, and the figure's highlight follows.
 // 5. Opening a plan by dropping a plan file or a saved figure on the
 //    planner: the file is posted to /open as the Open control would.
+// 6. Copy links (a[data-copy]): the text the link points at goes to the
+//    clipboard, and #gl-copied says so; without this script the link
+//    opens the text.
 //
 // Without this script every page still works: the forms are plain GET
 // forms, the edit buttons submit an op that the server applies, and the
@@ -975,5 +978,66 @@
       const reason = byId('n-' + work.dataset.focus);
       if (reason) reason.scrollIntoView({ block: 'nearest' });
     }
+  }
+
+  // ---------------------------------------------------------------------
+  // Copy links
+
+  document.addEventListener('click', (e) => {
+    const a = e.target.closest && e.target.closest('a[data-copy]');
+    if (!a || e.button !== 0 || e.ctrlKey || e.metaKey || e.shiftKey || e.altKey) return;
+    e.preventDefault();
+    copyFrom(a);
+  });
+
+  // copyFrom fetches the text a copy link points at (the address it shows
+  // now: the live update keeps it current) and puts it on the clipboard;
+  // a refusal (a plan with errors) is shown as the server's sentence.
+  async function copyFrom(a) {
+    const said = byId('gl-copied');
+    const say = (msg) => { if (said) said.textContent = msg; };
+    say('');
+    let res, text;
+    try {
+      res = await fetch(a.href);
+      text = await res.text();
+    } catch (err) {
+      trouble('The text could not be fetched (' + err.message + '); follow the link instead.');
+      return;
+    }
+    if (!res.ok) {
+      say(text.trim());
+      return;
+    }
+    try {
+      await navigator.clipboard.writeText(text);
+    } catch (err) {
+      if (!copyBySelection(text)) {
+        say('The browser did not allow copying (' + err.message + '); open the link and copy the text from there.');
+        return;
+      }
+    }
+    const lines = text.split('\n').length - 1;
+    say('Copied the plan ' + a.textContent.replace(/^Copy /, '') + ': ' + lines + ' lines.');
+  }
+
+  // copyBySelection is the older way to copy, for a page the Clipboard API
+  // refuses (served over plain HTTP to another machine).
+  function copyBySelection(text) {
+    const box = document.createElement('textarea');
+    box.value = text;
+    box.setAttribute('readonly', '');
+    box.style.position = 'fixed';
+    box.style.opacity = '0';
+    document.body.append(box);
+    box.select();
+    let ok = false;
+    try {
+      ok = document.execCommand('copy');
+    } catch (err) {
+      ok = false;
+    }
+    box.remove();
+    return ok;
   }
 })();

@@ -69,6 +69,17 @@ type formView struct {
 	Parts    []partView
 	CanAdd   bool
 	Figure   *figureView // the figure's options; nil where the page has its own box
+	MIB      *mibBoxView // the MIB panel's frame and block; the planner's only
+}
+
+// mibBoxView is the controls of the MIB panel (mibview.go), in the
+// planner's form so that the live update and the page without script both
+// carry them.
+type mibBoxView struct {
+	Group    group
+	SFN, SSB control
+	Open     bool
+	Hint     string
 }
 
 // id is the form's id for name.

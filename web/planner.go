@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"net/http"
+	"net/url"
 	"path/filepath"
 	"slices"
 	"strings"
@@ -32,10 +33,14 @@ func (s *server) planner(w http.ResponseWriter, r *http.Request) error {
 	}
 	st, focus, opErr := planform.Read(r.URL.RawQuery)
 	if opErr == nil && focus != "" {
-		http.Redirect(w, r, "/?"+st.Query()+"#"+focus, http.StatusSeeOther)
+		mib := planform.ParseMIBForm(r.URL.Query()).Query()
+		http.Redirect(w, r, "/?"+planform.JoinQuery(st.Query(), mib)+"#"+focus, http.StatusSeeOther)
 		return nil
 	}
 	v, styles := s.pageOf(r, st)
+	for _, n := range r.URL.Query()[keyOpenNote] {
+		v.Upload.Notes = append(v.Upload.Notes, note{Severity: string(grid.Info), Text: n})
+	}
 	return writeHTML(w, r, v.Status, page(v), styles)
 }
 
@@ -54,10 +59,20 @@ func (s *server) plannerFragment(w http.ResponseWriter, r *http.Request) error {
 }
 
 // pageOf draws the figure and builds the page view of a state, with the
-// CSP sources the inline figure needs.
+// CSP sources the inline figure needs, and the MIB panel for the query's
+// mib.sfn and mib.ssb, which the page's query then carries.
 func (s *server) pageOf(r *http.Request, st planform.State) (pageView, []string) {
 	svg, styles, failed := s.inlineFigure(r, st.Result, st.Fig.Opt)
-	return buildPage(st, drawn{SVG: svg, Failed: failed}, demoLinks(s.cfg.Demos)), styles
+	v := buildPage(st, drawn{SVG: svg, Failed: failed}, demoLinks(s.cfg.Demos))
+	mf := planform.ParseMIBForm(r.URL.Query())
+	if box, panel := buildMIB(st, mf); panel != nil {
+		// Only a plan with SS/PBCH blocks has a MIB; the form's shape
+		// says when the box comes or goes, so the page script brings it.
+		v.Form.MIB, v.Results.MIB = &box, panel
+		v.Form.Shape += ";mib"
+	}
+	v.Query = planform.JoinQuery(v.Query, mf.Query())
+	return v, styles
 }
 
 // demo redirects to the page of a demo plan.
@@ -71,13 +86,17 @@ func (s *server) demo(w http.ResponseWriter, r *http.Request) error {
 	return nil
 }
 
-// open reads an uploaded plan file (field "plan": JSON, YAML, or a figure
-// saved by gridloom, whose metadata holds the plan) and redirects to its
-// page, keeping the figure options of the page it came from. On failure it
-// shows that page (its query rides on the form's action) with the reason
-// beside the file control: the answer is the page, not an error.
+// open reads an uploaded plan file (field "plan": JSON, YAML, TS 38.331
+// value notation, or a figure saved by gridloom, whose metadata holds the
+// plan) and redirects to its page, keeping the figure options of the page
+// it came from. What reading value notation skipped or assumed rides on the
+// redirect as open.note keys, which the page shows beside the file control
+// (and which the page's own links drop: they concern the file, not the
+// plan). On failure it shows that page (its query rides on the form's
+// action) with the reason beside the file control: the answer is the page,
+// not an error.
 func (s *server) open(w http.ResponseWriter, r *http.Request) error {
-	plan, status, reasons := readUpload(r)
+	plan, notes, status, reasons := readUpload(r)
 	if status != http.StatusOK {
 		_, f, msgs := planform.ReadQuery(r.URL.RawQuery)
 		if r.URL.RawQuery == "" {
@@ -91,7 +110,7 @@ func (s *server) open(w http.ResponseWriter, r *http.Request) error {
 		return writeHTML(w, r, status, page(v), styles)
 	}
 	ff := planform.ParseFigureForm(r.URL.Query())
-	query := planform.JoinQuery(planform.FormOf(plan).Query(), ff.Query())
+	query := planform.JoinQuery(planform.FormOf(plan).Query(), ff.Query(), openNotesQuery(notes))
 	if len(query) <= MaxQuery {
 		http.Redirect(w, r, "/?"+query, http.StatusSeeOther)
 		return nil
@@ -101,6 +120,9 @@ func (s *server) open(w http.ResponseWriter, r *http.Request) error {
 	// answers 414 or a Location header over the server's limit.
 	st := planform.NewState(planform.FormOf(plan), nil).WithFigure(ff)
 	v, styles := s.pageOf(r, st)
+	for _, n := range notes {
+		v.Upload.Notes = append(v.Upload.Notes, note{Severity: string(grid.Info), Text: n})
+	}
 	v.Upload.Notes = append(v.Upload.Notes, note{Severity: string(grid.Error), Text: fmt.Sprintf(
 		"%s is shown here without a link: its link would be %d bytes long and gridloom reads at most %d (32 KiB), so editing it on this page, downloading it and reloading need a smaller plan. Fix what the findings name in the file and open it again.",
 		uploadName(r), len(query), MaxQuery)})
@@ -118,10 +140,43 @@ func uploadName(r *http.Request) string {
 	return "The plan"
 }
 
-// readUpload reads the plan of an upload, or the status and the sentences
-// that say why it cannot.
-func readUpload(r *http.Request) (grid.Plan, int, []string) {
-	fail := func(status int, reasons ...string) (grid.Plan, int, []string) { return grid.Plan{}, status, reasons }
+// keyOpenNote is the query key of a note about the file just opened.
+const keyOpenNote = "open.note"
+
+// maxOpenNote and maxOpenNotesQuery bound what the notes add to the
+// address: a log of a whole cell can skip hundreds of fields, and the
+// query, plan included (up to about 15 KiB), may hold at most MaxQuery
+// (32 KiB).
+const (
+	maxOpenNote       = 1000
+	maxOpenNotesQuery = 8 << 10
+)
+
+// openNotesQuery writes the notes of an opened file as open.note keys,
+// each cut to maxOpenNote characters, as many as fit maxOpenNotesQuery;
+// a last note says how many more gridloom check would show.
+func openNotesQuery(notes []string) string {
+	var parts []string
+	size := 0
+	for i, n := range notes {
+		part := url.Values{keyOpenNote: {planform.Truncate(n, maxOpenNote)}}.Encode()
+		if size+len(part) > maxOpenNotesQuery {
+			parts = append(parts, url.Values{keyOpenNote: {fmt.Sprintf("And %d more notes; gridloom check on the file shows them all.", len(notes)-i)}}.Encode())
+			break
+		}
+		parts = append(parts, part)
+		size += len(part) + 1
+	}
+	return strings.Join(parts, "&")
+}
+
+// readUpload reads the plan of an upload and the notes its reader left
+// (what value notation skipped or assumed), or the status and the
+// sentences that say why it cannot.
+func readUpload(r *http.Request) (grid.Plan, []string, int, []string) {
+	fail := func(status int, reasons ...string) (grid.Plan, []string, int, []string) {
+		return grid.Plan{}, nil, status, reasons
+	}
 	if err := r.ParseMultipartForm(maxUploadBody); err != nil {
 		if isTooLarge(err) {
 			return fail(http.StatusRequestEntityTooLarge, "The upload is larger than 1 MiB; a plan file may be at most 1 MiB.")
@@ -131,7 +186,7 @@ func readUpload(r *http.Request) (grid.Plan, int, []string) {
 	defer func() { _ = r.MultipartForm.RemoveAll() }()
 	file, hdr, err := r.FormFile("plan")
 	if err != nil {
-		return fail(http.StatusBadRequest, "Choose a plan file (JSON or YAML) to open.")
+		return fail(http.StatusBadRequest, "Choose a plan file (JSON, YAML or TS 38.331 value notation) to open.")
 	}
 	defer file.Close()
 	data, err := io.ReadAll(io.LimitReader(file, planfile.MaxSize+1))
@@ -142,7 +197,7 @@ func readUpload(r *http.Request) (grid.Plan, int, []string) {
 		return fail(http.StatusRequestEntityTooLarge, fmt.Sprintf("%s is larger than 1 MiB; a plan file may be at most 1 MiB.", hdr.Filename))
 	}
 	ext := strings.ToLower(filepath.Ext(hdr.Filename))
-	if ext == ".svg" || (ext != ".json" && ext != ".yaml" && ext != ".yml" && looksLikeXML(data)) {
+	if ext == ".svg" || (!slices.Contains(planExts, ext) && looksLikeXML(data)) {
 		inner, err := render.PlanFromSVG(data)
 		if err != nil {
 			return fail(http.StatusBadRequest, fmt.Sprintf("%s cannot be opened as a plan: %s", hdr.Filename, sentence(err)))
@@ -150,13 +205,16 @@ func readUpload(r *http.Request) (grid.Plan, int, []string) {
 		data = inner
 	}
 	var plan grid.Plan
+	var notes []string
 	switch ext {
 	case ".json":
 		plan, err = planfile.DecodeJSON(data)
 	case ".yaml", ".yml":
 		plan, err = planfile.DecodeYAML(data)
+	case ".asn", ".asn1":
+		plan, notes, err = planfile.DecodeValueNotation(data)
 	default:
-		plan, err = planfile.Decode(data)
+		plan, notes, err = planfile.DecodeNotes(data)
 	}
 	if err != nil {
 		msgs := []string{fmt.Sprintf("%s is not a plan gridloom can open:", hdr.Filename)}
@@ -165,8 +223,12 @@ func readUpload(r *http.Request) (grid.Plan, int, []string) {
 		}
 		return fail(http.StatusBadRequest, msgs...)
 	}
-	return plan, http.StatusOK, nil
+	return plan, notes, http.StatusOK, nil
 }
+
+// planExts are the extensions of plan files, which are never read as a
+// saved figure whatever they hold.
+var planExts = []string{".json", ".yaml", ".yml", ".asn", ".asn1"}
 
 // sentence is an error's text as the end of a sentence: with its full stop.
 func sentence(err error) string {

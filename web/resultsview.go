@@ -34,6 +34,7 @@ type resultsView struct {
 	SpanMs                  int
 	HasTDD                  bool
 	SSB                     *ssbView
+	MIB                     *mibView // the MIB as bits; the planner's only
 	Fit                     *fitView
 	Timing                  *timingView // issue 17; nil without timing
 	PRACH                   *prachView  // issue 16; nil without prach
@@ -64,6 +65,9 @@ type fitCell struct{ Value, Verdict string }
 
 type download struct {
 	Label, Href, TestID, Hint string
+	// Copy marks a link whose text the page script copies to the
+	// clipboard instead of following it; without script it opens the text.
+	Copy bool
 }
 
 type findingView struct {
@@ -213,6 +217,8 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 		{Label: "Plan (JSON)", Href: "/plan.json?" + query, TestID: "download-json", Hint: "a plan file to open again"},
 		{Label: "Plan (YAML)", Href: "/plan.yaml?" + query, TestID: "download-yaml", Hint: "a plan file to open again"},
 		{Label: "Symbols (CSV)", Href: "/symbols.csv?" + query, TestID: "download-csv", Hint: "one row per OFDM symbol"},
+		{Label: "Plan (TS 38.331)", Href: "/plan.asn?" + withKey(query, "download", "1"), TestID: "download-asn", Hint: "the plan as TS 38.331 value notation (MIB, ServingCellConfigCommon(SIB), the BWPs): to open again or to take to a base station's configuration"},
+		{Label: "Copy as TS 38.331", Href: "/plan.asn?" + query, TestID: "copy-asn", Copy: true, Hint: "copies the plan as TS 38.331 value notation; without the page script it opens the text"},
 		{Label: "Figure options…", Href: "#" + planform.IDFigure, TestID: "figure-options-link", Hint: "width, theme, layers and caption of the figure and its downloads"},
 	}
 	rv.Views = []download{

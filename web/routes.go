@@ -50,6 +50,7 @@ func (s *server) routes(r *chi.Mux) {
 		r.Post("/v1/render", api(s.apiRender)) // plan JSON or YAML in, the lattice document out, streamed
 		r.Post("/v1/figure", api(s.apiFigure)) // plan JSON or YAML in, the figure out
 		r.Post("/v1/prach", api(s.apiPRACH))   // plan JSON or YAML in, the PRACH finder's document out
+		r.Post("/v1/asn1", api(s.apiASN1))     // a plan in, its TS 38.331 value notation out
 	})
 
 	r.Group(func(r chi.Router) {
@@ -71,6 +72,7 @@ func (s *server) routes(r *chi.Mux) {
 		r.Get("/plan.json", page(s.planFile("json")))                         // the plan as a JSON plan file
 		r.Get("/plan.yaml", page(s.planFile("yaml")))                         // the plan as a YAML plan file
 		r.Get("/symbols.csv", heavy(s.symbols))                               // one row per OFDM symbol of every partition, streamed
+		r.Get("/plan.asn", page(s.planASN))                                   // the plan as TS 38.331 value notation; download=1 sends it as a file
 		r.Post("/open", page(s.open))                                         // upload a plan file and redirect to its page, or show it when its link would be over MaxQuery
 		r.Get("/static/*", page(s.assets.serve))                              // embedded script, stylesheet and icon
 	})
