@@ -166,10 +166,13 @@ func drawPRACH(b *builder, d *prachDrawing) {
 func prachKeys(p grid.PRACH, d *prachDrawing) []keyEntry {
 	head := fmt.Sprintf("PRACH index %d, format %s at %s", p.ConfigurationIndex, p.Format, scsText(p.SCSHz))
 	text := head + ": "
-	switch d.nValid {
-	case 0:
+	switch {
+	case d.nValid+d.nBad == 0 && len(p.Occasions) > 0:
+		// The span is shorter than the frame: say where to look.
+		text += "no occasion in the span; the first starts at " + fmtMs(p.Occasions[0].Start)
+	case d.nValid == 0:
 		text += "no valid occasion in the span"
-	case 1:
+	case d.nValid == 1:
 		text += "1 valid occasion"
 	default:
 		text += fmt.Sprintf("%d valid occasions", d.nValid)

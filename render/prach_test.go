@@ -110,6 +110,13 @@ func TestPRACHLayer(t *testing.T) {
 			t.Errorf("prach layer shown %v: key row %v", show, got)
 		}
 	}
+	// The plan's own span, the 2.5 ms TDD period, ends before subframe 9:
+	// the key says where the first occasion is (18819072 Tc, see
+	// TestPRACHDDDSU), 18819072 / 1966080 = 9.571875 ms.
+	short := parseSVG(t, figure(t, compute(t, loadPlan(t, prachDDDSU)), Options{}))
+	if key := short.all(byClass("gl-key"))[0].allText(); !strings.Contains(key, "no occasion in the span; the first starts at 9.571875 ms") {
+		t.Errorf("the key of the 2.5 ms span says %q", key)
+	}
 	plain := parseSVG(t, figure(t, compute(t, loadPlan(t, "../grid/demo/campus.yaml")), Options{}))
 	if len(plain.all(byClass("gl-prach"))) > 0 {
 		t.Error("a plan without PRACH draws occasions")
