@@ -660,6 +660,8 @@
     if (p.dirs) bits.push(DIRS[p.dirs[cell.k]] || p.dirs[cell.k]);
     const ssb = (f.lattice.ssb || []).find((b) => cell.t >= b.startTc && cell.t < b.endTc && cell.hz >= b.lowHz && cell.hz < b.highHz);
     if (ssb) bits.push('SS/PBCH block ' + ssb.index);
+    const ro = prachAt(f, cell.t, cell.hz);
+    if (ro) bits.push(ro);
     if (cell.also && cell.also.length) bits.push('overlaps ' + cell.also.map((i) => parts[i].name).join(', '));
     out.textContent = bits.join(' · ');
     setData(out, {
@@ -667,6 +669,32 @@
       startTc: String(s.start), cpTc: String(s.cp), crb: String(cell.crb),
     });
     mark(f, { p, s, crb: cell.crb });
+  }
+
+  // prachAt names the PRACH occasion under the pointer, from the figure's
+  // gl-prach group (render/prach.go: data-occ-* lists, one entry per
+  // occasion), or '' when there is none.
+  function prachAt(f, t, hz) {
+    if (f.prach === undefined) {
+      const g = f.plot.querySelector('.gl-prach');
+      f.prach = null;
+      if (g) {
+        const list = (k) => (g.dataset[k] || '').split(' ').filter((x) => x !== '');
+        f.prach = {
+          index: g.dataset.index, format: g.dataset.format, start: list('occStartTc').map(Number), end: list('occEndTc').map(Number),
+          low: list('occLowHz').map(Number), high: list('occHighHz').map(Number), valid: list('occValid'), ssb: list('occSsb'),
+        };
+      }
+    }
+    const p = f.prach;
+    if (!p) return '';
+    for (let i = 0; i < p.start.length; i++) {
+      if (t >= p.start[i] && t < p.end[i] && hz >= p.low[i] && hz < p.high[i]) {
+        return 'PRACH occasion (index ' + p.index + ', ' + p.format + ')' + (p.valid[i] === '1' ? ' valid' : ' not valid') +
+          (p.ssb[i] && p.ssb[i] !== '-' ? ', SSB ' + p.ssb[i] : '');
+      }
+    }
+    return '';
   }
 
   function setData(el, d) {

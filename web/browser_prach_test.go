@@ -1,10 +1,12 @@
 package web
 
 import (
+	"strings"
 	"testing"
 
 	"github.com/chromedp/chromedp"
 
+	"gridloom/grid"
 	"gridloom/web/planform"
 )
 
@@ -31,6 +33,32 @@ func TestBrowserPRACH(t *testing.T) {
 	tb.waitFor("the planner shows index "+pick, `(document.querySelector('[data-testid=prach-index]') || {}).textContent === '`+pick+`'`)
 	if got := eval[string](tb, `document.querySelector('#`+planform.KeyID("prach.idx")+`').value`); got != pick {
 		t.Errorf("the form's prach-ConfigurationIndex %q, want %s", got, pick)
+	}
+	tb.checkConsole()
+}
+
+// TestBrowserPRACHReadout: with the span at 10 ms the occasions of subframe
+// 9 are drawn, and the readout names the one under the pointer, as the
+// engine places it (grid.Result.PRACH, the occasion's middle).
+func TestBrowserPRACHReadout(t *testing.T) {
+	t.Parallel()
+	_, p := prachPlanFile(t)
+	p.SpanMs = 10
+	o := grid.Compute(p).PRACH.Occasions[0]
+	srv, _ := newTestServer(t, testConfig(t))
+	tb := newTab(t, 2400, 1500)
+	tb.open(srv.URL + "/?" + planform.FormOf(p).Query())
+	tb.do("watching the pointer", chromedp.Evaluate[chromedp.Void](`document.addEventListener('pointermove', e => { window.glPointer = [e.clientX, e.clientY]; }, true);
+		document.getElementById('gl-figure').scrollIntoView({block: 'center'})`))
+	tb.pointAt((o.Start+o.End)/2, (o.Low+o.High)/2)
+	tb.waitFor("the readout names the occasion", `document.getElementById('gl-readout').textContent.includes('PRACH occasion (index 160, B4)')`)
+	text := eval[string](tb, `document.getElementById('gl-readout').textContent`)
+	valid := " not valid"
+	if o.Valid {
+		valid = " valid"
+	}
+	if !strings.Contains(text, "PRACH occasion (index 160, B4)"+valid) {
+		t.Errorf("readout %q; the engine says the occasion is%s", text, valid)
 	}
 	tb.checkConsole()
 }
