@@ -16,7 +16,8 @@ import (
 // outlines are one path (and its underlay one more), so an SS/PBCH burst of
 // 64 blocks costs two elements, not 64. The initial downlink BWP is a
 // bracket beside its carrier on the rail, the initial uplink BWP a dashed
-// one beside it. Both belong to the ssb layer: they follow the block.
+// one beside it. All of it is the coreset0 layer, apart from the block it
+// follows, so a figure can show the block without the initial access.
 
 // coresetDash is the outline's dash pattern, in px: unlike the SS/PBCH
 // block's solid outline, so the two read apart in greyscale.

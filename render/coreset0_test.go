@@ -80,19 +80,19 @@ func TestCoreset0Campus(t *testing.T) {
 }
 
 // TestCoreset0Layer: CORESET#0, its labels and the initial BWPs come and go
-// with the ssb layer; a plan without initial access draws none of them.
+// with the coreset0 layer; a plan without initial access draws none of them.
 func TestCoreset0Layer(t *testing.T) {
 	r := compute(t, loadPlan(t, initialCampus))
 	classes := []string{"gl-coreset0", "gl-coreset0-edge", "gl-coreset0-label", "gl-initial-dl", "gl-initial-ul"}
 	for _, show := range []bool{true, false} {
 		opt := Options{}
 		if !show {
-			opt.Layers = opt.Layers.Hide(LayerSSB)
+			opt.Layers = opt.Layers.Hide(LayerCoreset0)
 		}
 		root := parseSVG(t, figure(t, r, opt))
 		for _, c := range classes {
 			if got := len(root.all(byClass(c))) > 0; got != show {
-				t.Errorf("ssb layer shown %v: %s drawn %v", show, c, got)
+				t.Errorf("coreset0 layer shown %v: %s drawn %v", show, c, got)
 			}
 		}
 	}
@@ -119,8 +119,8 @@ func TestCoreset0Heaviest(t *testing.T) {
 		if len(g) != 1 || g[0].count() != 3 {
 			t.Fatalf("width %d: %d groups; want one group of two paths", width, len(g))
 		}
-		off := parseSVG(t, figure(t, r, Options{Width: width, Layers: Layers{}.Hide(LayerSSB)}))
-		t.Logf("width %d: %d bytes, %d elements (%d with the ssb layer off), %d occasions in the span",
+		off := parseSVG(t, figure(t, r, Options{Width: width, Layers: Layers{}.Hide(LayerCoreset0)}))
+		t.Logf("width %d: %d bytes, %d elements (%d with the coreset0 layer off), %d occasions in the span",
 			width, len(data), root.count(), off.count(), len(strings.Fields(g[0].attr["data-occ-ssb"])))
 		if len(data) > 300_000 {
 			t.Errorf("width %d: %d bytes, want at most 300000", width, len(data))

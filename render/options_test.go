@@ -95,7 +95,8 @@ var layerClasses = map[Layer][]string{
 	LayerGuards:  {"gl-guard", "gl-unused", "gl-minguard"},
 	LayerLabels:  {"gl-name", "gl-note", "gl-tdd-letter", "gl-ssb-label"},
 	LayerTDD:     {"gl-tdd-d", "gl-tdd-f", "gl-tdd-u", "gl-tdd-off", "gl-tdd-edge", "gl-tdd-letter"},
-	LayerSSB:     {"gl-ssb", "gl-ssb-label", "gl-raster", "gl-raster-fit", "gl-raster-off", "gl-raster-block"},
+	LayerSSB:     {"gl-ssb", "gl-ssb-label"},
+	LayerRaster:  {"gl-raster", "gl-raster-fit", "gl-raster-off", "gl-raster-block"},
 }
 
 // TestLayersHidden draws the campus plan, which shows every layer at the
@@ -173,8 +174,8 @@ func TestLayersKey(t *testing.T) {
 		{LayerLattice, "slot boundary"},
 		{LayerGuards, "guardband"},
 		{LayerTDD, "TDD DDDSU"},
-		{LayerSSB, "SS/PBCH block"},
-		{LayerSSB, "sync raster"},
+		{LayerSSB, "SS/PBCH block, case"},
+		{LayerRaster, "sync raster"},
 	} {
 		if !strings.Contains(key(Options{}), tc.text) {
 			t.Fatalf("the full key does not say %q", tc.text)

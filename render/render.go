@@ -207,11 +207,11 @@ func build(r grid.Result, opt Options) (*doc, error) {
 		blocks = planSSB(*r.SSB, f)
 	}
 	var coreset *coresetDrawing
-	if r.InitialAccess != nil && b.shows(LayerSSB) {
+	if r.InitialAccess != nil && b.shows(LayerCoreset0) {
 		coreset = planCoreset0(*r.InitialAccess, f)
 	}
 	var raster *syncDrawing
-	if r.SyncRaster != nil && b.shows(LayerSSB) {
+	if r.SyncRaster != nil && b.shows(LayerRaster) {
 		raster = planSyncRaster(r, f, b.fromA)
 	}
 
@@ -551,7 +551,7 @@ func drawRail(b *builder, f frame, r grid.Result) {
 		b.text(label{class: "gl-rail-scs", x: x + railBar/2, y: float64(f.y - 6), runs: []run{{text: fmt.Sprint(c.SCSKHz)}}, size: 9, anchor: anchorMiddle})
 	}
 	b.add(shape{class: "gl-carriers", d: bars, fill: solid(white), stroke: solid(lk.text), strokeW: 1})
-	if r.InitialAccess != nil && b.shows(LayerSSB) {
+	if r.InitialAccess != nil && b.shows(LayerCoreset0) {
 		drawInitialBWPs(b, f, r, railX)
 	}
 	if b.shows(LayerGuards) {

@@ -86,7 +86,7 @@ func TestSyncRasterCampus(t *testing.T) {
 var tipRE = regexp.MustCompile(`L(-?[0-9.]+) (-?[0-9.]+)`)
 
 // TestSyncRasterLayer: the comb and the axis spine that makes room for it
-// come and go with the ssb layer; without it the axis ticks touch the plot
+// come and go with the raster layer; without it the axis ticks touch the plot
 // again.
 func TestSyncRasterLayer(t *testing.T) {
 	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
@@ -94,7 +94,7 @@ func TestSyncRasterLayer(t *testing.T) {
 	for _, show := range []bool{true, false} {
 		opt := Options{}
 		if !show {
-			opt.Layers = opt.Layers.Hide(LayerSSB)
+			opt.Layers = opt.Layers.Hide(LayerRaster)
 		}
 		root := parseSVG(t, figure(t, r, opt))
 		if got := len(root.all(byClass("gl-raster"))) == 1; got != show {
@@ -133,7 +133,7 @@ func TestSyncRasterHeaviest(t *testing.T) {
 		t.Errorf("%d raster points in 2000 MHz; want 1 to 116", n)
 	}
 	on := parseSVG(t, figure(t, r, Options{}))
-	off := parseSVG(t, figure(t, r, Options{Layers: Layers{}.Hide(LayerSSB)}))
+	off := parseSVG(t, figure(t, r, Options{Layers: Layers{}.Hide(LayerRaster)}))
 	g := on.all(byClass("gl-raster"))
 	if len(g) != 1 || g[0].count() > 4 {
 		t.Fatalf("raster groups %d, elements %d; want one group of at most 3 paths", len(g), g[0].count())

@@ -593,11 +593,67 @@
       spanTc: num('data-span-tc'), lowHz: num('data-low-hz'), highHz: num('data-high-hz'),
       nums: lattice.parts.map(numerology),
       mark: null,
+      raster: rasterOf(box), coreset: coresetOf(box),
     };
     if (!(fig.w > 0 && fig.h > 0 && fig.spanTc > 0 && fig.highHz > fig.lowHz)) {
       fig = null;
     }
     return fig;
+  }
+
+  // The raster's and CORESET#0's data attributes (render's package comment
+  // names them), read once per figure for the readout.
+  const nums = (el, name) => (el.getAttribute(name) || '').split(' ').filter((s) => s !== '').map(Number);
+  function rasterOf(box) {
+    const g = box.querySelector('.gl-raster');
+    if (!g) return null;
+    return {
+      band: g.getAttribute('data-band') || '', scsKHz: g.getAttribute('data-scs-khz'),
+      gscn: nums(g, 'data-gscn'), refHz: nums(g, 'data-ss-ref-hz'), fits: g.getAttribute('data-fits') || '',
+      block: g.getAttribute('data-block-gscn'),
+    };
+  }
+  function coresetOf(box) {
+    const g = box.querySelector('.gl-coreset0');
+    if (!g) return null;
+    const n = (name) => Number(g.getAttribute(name));
+    return {
+      lowHz: n('data-low-hz'), highHz: n('data-high-hz'), startCrb: n('data-start-crb'), nrb: n('data-nrb'),
+      symbols: n('data-symbols'), scsKHz: n('data-scs-khz'),
+      ssb: nums(g, 'data-occ-ssb'), start: nums(g, 'data-occ-start-tc'), end: nums(g, 'data-occ-end-tc'),
+    };
+  }
+
+  // rasterAt reads the raster strip left of the plot: the GSCN nearest the
+  // pointer, within three pixels, or null.
+  function rasterAt(f, clientX, clientY) {
+    const r = f.raster;
+    const m = f.plot.getScreenCTM();
+    if (!r || !m || r.gscn.length === 0) return null;
+    const p = new DOMPoint(clientX, clientY).matrixTransform(m.inverse());
+    if (p.x >= f.x || p.x < f.x - 14 || p.y < f.y || p.y > f.y + f.h) return null;
+    const hz = f.lowHz + ((f.y + f.h - p.y) / f.h) * (f.highHz - f.lowHz);
+    let best = -1;
+    r.refHz.forEach((ref, i) => { if (best < 0 || Math.abs(ref - hz) < Math.abs(r.refHz[best] - hz)) best = i; });
+    const px = (Math.abs(r.refHz[best] - hz) / (f.highHz - f.lowHz)) * f.h;
+    return px <= 3 ? best : null;
+  }
+
+  function showRaster(f, i) {
+    const out = byId('gl-readout');
+    const r = f.raster;
+    const ref = r.refHz[i];
+    const abs = f.lattice.pointAHz !== null ? ' (' + fmtMHz(f.lattice.pointAHz + ref) + ' MHz)' : '';
+    const bits = [
+      'GSCN ' + r.gscn[i] + (r.band ? ' of band ' + r.band : ''),
+      'SS_REF ' + fmtKHz(ref) + ' kHz from point A' + abs,
+      r.fits[i] === '1' ? 'a ' + r.scsKHz + ' kHz block centred here fits' : 'a ' + r.scsKHz + ' kHz block centred here would not fit',
+    ];
+    if (String(r.gscn[i]) === r.block) bits.push("the plan's SS/PBCH block is here");
+    out.textContent = bits.join(' · ');
+    setData(out, {});
+    out.dataset.gscn = String(r.gscn[i]);
+    mark(f, null);
   }
 
   // toPlot maps a pointer position to time (Tc) and frequency (Hz from
@@ -660,6 +716,14 @@
     if (p.dirs) bits.push(DIRS[p.dirs[cell.k]] || p.dirs[cell.k]);
     const ssb = (f.lattice.ssb || []).find((b) => cell.t >= b.startTc && cell.t < b.endTc && cell.hz >= b.lowHz && cell.hz < b.highHz);
     if (ssb) bits.push('SS/PBCH block ' + ssb.index);
+    const c = f.coreset;
+    if (c && cell.hz >= c.lowHz && cell.hz < c.highHz) {
+      const j = c.start.findIndex((s, i) => cell.t >= s && cell.t < c.end[i]);
+      if (j >= 0) {
+        const same = c.ssb.filter((_, i) => c.start[i] === c.start[j]);
+        bits.push('CORESET#0 occasion for SSB ' + same.join(', ') + ': CRBs ' + c.startCrb + '–' + (c.startCrb + c.nrb - 1) + ' of ' + c.scsKHz + ' kHz, ' + c.symbols + ' symbols from ' + fmtUs(c.start[j]) + ' µs');
+      }
+    }
     const ro = prachAt(f, cell.t, cell.hz);
     if (ro) bits.push(ro);
     if (cell.also && cell.also.length) bits.push('overlaps ' + cell.also.map((i) => parts[i].name).join(', '));
@@ -698,6 +762,7 @@
   }
 
   function setData(el, d) {
+    delete el.dataset.gscn;
     for (const k of ['part', 'name', 'slot', 'symbol', 'k', 'startTc', 'cpTc', 'crb']) {
       if (k in d) el.dataset[k] = d[k];
       else delete el.dataset[k];
@@ -748,7 +813,11 @@
     const f = figure();
     if (!f || !at) return;
     const p = toPlot(f, at.x, at.y);
-    if (!p) return;
+    if (!p) {
+      const i = rasterAt(f, at.x, at.y);
+      if (i !== null) showRaster(f, i);
+      return;
+    }
     show(f, cellAt(f, p.t, p.hz));
   }
 

@@ -91,14 +91,14 @@ func TestBrowserWalkthrough(t *testing.T) {
 	tb.open(srv.URL + "/walk?" + q)
 	tb.do("marking the window", chromedp.Evaluate[chromedp.Void](`window.glMarker = 'still here'`))
 	start := tb.walkState()
-	if start.Shown != "step-channel" || start.Count != "Step 1 of 11" || !strings.Contains(start.Figure, "gl-hl-channel") {
+	if start.Shown != "step-channel" || start.Count != "Step 1 of 12" || !strings.Contains(start.Figure, "gl-hl-channel") {
 		t.Fatalf("the walkthrough opens at %+v, want the first step", start)
 	}
 
 	// → moves one step: the address, the text, the counter and the highlight follow.
 	tb.do("pressing →", chromedp.KeyEvent(kb.ArrowRight))
 	s := tb.waitStep("grids")
-	if s.Count != "Step 2 of 11" || s.Figure != "gl-walk-figure "+highlightClass(steps[1].Highlight) || s.History != start.History+1 {
+	if s.Count != "Step 2 of 12" || s.Figure != "gl-walk-figure "+highlightClass(steps[1].Highlight) || s.History != start.History+1 {
 		t.Errorf("after →: %+v; want step 2, its highlight, one more history entry", s)
 	}
 
@@ -152,7 +152,7 @@ func TestBrowserWalkthrough(t *testing.T) {
 	if s.Marker != "still here" {
 		t.Error("moving between steps reloaded the page")
 	}
-	if got := eval[string](tb, `document.title`); !strings.HasPrefix(got, "7/11 The TDD pattern") {
+	if got := eval[string](tb, `document.title`); !strings.HasPrefix(got, "7/12 The TDD pattern") {
 		t.Errorf("title %q does not name the step", got)
 	}
 
@@ -200,7 +200,7 @@ func TestBrowserWalkthroughPrint(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	tb := newTab(t, 1280, 900)
 	tb.do("opening the print layout", chromedp.Navigate(srv.URL+"/walk?"+campusQuery(t)+"&view=print"))
-	tb.waitFor("the steps", `document.readyState === 'complete' && document.querySelectorAll('.gl-print-step svg').length === 11`)
+	tb.waitFor("the steps", `document.readyState === 'complete' && document.querySelectorAll('.gl-print-step svg').length === 12`)
 	if _, err := chromedp.Call(tb.ctx, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{Media: "print"}); err != nil {
 		t.Fatal(err)
 	}

@@ -208,6 +208,48 @@ func signed(d float64, decimals int) string {
 	return "+" + s
 }
 
+// cellRows are the comparison's rows of the band and initial access, each
+// left out when neither plan has it.
+var cellRows = []struct {
+	label string
+	value func(grid.Result) string
+}{
+	{"Band", func(r grid.Result) string { return orNone(r.Channel.Band) }},
+	{"GSCN", func(r grid.Result) string {
+		if r.SSB == nil || !r.SSB.OnSyncRaster {
+			return "none"
+		}
+		return strconv.Itoa(r.SSB.GSCN)
+	}},
+	{"CORESET#0", func(r grid.Result) string {
+		if r.InitialAccess == nil {
+			return "none"
+		}
+		c := r.InitialAccess.CORESET0
+		return fmt.Sprintf("index %d: %d RBs × %d symbols", c.Index, c.NRB, c.Symbols)
+	}},
+	{"pdcch-ConfigSIB1", func(r grid.Result) string {
+		if r.InitialAccess == nil {
+			return "none"
+		}
+		return fmt.Sprintf("%08b", r.InitialAccess.MIB.PDCCHConfigSIB1)
+	}},
+	{"Initial downlink BWP", func(r grid.Result) string {
+		if r.InitialAccess == nil {
+			return "none"
+		}
+		b := r.InitialAccess.InitialDL
+		return fmt.Sprintf("%d PRBs of %d kHz from CRB %d", b.SizePRB, b.SCSKHz, b.StartCRB)
+	}},
+}
+
+func orNone(s string) string {
+	if s == "" {
+		return "none"
+	}
+	return s
+}
+
 // diffTotals compares the plans as a whole.
 func diffTotals(a, b planform.State) []diffRow {
 	ra, rb := a.Result, b.Result
@@ -281,6 +323,11 @@ func diffTotals(a, b planform.State) []diffRow {
 		return fmt.Sprintf("case %s at %d kHz, %d in the span", r.SSB.Case, r.SSB.Numerology.SCSKHz(), len(r.SSB.Blocks))
 	}
 	text("SS/PBCH blocks", ssb(ra), ssb(rb))
+	for _, c := range cellRows {
+		if x, y := c.value(ra), c.value(rb); x != "none" || y != "none" {
+			text(c.label, x, y)
+		}
+	}
 	if ra.PRACH != nil || rb.PRACH != nil {
 		// Random access (issue 16): rows only when a side has a prach block,
 		// so that comparisons without one read as before.

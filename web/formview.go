@@ -667,9 +667,10 @@ func buildFigureBox(st planform.FigureState, planName string) figureView {
 		c := text(planform.KeyFigLayers, "Layers shown", ff.Layers, "", "all", "12")
 		fv.LayersText = &c
 	} else {
+		titles := render.LayerTitles()
 		for i, name := range render.LayerNames() {
 			fv.Layers = append(fv.Layers, checkbox{ID: planform.KeyID(planform.KeyFigLayers) + "-" + name, Name: planform.KeyFigLayers, Value: name,
-				Label: layerLabels[i], Checked: st.Opt.Layers.Shows(render.Layer(1 << i))})
+				Label: titles[i], Checked: st.Opt.Layers.Shows(render.Layer(1 << i))})
 		}
 	}
 	fv.Open = ff != planform.FigureForm{} || len(st.Msgs) > 0
@@ -711,10 +712,6 @@ func countChecked(cs []checkbox) int {
 	}
 	return n
 }
-
-// layerLabels names the layers of render.LayerNames for the checkboxes;
-// render keeps them, so that a new layer gets its checkbox.
-var layerLabels = render.LayerTitles()
 
 // shape names the figure box's set of controls, for formShape.
 func (fv figureView) shape() string {

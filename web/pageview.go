@@ -65,6 +65,7 @@ func buildPage(s planform.State, fig drawn, demos []demoLink) pageView {
 	v.Form.Figure = &box
 	v.Form.Shape += ";" + box.shape()
 	v.Results = buildResults(s, q, fig)
+	v.Results.Cell = cellOf(s, q)
 	return v
 }
 

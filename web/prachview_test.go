@@ -50,7 +50,7 @@ func TestPRACHTable(t *testing.T) {
 	}
 }
 
-var applyLink = regexp.MustCompile(`<a href="([^"]*)" data-testid="prach-apply-(\d+)"`)
+var prachApplyLink = regexp.MustCompile(`<a href="([^"]*)" data-testid="prach-apply-(\d+)"`)
 
 // TestPRACHFinderPage: the finder lists the indexes FindPRACH finds,
 // grouped by format, and each link applies its index to the plan, without
@@ -64,7 +64,7 @@ func TestPRACHFinderPage(t *testing.T) {
 	srv, _ := newTestServer(t, testConfig(t))
 	r := get(t, srv, "/prach?"+planform.FormOf(p).Query())
 	wantStatus(t, r, http.StatusOK)
-	links := applyLink.FindAllStringSubmatch(r.body, -1)
+	links := prachApplyLink.FindAllStringSubmatch(r.body, -1)
 	if len(links) != found.Count() || found.Count() == 0 {
 		t.Fatalf("%d links, FindPRACH finds %d", len(links), found.Count())
 	}

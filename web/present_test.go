@@ -161,7 +161,7 @@ func TestWalkPage(t *testing.T) {
 	wantContains(t, "walk", r.body,
 		`href="`+strings.ReplaceAll(next, "&", "&amp;")+`" data-testid="walk-next"`,
 		`href="/?`+strings.ReplaceAll(q, "&", "&amp;")+`" data-testid="walk-planner"`,
-		"Step 1 of 11", "The channel and its guardbands", "552.5 kHz", // narration from the plan's numbers
+		"Step 1 of 12", "The channel and its guardbands", "552.5 kHz", // narration from the plan's numbers
 		`id="gl-plot"`,
 	)
 	if strings.Contains(r.body, "gl-caption") {
@@ -175,7 +175,7 @@ func TestWalkPage(t *testing.T) {
 		if cls := attrOf(t, r.body, `id="gl-walk-figure"`, "class"); cls != "gl-walk-figure gl-hl gl-hl-part-1" {
 			t.Errorf("step=%s: figure class %q, want the second partition highlighted", step, cls)
 		}
-		wantContains(t, "step "+step, r.body, "Step 4 of 11", `<section class="gl-step" id="step-part-1" data-step="3"`, `aria-current="step">Partition video</a>`)
+		wantContains(t, "step "+step, r.body, "Step 4 of 12", `<section class="gl-step" id="step-part-1" data-step="3"`, `aria-current="step">Partition video</a>`)
 		if regexp.MustCompile(`<section class="gl-step" id="step-part-1"[^>]* hidden[ >]`).MatchString(r.body) {
 			t.Errorf("step=%s: the step shown is hidden", step)
 		}
@@ -188,14 +188,14 @@ func TestWalkPage(t *testing.T) {
 	// The projector layout keeps the step.
 	r = get(t, srv, "/walk?"+q+"&step=tdd&view=projector")
 	wantStatus(t, r, http.StatusOK)
-	wantContains(t, "projector", r.body, `<body class="gl-walking gl-projector">`, "Page layout", "Step 7 of 11")
+	wantContains(t, "projector", r.body, `<body class="gl-walking gl-projector">`, "Page layout", "Step 7 of 12")
 	if href := attrOf(t, r.body, `data-testid="walk-layout"`, "href"); !strings.HasSuffix(href, "step=tdd") {
 		t.Errorf("the page-layout link %q does not keep the step", href)
 	}
 
 	// Refusals: the parameter, what it allows, and the walkthrough still shown.
 	for _, c := range []struct{ query, param, allowed string }{
-		{"&step=99", "step", "1 to 11"},
+		{"&step=99", "step", "1 to 12"},
 		{"&step=warp", "step", "channel, grids, part-0"},
 		{"&view=cinema", "view", "projector or print"},
 		{"&fig.theme=sepia", "fig.theme", "The link holds values that do not parse"},
@@ -255,7 +255,7 @@ func TestFigureOptionsLayers(t *testing.T) {
 		{"", ""},
 		{"fig.layers=none", "none"}, // every box unchecked
 		{"fig.layers=none&fig.layers=lattice&fig.layers=tdd", "lattice,tdd"}, // two checked
-		{"fig.layers=none&fig.layers=lattice&fig.layers=cp&fig.layers=guards&fig.layers=labels&fig.layers=tdd&fig.layers=ssb&fig.layers=prach", ""},
+		{"fig.layers=none&fig.layers=lattice&fig.layers=cp&fig.layers=guards&fig.layers=labels&fig.layers=tdd&fig.layers=ssb&fig.layers=raster&fig.layers=coreset0&fig.layers=prach", ""},
 		{"fig.layers=ssb,+TDD", "tdd,ssb"},
 		{"fig.layers=all", ""},
 		{"fig.layers=lattice,grid", "lattice,grid"}, // kept as typed, for its message
@@ -319,7 +319,7 @@ func TestFigureOptions(t *testing.T) {
 		{"&fig.width=99999", "fig.width", "640 to 4800"},
 		{"&fig.width=wide", "fig.width", "640 to 4800"},
 		{"&fig.theme=sepia", "fig.theme", "light or print"},
-		{"&fig.layers=lattice,grid", "fig.layers", "lattice, cp, guards, labels, tdd, ssb and prach"},
+		{"&fig.layers=lattice,grid", "fig.layers", "lattice, cp, guards, labels, tdd, ssb, raster, coreset0 and prach"},
 		{"&fig.caption=" + strings.Repeat("x", render.MaxCaption+1), "fig.caption", "at most 300"},
 	} {
 		for _, path := range []string{"/figure.svg?", "/figure.png?"} {

@@ -34,10 +34,24 @@ type resultsView struct {
 	SpanMs                  int
 	HasTDD                  bool
 	SSB                     *ssbView
+	Cell                    *cellView
 	MIB                     *mibView // the MIB as bits; the planner's only
 	Fit                     *fitView
 	Timing                  *timingView // issue 17; nil without timing
 	PRACH                   *prachView  // issue 16; nil without prach
+}
+
+// cellView is the summary's cell and initial-access section (cellview.go
+// builds it).
+type cellView struct {
+	Band     []fact
+	Block    []fact
+	Coreset  []fact
+	MIB      []fact
+	BWPs     []fact
+	Findings []findingView
+	// FindSSB and FindInitial are the finders' pages for this plan.
+	FindSSB, FindInitial string
 }
 
 type ssbView struct {

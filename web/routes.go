@@ -47,10 +47,12 @@ func (s *server) routes(r *chi.Mux) {
 		r.NotFound(s.notFound(apiErrors))
 		r.MethodNotAllowed(s.methodNotAllowed(apiErrors, r))
 		api := func(h handlerFunc) http.HandlerFunc { return s.serve(apiErrors, s.heavy.heavy(h)) }
-		r.Post("/v1/render", api(s.apiRender)) // plan JSON or YAML in, the lattice document out, streamed
-		r.Post("/v1/figure", api(s.apiFigure)) // plan JSON or YAML in, the figure out
-		r.Post("/v1/prach", api(s.apiPRACH))   // plan JSON or YAML in, the PRACH finder's document out
-		r.Post("/v1/asn1", api(s.apiASN1))     // a plan in, its TS 38.331 value notation out
+		r.Post("/v1/render", api(s.apiRender))   // plan JSON or YAML in, the lattice document out, streamed
+		r.Post("/v1/figure", api(s.apiFigure))   // plan JSON or YAML in, the figure out
+		r.Post("/v1/asn1", api(s.apiASN1))       // a plan in, its TS 38.331 value notation out
+		r.Post("/v1/ssb", api(s.apiSSB))         // plan in, the GSCNs where its SS/PBCH block fits (band= to choose the band)
+		r.Post("/v1/initial", api(s.apiInitial)) // plan in, the ranked initial-access settings (band= to choose the band)
+		r.Post("/v1/prach", api(s.apiPRACH))     // plan JSON or YAML in, the PRACH finder's document out
 	})
 
 	r.Group(func(r chi.Router) {
@@ -63,6 +65,8 @@ func (s *server) routes(r *chi.Mux) {
 		r.Get("/demo/{name}", page(s.demo))                                   // redirect to a demo plan
 		r.Get("/figure.svg", cached(s.figures, page(s.figureSVG)).ServeHTTP)  // the figure, with the plan in its metadata; download=1 sends it as a file
 		r.Get("/figure.png", cached(s.figures, heavy(s.figurePNG)).ServeHTTP) // the figure as a PNG image; download=1 sends it as a file
+		r.Get("/find/ssb", heavy(s.findSSBPage))                              // the SS/PBCH block's places on the sync raster, each a link applying it
+		r.Get("/find/initial", heavy(s.findInitialPage))                      // the ranked initial-access settings, each a link applying it
 		r.Get("/walk", page(s.heavy.heavyWhen(printed, s.walk)))              // the plan step by step for a team: step=, view=projector or print
 		r.Get("/compare", heavy(s.compare))                                   // two plans side by side on shared scales, a. and b. keys
 		r.Get("/compare/fragment", heavy(s.compareFragment))                  // the comparison's workspace alone, for live updates

@@ -13,10 +13,10 @@ import (
 // of narration made from the plan's own numbers, and the parts of the
 // figure it highlights (the others are dimmed).
 type WalkStep struct {
-	Key       string // stable name of the step: "channel", "grids", "part-0", "align", "tdd", "timing", "switch", "ssb", "prach", "findings"
+	Key       string // stable name of the step: "channel", "grids", "part-0", "align", "tdd", "timing", "switch", "ssb", "band", "initial", "prach", "findings"
 	Title     string
 	Narration []string
-	Highlight []string // figure targets: "channel", "guards", "carriers", "part:I", "align", "longcp", "tdd", "ssb", "prach"
+	Highlight []string // figure targets: "channel", "guards", "carriers", "part:I", "align", "longcp", "tdd", "ssb", "raster", "coreset0", "prach"
 }
 
 // Walkthrough turns a computed plan into the steps an engineer would walk
@@ -46,6 +46,12 @@ func Walkthrough(res grid.Result) []WalkStep {
 	}
 	if res.SSB != nil {
 		steps = append(steps, ssbStep(res))
+	}
+	if res.SyncRaster != nil {
+		steps = append(steps, bandStep(res))
+	}
+	if res.InitialAccess != nil {
+		steps = append(steps, initialStep(res))
 	}
 	if res.PRACH != nil {
 		steps = append(steps, prachStep(res))
@@ -251,6 +257,52 @@ func ssbStep(res grid.Result) WalkStep {
 	s.Narration = append(s.Narration, fmt.Sprintf("Case %s at %d kHz has %d candidate positions per half frame; %d blocks fall in the span shown, every %d ms.",
 		b.Case, b.Numerology.SCSKHz(), b.Candidates, len(b.Blocks), b.PeriodMs))
 	s.Narration = append(s.Narration, fmt.Sprintf("Each block is 4 symbols by 240 subcarriers, %s to %s from point A.", kHz(b.Low), kHz(b.High)))
+	return s
+}
+
+// bandStep tells the band and where on its synchronization raster a block
+// may sit inside the channel (TS 38.101-1/-2 5.4.3).
+func bandStep(res grid.Result) WalkStep {
+	ch, sr := res.Channel, res.SyncRaster
+	s := WalkStep{Key: "band", Title: "The band and the synchronization raster", Highlight: []string{"raster", "ssb"}}
+	band := fmt.Sprintf("The channel is checked against band %s (%s)", sr.Band, ch.Duplex)
+	if ch.RasterKHz > 0 {
+		band += fmt.Sprintf(", whose channel raster steps %d kHz", ch.RasterKHz)
+	}
+	s.Narration = append(s.Narration, band+".")
+	fits := 0
+	for _, p := range sr.Points {
+		if p.Fits {
+			fits++
+		}
+	}
+	s.Narration = append(s.Narration, fmt.Sprintf("A UE searches for %d kHz SS/PBCH blocks only on the GSCNs of the synchronization raster: %d lie inside the channel, and a block centred on %d of them would fit it and the carrier of subCarrierSpacingCommon (the long ticks).",
+		sr.SCSKHz, len(sr.Points), fits))
+	if b := res.SSB; b != nil && b.Absolute {
+		if b.OnSyncRaster {
+			s.Narration = append(s.Narration, fmt.Sprintf("This plan's block sits at GSCN %d, SS_REF %s MHz (absoluteFrequencySSB %d).", b.GSCN, num(b.SSRefHz.MHz()), b.AbsoluteFrequencySSB))
+		} else {
+			s.Narration = append(s.Narration, fmt.Sprintf("This plan's block, at SS_REF %s MHz, is off the raster: a UE's initial search would not find it.", num(b.SSRefHz.MHz())))
+		}
+	}
+	return s
+}
+
+// initialStep tells where CORESET#0 is and when a UE looks for SIB1's
+// PDCCH in it (TS 38.213 13).
+func initialStep(res grid.Result) WalkStep {
+	ia := res.InitialAccess
+	c := ia.CORESET0
+	s := WalkStep{Key: "initial", Title: "Initial access: CORESET#0 and its occasions", Highlight: []string{"coreset0", "ssb"}}
+	s.Narration = append(s.Narration, fmt.Sprintf("The MIB's pdcch-ConfigSIB1 %08b picks row %d of Table %s: CORESET#0 spans %d RBs of %d kHz and %d symbols, CRBs %s, %s to %s from point A.",
+		ia.MIB.PDCCHConfigSIB1, c.Index, c.Table, c.NRB, c.SCSKHz, c.Symbols, crbRange(c.StartCRB, c.NRB), kHz(c.Low), kHz(c.High)))
+	occ := fmt.Sprintf("Row %d of Table %s gives %s in %d ms", ia.SearchSpaceZero, ia.OccasionTable, plural(len(ia.Occasions), "Type0-PDCCH monitoring occasion", "Type0-PDCCH monitoring occasions"), ia.WindowMs)
+	if len(ia.Occasions) > 0 {
+		o := ia.Occasions[0]
+		occ += fmt.Sprintf("; the first, for block %d, is in slot %d from symbol %d", o.SSBIndex, o.Slot, o.FirstSymbol)
+	}
+	s.Narration = append(s.Narration, occ+".")
+	s.Narration = append(s.Narration, fmt.Sprintf("Until it is configured, the UE works in the initial downlink BWP, %d PRBs from CRB %d.", ia.InitialDL.SizePRB, ia.InitialDL.StartCRB))
 	return s
 }
 

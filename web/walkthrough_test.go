@@ -25,7 +25,7 @@ func TestWalkthroughCampus(t *testing.T) {
 			t.Errorf("step %s has %d sentences", s.Key, len(s.Narration))
 		}
 	}
-	if got, want := strings.Join(keys, " "), "channel grids part-0 part-1 part-2 align tdd timing switch ssb findings"; got != want {
+	if got, want := strings.Join(keys, " "), "channel grids part-0 part-1 part-2 align tdd timing switch ssb band findings"; got != want {
 		t.Errorf("steps %q, want %q", got, want)
 	}
 	say := func(key string) string {
@@ -87,4 +87,25 @@ func TestWalkthroughFollowsThePlan(t *testing.T) {
 	if !strings.Contains(strings.Join(last.Narration, " "), "1 error") || len(last.Highlight) == 0 {
 		t.Errorf("findings step %+v", last)
 	}
+}
+
+// TestWalkthroughInitialAccess: the campus plan with initial access has a
+// step for CORESET#0 and its occasions, from the plan's numbers:
+// pdcch-ConfigSIB1 = 2·16 + 0 = 32 = 00100000; Table 13-4 row 2 is 24 RBs
+// and 2 symbols (TS 38.213 13).
+func TestWalkthroughInitialAccess(t *testing.T) {
+	res := computeFile(t, "../testdata/initial/campus.yaml")
+	for _, s := range Walkthrough(res) {
+		if s.Key != "initial" {
+			continue
+		}
+		got := strings.Join(s.Narration, " ")
+		for _, w := range []string{"pdcch-ConfigSIB1 00100000 picks row 2 of Table 13-4", "24 RBs of 30 kHz and 2 symbols", "CRBs 26–49", "Row 0 of Table 13-11"} {
+			if !strings.Contains(got, w) {
+				t.Errorf("the initial step does not say %q:\n%s", w, got)
+			}
+		}
+		return
+	}
+	t.Error("the campus plan with initial access has no initial step")
 }

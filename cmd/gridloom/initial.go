@@ -9,40 +9,8 @@ import (
 	"text/tabwriter"
 
 	"gridloom/grid"
+	"gridloom/grid/report"
 )
-
-// initialJSON is the document of "gridloom initial -format json": CORESET#0
-// edges in kHz relative to point A, as in the render command's JSON, and
-// in absolute MHz when the plan ties the channel to a frequency.
-type initialJSON struct {
-	Band         string              `json:"band,omitempty"`
-	Positions    int                 `json:"positions"`
-	Table        string              `json:"table"`
-	SSBSCSKHz    int                 `json:"ssbScsKHz"`
-	ScsCommonKHz int                 `json:"scsCommonKHz"`
-	Options      []initialOptionJSON `json:"options"`
-	Why          string              `json:"why,omitempty"`
-}
-
-type initialOptionJSON struct {
-	GSCN                   int      `json:"gscn,omitempty"`
-	OffsetToPointA         int      `json:"offsetToPointA"`
-	KSSB                   int      `json:"kSsb"`
-	ControlResourceSetZero int      `json:"controlResourceSetZero"`
-	SearchSpaceZero        int      `json:"searchSpaceZero"`
-	PDCCHConfigSIB1        int      `json:"pdcchConfigSIB1"`
-	Pattern                int      `json:"pattern"`
-	NRB                    int      `json:"nrb"`
-	Symbols                int      `json:"symbols"`
-	StartCRB               int      `json:"startCrb"`
-	LowKHz                 float64  `json:"lowKHz"`
-	HighKHz                float64  `json:"highKHz"`
-	ClearOfSSB             bool     `json:"clearOfSsb"`
-	Warnings               int      `json:"warnings"`
-	SSBFromCentreKHz       float64  `json:"ssbFromCentreKHz"`
-	LowMHz                 *float64 `json:"lowMHz,omitempty"`
-	HighMHz                *float64 `json:"highMHz,omitempty"`
-}
 
 // runInitial lists the pdcch-ConfigSIB1 values (controlResourceSetZero and
 // searchSpaceZero) that fit the plan's SS/PBCH block, carrier and TDD
@@ -72,18 +40,7 @@ func runInitial(ctx context.Context, args []string, stdin io.Reader, stdout, std
 	}
 	ch := grid.Compute(p).Channel
 	if *format == "json" {
-		doc := initialJSON{Band: found.Band, Positions: found.Positions, Table: found.Table, SSBSCSKHz: found.SSBSCSKHz, ScsCommonKHz: found.ScsCommonKHz, Why: found.Why, Options: []initialOptionJSON{}}
-		for _, o := range found.Options {
-			j := initialOptionJSON{GSCN: o.GSCN, OffsetToPointA: o.OffsetToPointA, KSSB: o.KSSB, ControlResourceSetZero: o.ControlResourceSetZero,
-				SearchSpaceZero: o.SearchSpaceZero, PDCCHConfigSIB1: o.PDCCHConfigSIB1, Pattern: o.Pattern, NRB: o.NRB,
-				Symbols: o.Symbols, StartCRB: o.StartCRB, LowKHz: o.Low.KHz(), HighKHz: o.High.KHz(), ClearOfSSB: o.ClearOfSSB, Warnings: o.Warnings,
-				SSBFromCentreKHz: o.SSBFromCentre.KHz()}
-			if ch.Absolute {
-				lo, hi := ch.Abs(o.Low).MHz(), ch.Abs(o.High).MHz()
-				j.LowMHz, j.HighMHz = &lo, &hi
-			}
-			doc.Options = append(doc.Options, j)
-		}
+		doc := report.BuildInitialOptions(found, ch)
 		enc := json.NewEncoder(stdout)
 		enc.SetIndent("", "  ")
 		if err := enc.Encode(doc); err != nil {

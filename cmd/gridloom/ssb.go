@@ -9,27 +9,8 @@ import (
 	"text/tabwriter"
 
 	"gridloom/grid"
+	"gridloom/grid/report"
 )
-
-// ssbJSON is the document of "gridloom ssb -format json": absolute
-// frequencies in MHz, as in the render command's JSON.
-type ssbJSON struct {
-	Band         string            `json:"band,omitempty"`
-	SCSKHz       int               `json:"scsKHz"`
-	ScsCommonKHz int               `json:"scsCommonKHz"`
-	Within       string            `json:"within"`
-	Positions    []ssbPositionJSON `json:"positions"`
-}
-
-type ssbPositionJSON struct {
-	GSCN                 int     `json:"gscn"`
-	SSRefMHz             float64 `json:"ssRefMHz"`
-	AbsoluteFrequencySSB int     `json:"absoluteFrequencySSB"`
-	OffsetToPointA       int     `json:"offsetToPointA"`
-	KSSB                 int     `json:"kSsb"`
-	LowMHz               float64 `json:"lowMHz"`
-	HighMHz              float64 `json:"highMHz"`
-}
 
 // runSSB lists the places on the synchronization raster where the plan's
 // SS/PBCH block fits.
@@ -56,11 +37,7 @@ func runSSB(ctx context.Context, args []string, stdin io.Reader, stdout, stderr 
 		return &exitError{code: exitBadInput, msg: err.Error()}
 	}
 	if *format == "json" {
-		doc := ssbJSON{Band: found.Band, SCSKHz: found.SCSKHz, ScsCommonKHz: found.ScsCommonKHz, Within: found.Within, Positions: []ssbPositionJSON{}}
-		for _, q := range found.Positions {
-			doc.Positions = append(doc.Positions, ssbPositionJSON{GSCN: q.GSCN, SSRefMHz: q.SSRefHz.MHz(), AbsoluteFrequencySSB: q.AbsoluteFrequencySSB,
-				OffsetToPointA: q.OffsetToPointA, KSSB: q.KSSB, LowMHz: q.LowHz.MHz(), HighMHz: q.HighHz.MHz()})
-		}
+		doc := report.BuildSSBPositions(found)
 		enc := json.NewEncoder(stdout)
 		enc.SetIndent("", "  ")
 		return enc.Encode(doc)
