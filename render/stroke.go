@@ -120,7 +120,12 @@ func strokeOf(p *pathData, w float64, dash []float64) *outline {
 			pts = append(pts, pts[0])
 		}
 		for _, piece := range dashes(pts, dash) {
-			strokePolyline(o, piece, false, hw)
+			// A dash that ends exactly on a corner repeats the corner; a
+			// zero-length segment has no direction, and its NaN normal
+			// once filled the whole image.
+			if piece = dedupe(piece); len(piece) > 1 {
+				strokePolyline(o, piece, false, hw)
+			}
 		}
 	})
 	return o

@@ -78,3 +78,25 @@ func TestStrokeArea(t *testing.T) {
 		t.Errorf("ring: %.2f px², want %.2f", got, want)
 	}
 }
+
+// A dash that ends exactly on a corner (a 10 px square, dashes of 10 on and
+// 5 off: the first dash runs along the whole first side) once gave a piece
+// that repeated the corner; its zero-length segment had a NaN normal, and the
+// PNG of a plan with CORESET#0 in its key came out almost wholly black.
+func TestStrokeDashEndingOnACorner(t *testing.T) {
+	p := pathOf(func(p *pathData) { p.rect(0, 0, 10, 10) })
+	o := strokeOf(&p, 1.5, []float64{10, 5})
+	if len(o.segs) == 0 {
+		t.Fatal("no outline")
+	}
+	for _, s := range o.segs {
+		for _, v := range []float64{s.p[0].x, s.p[0].y, s.p[1].x, s.p[1].y} {
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				t.Fatalf("outline segment %+v is not finite", s)
+			}
+		}
+	}
+	if math.IsNaN(o.min.x) || math.IsNaN(o.max.y) || o.min.x < -1 || o.max.x > 11 {
+		t.Errorf("outline bounds %v–%v; want within the square and half the width around it", o.min, o.max)
+	}
+}
