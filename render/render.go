@@ -36,7 +36,14 @@
 // data-occ-ssb, data-occ-start-tc and data-occ-end-tc (space-separated);
 // the initial BWPs' brackets beside the rail are <g class="gl-initial-dl">
 // and <g class="gl-initial-ul"> with data-low-hz, data-high-hz,
-// data-start-crb, data-size-prb and data-scs-khz.
+// data-start-crb, data-size-prb and data-scs-khz. The PRACH occasions
+// are <g class="gl-prach"> with data-index, data-format, data-table,
+// data-scs-hz and data-nrb-ra, and the occasions in the span, in time then
+// frequency order, as data-occ-start-tc, data-occ-end-tc, data-occ-low-hz,
+// data-occ-high-hz (Hz from point A), data-occ-valid ('1' or '0') and
+// data-occ-ssb (each occasion's SS/PBCH indices, comma-separated, "-" for
+// none), all space-separated; its paths are gl-prach-edge (valid) and
+// gl-prach-bad (not valid).
 //
 // Options.Window fixes the axes, so that figures of two plans share their
 // scales (FitWindow and Window.Union make one that holds both), and
@@ -208,8 +215,16 @@ func build(r grid.Result, opt Options) (*doc, error) {
 		raster = planSyncRaster(r, f, b.fromA)
 	}
 
+	var occasions *prachDrawing
+	if r.PRACH != nil && b.shows(LayerPRACH) {
+		occasions = planPRACH(*r.PRACH, f)
+	}
+
 	rows := partRows(r, details, tdds)
 	keys := keyRows(r, b, blocks, coreset, raster, f)
+	if occasions != nil {
+		keys = append(keys, prachKeys(*r.PRACH, occasions)...)
+	}
 	keyW := minKeyWidth
 	for _, k := range keys {
 		keyW = max(keyW, int(textWidth(k.text, 10, false))+40+1)
@@ -256,7 +271,7 @@ func build(r grid.Result, opt Options) (*doc, error) {
 	d.desc = clean(summary(r))
 
 	b.add(shape{d: pathOf(func(p *pathData) { p.rect(0, 0, float64(width), float64(height)) }), fill: solid(white)})
-	drawPlot(b, f, r, details, tdds, blocks, coreset)
+	drawPlot(b, f, r, details, tdds, blocks, coreset, occasions)
 	drawAxes(b, f, r.Channel, raster != nil)
 	if raster != nil {
 		drawSyncRaster(b, f, raster)
@@ -286,7 +301,7 @@ func plotFrameIn(r grid.Result, width int, win Window) frame {
 }
 
 // drawPlot draws the plot area inside the gl-plot group.
-func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDrawing, blocks *ssbDrawing, coreset *coresetDrawing) {
+func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDrawing, blocks *ssbDrawing, coreset *coresetDrawing, occasions *prachDrawing) {
 	lk := b.lk
 	data := []attr{
 		{"data-x", fmt.Sprint(f.x)}, {"data-y", fmt.Sprint(f.y)},
@@ -332,6 +347,9 @@ func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDr
 	}
 	if coreset != nil {
 		drawCoreset0(b, coreset)
+	}
+	if occasions != nil {
+		drawPRACH(b, occasions)
 	}
 	if blocks != nil {
 		drawSSB(b, blocks)

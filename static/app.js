@@ -724,6 +724,8 @@
         bits.push('CORESET#0 occasion for SSB ' + same.join(', ') + ': CRBs ' + c.startCrb + '–' + (c.startCrb + c.nrb - 1) + ' of ' + c.scsKHz + ' kHz, ' + c.symbols + ' symbols from ' + fmtUs(c.start[j]) + ' µs');
       }
     }
+    const ro = prachAt(f, cell.t, cell.hz);
+    if (ro) bits.push(ro);
     if (cell.also && cell.also.length) bits.push('overlaps ' + cell.also.map((i) => parts[i].name).join(', '));
     out.textContent = bits.join(' · ');
     setData(out, {
@@ -731,6 +733,32 @@
       startTc: String(s.start), cpTc: String(s.cp), crb: String(cell.crb),
     });
     mark(f, { p, s, crb: cell.crb });
+  }
+
+  // prachAt names the PRACH occasion under the pointer, from the figure's
+  // gl-prach group (render/prach.go: data-occ-* lists, one entry per
+  // occasion), or '' when there is none.
+  function prachAt(f, t, hz) {
+    if (f.prach === undefined) {
+      const g = f.plot.querySelector('.gl-prach');
+      f.prach = null;
+      if (g) {
+        const list = (k) => (g.dataset[k] || '').split(' ').filter((x) => x !== '');
+        f.prach = {
+          index: g.dataset.index, format: g.dataset.format, start: list('occStartTc').map(Number), end: list('occEndTc').map(Number),
+          low: list('occLowHz').map(Number), high: list('occHighHz').map(Number), valid: list('occValid'), ssb: list('occSsb'),
+        };
+      }
+    }
+    const p = f.prach;
+    if (!p) return '';
+    for (let i = 0; i < p.start.length; i++) {
+      if (t >= p.start[i] && t < p.end[i] && hz >= p.low[i] && hz < p.high[i]) {
+        return 'PRACH occasion (index ' + p.index + ', ' + p.format + ')' + (p.valid[i] === '1' ? ' valid' : ' not valid') +
+          (p.ssb[i] && p.ssb[i] !== '-' ? ', SSB ' + p.ssb[i] : '');
+      }
+    }
+    return '';
   }
 
   function setData(el, d) {

@@ -328,6 +328,31 @@ func diffTotals(a, b planform.State) []diffRow {
 			text(c.label, x, y)
 		}
 	}
+	if ra.PRACH != nil || rb.PRACH != nil {
+		// Random access (issue 16): rows only when a side has a prach block,
+		// so that comparisons without one read as before.
+		prach := func(r grid.Result) string {
+			if r.PRACH == nil {
+				return "none"
+			}
+			return fmt.Sprintf("index %d, format %s", r.PRACH.ConfigurationIndex, r.PRACH.Format)
+		}
+		per10 := func(r grid.Result) float64 {
+			if r.PRACH == nil {
+				return 0
+			}
+			return r.PRACH.ValidPer10ms
+		}
+		km := func(r grid.Result) float64 {
+			if r.PRACH == nil {
+				return 0
+			}
+			return r.PRACH.Range.Limit / 1000
+		}
+		text("PRACH configuration", prach(ra), prach(rb))
+		num("Valid PRACH occasions per 10 ms", per10(ra), per10(rb), 2)
+		num("PRACH cell range km", km(ra), km(rb), 2)
+	}
 	count := func(s planform.State, sev grid.Severity) float64 {
 		n := 0
 		for _, f := range s.Result.Findings {

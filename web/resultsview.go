@@ -38,6 +38,7 @@ type resultsView struct {
 	MIB                     *mibView // the MIB as bits; the planner's only
 	Fit                     *fitView
 	Timing                  *timingView // issue 17; nil without timing
+	PRACH                   *prachView  // issue 16; nil without prach
 }
 
 // cellView is the summary's cell and initial-access section (cellview.go
@@ -245,6 +246,7 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 	rv.SSB = ssbOf(res)
 	rv.Fit = fitOf(res)
 	rv.Timing = timingOf(res)
+	rv.PRACH = prachOf(res, query)
 	rv.Lattice = latticeOf(res)
 	return rv
 }

@@ -52,6 +52,7 @@ func (s *server) routes(r *chi.Mux) {
 		r.Post("/v1/asn1", api(s.apiASN1))       // a plan in, its TS 38.331 value notation out
 		r.Post("/v1/ssb", api(s.apiSSB))         // plan in, the GSCNs where its SS/PBCH block fits (band= to choose the band)
 		r.Post("/v1/initial", api(s.apiInitial)) // plan in, the ranked initial-access settings (band= to choose the band)
+		r.Post("/v1/prach", api(s.apiPRACH))     // plan JSON or YAML in, the PRACH finder's document out
 	})
 
 	r.Group(func(r chi.Router) {
@@ -71,6 +72,7 @@ func (s *server) routes(r *chi.Mux) {
 		r.Get("/compare/fragment", heavy(s.compareFragment))                  // the comparison's workspace alone, for live updates
 		r.Get("/compare/figure.svg", heavy(s.compareFigure("svg")))           // one side's figure on the shared scales: side=a or b
 		r.Get("/compare/figure.png", heavy(s.compareFigure("png")))           // the same as a PNG image
+		r.Get("/prach", heavy(s.prachFind))                                   // the PRACH configuration finder: every index that fits, each a link that applies it
 		r.Get("/plan.json", page(s.planFile("json")))                         // the plan as a JSON plan file
 		r.Get("/plan.yaml", page(s.planFile("yaml")))                         // the plan as a YAML plan file
 		r.Get("/symbols.csv", heavy(s.symbols))                               // one row per OFDM symbol of every partition, streamed

@@ -13,10 +13,10 @@ import (
 // of narration made from the plan's own numbers, and the parts of the
 // figure it highlights (the others are dimmed).
 type WalkStep struct {
-	Key       string // stable name of the step: "channel", "grids", "part-0", "align", "tdd", "timing", "switch", "ssb", "band", "initial", "findings"
+	Key       string // stable name of the step: "channel", "grids", "part-0", "align", "tdd", "timing", "switch", "ssb", "band", "initial", "prach", "findings"
 	Title     string
 	Narration []string
-	Highlight []string // figure targets: "channel", "guards", "carriers", "part:I", "align", "longcp", "tdd", "ssb", "raster", "coreset0"
+	Highlight []string // figure targets: "channel", "guards", "carriers", "part:I", "align", "longcp", "tdd", "ssb", "raster", "coreset0", "prach"
 }
 
 // Walkthrough turns a computed plan into the steps an engineer would walk
@@ -52,6 +52,9 @@ func Walkthrough(res grid.Result) []WalkStep {
 	}
 	if res.InitialAccess != nil {
 		steps = append(steps, initialStep(res))
+	}
+	if res.PRACH != nil {
+		steps = append(steps, prachStep(res))
 	}
 	steps = append(steps, findingsStep(res))
 	return steps
@@ -300,6 +303,25 @@ func initialStep(res grid.Result) WalkStep {
 	}
 	s.Narration = append(s.Narration, occ+".")
 	s.Narration = append(s.Narration, fmt.Sprintf("Until it is configured, the UE works in the initial downlink BWP, %d PRBs from CRB %d.", ia.InitialDL.SizePRB, ia.InitialDL.StartCRB))
+	return s
+}
+
+// prachStep is the random access step (issue 16): where the occasions
+// are, how many are valid, and the cell range.
+func prachStep(res grid.Result) WalkStep {
+	p := res.PRACH
+	s := WalkStep{Key: "prach", Title: "Random access", Highlight: []string{"prach"}}
+	valid := 0
+	for _, o := range p.Occasions {
+		if o.Valid {
+			valid++
+		}
+	}
+	s.Narration = append(s.Narration, fmt.Sprintf("prach-ConfigurationIndex %d of TS 38.211 Table %s is format %s at %s kHz; each occasion takes %d resource blocks of %d kHz, %d side by side (msg1-FDM).",
+		p.ConfigurationIndex, p.Table, p.Format, num(float64(p.SCSHz)/1000), p.NRBRA, p.PUSCHSCSKHz, p.FDM))
+	s.Narration = append(s.Narration, fmt.Sprintf("%d of the %d occasions listed are valid (TS 38.213 8.1): %s valid per 10 ms. The invalid ones are drawn dotted and crossed.",
+		valid, len(p.Occasions), num(p.ValidPer10ms)))
+	s.Narration = append(s.Narration, fmt.Sprintf("The preamble allows a cell of %s km, set by %s.", num(float64(int(p.Range.Limit/10+0.5))/100), rangeBinds(p)))
 	return s
 }
 

@@ -34,7 +34,7 @@ func highlightClass(targets []string) string {
 	classes := []string{}
 	for _, t := range targets {
 		switch t {
-		case "channel", "guards", "carriers", "align", "longcp", "tdd", "ssb", "raster", "coreset0":
+		case "channel", "guards", "carriers", "align", "longcp", "tdd", "ssb", "raster", "coreset0", "prach":
 			classes = append(classes, "gl-hl-"+t)
 		default:
 			if s, ok := strings.CutPrefix(t, "part:"); ok {

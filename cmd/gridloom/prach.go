@@ -9,30 +9,8 @@ import (
 	"text/tabwriter"
 
 	"gridloom/grid"
+	"gridloom/grid/report"
 )
-
-// prachJSON is the document of "gridloom prach -format json".
-type prachJSON struct {
-	Table  string           `json:"table"`
-	Tried  int              `json:"tried"`
-	Count  int              `json:"count"`
-	Groups []prachGroupJSON `json:"groups"`
-}
-
-type prachGroupJSON struct {
-	Format  string            `json:"format"`
-	Choices []prachChoiceJSON `json:"choices"`
-}
-
-type prachChoiceJSON struct {
-	ConfigurationIndex      int     `json:"configurationIndex"`
-	SCSKHz                  float64 `json:"scsKHz"`
-	OccasionsPer10ms        float64 `json:"occasionsPer10ms"`
-	CellRangeKm             float64 `json:"cellRangeKm"`
-	ConfigPeriodFrames      int     `json:"configPeriodFrames"`
-	AssociationPeriodFrames int     `json:"associationPeriodFrames"`
-	Warnings                int     `json:"warnings"`
-}
 
 // runPRACH lists the prach-ConfigurationIndex values whose occasions all
 // fit the plan's TDD pattern and SS/PBCH blocks, grouped by preamble
@@ -56,16 +34,7 @@ func runPRACH(ctx context.Context, args []string, stdin io.Reader, stdout, stder
 		return &exitError{code: exitBadInput, msg: err.Error()}
 	}
 	if *format == "json" {
-		doc := prachJSON{Table: found.Table, Tried: found.Tried, Count: found.Count(), Groups: []prachGroupJSON{}}
-		for _, g := range found.Groups {
-			jg := prachGroupJSON{Format: g.Format}
-			for _, c := range g.Choices {
-				jg.Choices = append(jg.Choices, prachChoiceJSON{ConfigurationIndex: c.ConfigurationIndex, SCSKHz: c.SCSKHz,
-					OccasionsPer10ms: c.OccasionsPer10ms, CellRangeKm: c.CellRangeKm, ConfigPeriodFrames: c.ConfigPeriodFrames,
-					AssociationPeriodFrames: c.AssociationPeriodFrames, Warnings: c.Warnings})
-			}
-			doc.Groups = append(doc.Groups, jg)
-		}
+		doc := report.BuildPRACHFinder(found)
 		enc := json.NewEncoder(stdout)
 		enc.SetIndent("", "  ")
 		if err := enc.Encode(doc); err != nil {

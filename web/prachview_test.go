@@ -1,0 +1,166 @@
+package web
+
+import (
+	"encoding/json"
+	"html"
+	"net/http"
+	"os"
+	"reflect"
+	"regexp"
+	"slices"
+	"strings"
+	"testing"
+
+	"gridloom/grid"
+	"gridloom/grid/planfile"
+	"gridloom/grid/report"
+	"gridloom/web/planform"
+)
+
+const prachDDDSU = "../testdata/prach/dddsu.yaml"
+
+func prachPlanFile(t *testing.T) ([]byte, grid.Plan) {
+	t.Helper()
+	data, err := os.ReadFile(prachDDDSU)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := planfile.DecodeYAML(data)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return data, p
+}
+
+// TestPRACHTable: the results show the random access table. Index 160 of
+// TS 38.211 Table 6.3.3.2-3 is format B4, one occasion in time in subframe
+// 9 of every frame (x = 1, y = 0); at 30 kHz that is slot 19, the U slot
+// of DDDSU (19 mod 5 = 4), so with msg1-FDM 2 both occasions are valid:
+// 2 valid occasions per 10 ms.
+func TestPRACHTable(t *testing.T) {
+	_, p := prachPlanFile(t)
+	srv, _ := newTestServer(t, testConfig(t))
+	r := get(t, srv, "/?"+planform.FormOf(p).Query())
+	wantStatus(t, r, http.StatusOK)
+	wantContains(t, "page", r.body, `data-testid="prach-table"`, `data-testid="prach-index">160<`, `data-testid="prach-format">B4<`,
+		`data-testid="prach-per10ms">2<`, "TS 38.211 Table 6.3.3.2-3", `data-testid="prach-find"`)
+	demo := get(t, srv, "/?"+planform.FormOf(testConfig(t).Plan).Query())
+	if strings.Contains(demo.body, "prach-table") {
+		t.Error("a plan without prach shows the random access table")
+	}
+}
+
+var prachApplyLink = regexp.MustCompile(`<a href="([^"]*)" data-testid="prach-apply-(\d+)"`)
+
+// TestPRACHFinderPage: the finder lists the indexes FindPRACH finds,
+// grouped by format, and each link applies its index to the plan, without
+// script.
+func TestPRACHFinderPage(t *testing.T) {
+	_, p := prachPlanFile(t)
+	found, err := grid.FindPRACH(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	srv, _ := newTestServer(t, testConfig(t))
+	r := get(t, srv, "/prach?"+planform.FormOf(p).Query())
+	wantStatus(t, r, http.StatusOK)
+	links := prachApplyLink.FindAllStringSubmatch(r.body, -1)
+	if len(links) != found.Count() || found.Count() == 0 {
+		t.Fatalf("%d links, FindPRACH finds %d", len(links), found.Count())
+	}
+	for _, g := range found.Groups {
+		wantContains(t, "finder", r.body, `data-testid="prach-format-`+g.Format+`"`)
+	}
+	var pick []string
+	for _, l := range links {
+		if l[2] != "160" {
+			pick = l
+			break
+		}
+	}
+	if pick == nil {
+		t.Fatal("no index but the plan's own fits")
+	}
+	applied := get(t, srv, html.UnescapeString(pick[1]))
+	wantStatus(t, applied, http.StatusOK)
+	wantContains(t, "applied", applied.body, `data-testid="prach-index">`+pick[2]+`<`)
+
+	bad := p.Clone()
+	bad.Partitions[0].SCSKHz = 7
+	r = get(t, srv, "/prach?"+planform.FormOf(bad).Query())
+	wantStatus(t, r, http.StatusUnprocessableEntity)
+	wantContains(t, "refusal", r.body, `data-testid="prach-find-error"`, "errors to fix")
+}
+
+// TestAPIPRACH: POST /api/v1/prach answers the document of "gridloom prach
+// -format json".
+func TestAPIPRACH(t *testing.T) {
+	data, p := prachPlanFile(t)
+	found, err := grid.FindPRACH(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	srv, _ := newTestServer(t, testConfig(t))
+	r := post(t, srv, "/api/v1/prach", "application/yaml", data)
+	wantStatus(t, r, http.StatusOK)
+	var got report.PRACHFinder
+	if err := json.Unmarshal([]byte(r.body), &got); err != nil {
+		t.Fatal(err)
+	}
+	if want := report.BuildPRACHFinder(found); !reflect.DeepEqual(got, want) {
+		t.Errorf("document %+v, want %+v", got, want)
+	}
+	r = post(t, srv, "/api/v1/prach", "application/json", []byte(`{"carrier":{}}`))
+	if r.StatusCode != http.StatusUnprocessableEntity && r.StatusCode != http.StatusBadRequest {
+		t.Errorf("a plan with errors: status %d, want 422 or 400", r.StatusCode)
+	}
+}
+
+// TestPRACHWalkAndCompare: a plan with prach gets a random access step
+// that highlights the prach layer, and the comparison rows for it; a plan
+// without prach gets neither. Index 160 is format B4 with 2 valid
+// occasions per 10 ms (see TestPRACHTable).
+func TestPRACHWalkAndCompare(t *testing.T) {
+	_, p := prachPlanFile(t)
+	steps := Walkthrough(grid.Compute(p))
+	i := slices.IndexFunc(steps, func(s WalkStep) bool { return s.Key == "prach" })
+	if i < 0 {
+		t.Fatal("no prach step")
+	}
+	text := strings.Join(steps[i].Narration, " ")
+	for _, want := range []string{"prach-ConfigurationIndex 160", "format B4 at 30 kHz", "2 valid per 10 ms"} {
+		if !strings.Contains(text, want) {
+			t.Errorf("the step does not say %q: %s", want, text)
+		}
+	}
+	if highlightClass(steps[i].Highlight) != "gl-hl gl-hl-prach" {
+		t.Errorf("highlight %q", highlightClass(steps[i].Highlight))
+	}
+	plain := testConfig(t).Plan
+	if slices.ContainsFunc(Walkthrough(grid.Compute(plain)), func(s WalkStep) bool { return s.Key == "prach" }) {
+		t.Error("a plan without prach has a prach step")
+	}
+
+	a := planform.NewState(planform.FormOf(p), nil)
+	q := p.Clone()
+	q.PRACH = nil
+	b := planform.NewState(planform.FormOf(q), nil)
+	rows := map[string]diffRow{}
+	for _, r := range diffTotals(a, b) {
+		rows[r.Label] = r
+	}
+	if r := rows["PRACH configuration"]; r.A != "index 160, format B4" || r.B != "none" || !r.Changed {
+		t.Errorf("PRACH configuration row %+v", r)
+	}
+	if r := rows["Valid PRACH occasions per 10 ms"]; r.A != "2.00" || r.B != "0.00" {
+		t.Errorf("occasions row %+v", r)
+	}
+	if _, ok := rows["PRACH cell range km"]; !ok {
+		t.Error("no cell range row")
+	}
+	for _, r := range diffTotals(b, b) {
+		if strings.Contains(r.Label, "PRACH") {
+			t.Errorf("two plans without prach get the row %q", r.Label)
+		}
+	}
+}
