@@ -130,6 +130,7 @@ func agree(q, p grid.Plan) error {
 		{"frequencyBandList", q.Carrier.Band, q2.Carrier.Band},
 		{"n-TimingAdvanceOffset", q.Carrier.NTAOffset, q2.Carrier.NTAOffset},
 		{"pdcch-ConfigSIB1, dmrs-TypeA-Position and the initial BWPs", q.InitialAccess, q2.InitialAccess},
+		{"rach-ConfigCommon", q.PRACH, q2.PRACH},
 	}
 	if q.Carrier.CenterMHz != nil {
 		checks = append(checks, pair{"absoluteFrequencyPointA", deref(q.Carrier.CenterMHz), deref(q2.Carrier.CenterMHz)})
@@ -462,14 +463,23 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 			}
 			if b := um["initialUplinkBWP"]; b != nil {
 				const bp = "UplinkConfigCommonSIB.initialUplinkBWP"
-				bm, err := rd.seq(b, bp, "genericParameters")
+				bm, err := rd.seq(b, bp, "genericParameters", "rach-ConfigCommon")
 				if err != nil {
 					return p, err
 				}
-				if ia.ul, err = rd.initialBWP(b, bm["genericParameters"], bp); err != nil {
-					return p, err
+				if rc := bm["rach-ConfigCommon"]; rc != nil {
+					if p.PRACH, err = rd.readRACH(rc, bp+".rach-ConfigCommon"); err != nil {
+						return p, err
+					}
 				}
-				ia.ulAt = b
+				// A value with rach-ConfigCommon alone places no initial
+				// uplink BWP: its random access sits in the plan's default.
+				if bm["genericParameters"] != nil || bm["rach-ConfigCommon"] == nil {
+					if ia.ul, err = rd.initialBWP(b, bm["genericParameters"], bp); err != nil {
+						return p, err
+					}
+					ia.ulAt = b
+				}
 			}
 			if f := um["frequencyInfoUL"]; f != nil {
 				fm, err := rd.seq(f, "FrequencyInfoUL-SIB", "scs-SpecificCarrierList")
