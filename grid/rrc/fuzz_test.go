@@ -2,12 +2,14 @@ package rrc_test
 
 import (
 	"math/rand"
+	"os"
 	"reflect"
 	"testing"
 
 	"gridloom/grid"
 	"gridloom/grid/demo"
 	"gridloom/grid/gscn"
+	"gridloom/grid/planfile"
 	"gridloom/grid/rrc"
 )
 
@@ -164,6 +166,23 @@ func FuzzDecode(f *testing.F) {
 	}
 	for _, d := range plans {
 		text, err := rrc.Encode(d.Plan)
+		if err != nil {
+			f.Fatal(err)
+		}
+		f.Add(text)
+	}
+	// The plans with random access, so that mutations reach
+	// rach-ConfigCommon.
+	for _, name := range []string{"fdd-long", "dddsu", "fr2"} {
+		b, err := os.ReadFile("../../testdata/prach/" + name + ".yaml")
+		if err != nil {
+			f.Fatal(err)
+		}
+		p, err := planfile.DecodeYAML(b)
+		if err != nil {
+			f.Fatal(err)
+		}
+		text, err := rrc.Encode(p)
 		if err != nil {
 			f.Fatal(err)
 		}
