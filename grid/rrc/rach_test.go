@@ -144,3 +144,36 @@ func TestRACHNoteContradiction(t *testing.T) {
 		t.Errorf("msg1-FDM three gave %v, want a refusal naming the allowed values", err)
 	}
 }
+
+// A text from elsewhere may carry ssb-perRACH-OccasionAndCB-PreamblesPerSSB:
+// its alternative gives ssbPerRachOccasion (TS 38.331 RACH-ConfigCommon:
+// oneHalf is one SS/PBCH block per two occasions), the preamble count
+// inside is skipped and listed, and a note that says otherwise is refused.
+func TestRACHReadsSSBPerOccasion(t *testing.T) {
+	p := loadPRACHPlan(t, "dddsu.yaml")
+	text, err := rrc.Encode(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := string(text)
+	const note = "-- gridloom prach.ssbPerRachOccasion: \"1\"\n"
+	if !strings.Contains(s, note) {
+		t.Fatalf("the text lacks the note %q:\n%s", note, s)
+	}
+	field := "msg1-SubcarrierSpacing kHz30,"
+	withField := strings.Replace(strings.Replace(s, note, "", 1), field, "ssb-perRACH-OccasionAndCB-PreamblesPerSSB oneHalf : n32,\n"+field, 1)
+	d, err := rrc.Decode([]byte(withField))
+	if err != nil {
+		t.Fatalf("Decode: %v\n%s", err, withField)
+	}
+	if got := d.Plan.PRACH.SSBPerRachOccasion; got != "1/2" {
+		t.Errorf("ssbPerRachOccasion read as %q, want 1/2", got)
+	}
+	if !strings.Contains(strings.Join(d.Skipped, " "), "ssb-perRACH-OccasionAndCB-PreamblesPerSSB.oneHalf") {
+		t.Errorf("the preamble count was not listed as skipped: %v", d.Skipped)
+	}
+	both := strings.Replace(s, field, "ssb-perRACH-OccasionAndCB-PreamblesPerSSB oneHalf : n32,\n"+field, 1)
+	if _, err := rrc.Decode([]byte(both)); err == nil || !strings.Contains(err.Error(), "ssb-perRACH-OccasionAndCB-PreamblesPerSSB") {
+		t.Errorf("a note of 1 against oneHalf gave %v, want a refusal naming the field", err)
+	}
+}
