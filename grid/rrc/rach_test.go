@@ -177,3 +177,25 @@ func TestRACHReadsSSBPerOccasion(t *testing.T) {
 		t.Errorf("a note of 1 against oneHalf gave %v, want a refusal naming the field", err)
 	}
 }
+
+// Indexes 256 to 262 travel in prach-ConfigurationIndex-v1610, which the UE
+// reads instead of prach-ConfigurationIndex (TS 38.331 RACH-ConfigGeneric).
+func TestRACHReadsIndexExtension(t *testing.T) {
+	text, err := rrc.Encode(loadPRACHPlan(t, "dddsu.yaml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := string(text)
+	ext := strings.Replace(s, "prach-ConfigurationIndex 160,", "prach-ConfigurationIndex 0,\nprach-ConfigurationIndex-v1610 258,", 1)
+	d, err := rrc.Decode([]byte(ext))
+	if err != nil {
+		t.Fatalf("Decode: %v", err)
+	}
+	if got := d.Plan.PRACH.ConfigurationIndex; got != 258 {
+		t.Errorf("prach-ConfigurationIndex-v1610 258 read as index %d", got)
+	}
+	bad := strings.Replace(s, "prach-ConfigurationIndex 160,", "prach-ConfigurationIndex-v1610 255,", 1)
+	if _, err := rrc.Decode([]byte(bad)); err == nil || !strings.Contains(err.Error(), "prach-ConfigurationIndex-v1610") {
+		t.Errorf("prach-ConfigurationIndex-v1610 255 gave %v, want a refusal naming the field", err)
+	}
+}
