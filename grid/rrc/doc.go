@@ -20,7 +20,12 @@
 //     ssb-PeriodicityServingCell and tdd-UL-DL-ConfigurationCommon; with
 //     initialAccess the initialDownlinkBWP (genericParameters, and
 //     pdcch-ConfigCommon's controlResourceSetZero and searchSpaceZero) and
-//     the initialUplinkBWP's genericParameters, as Compute places them.
+//     the initialUplinkBWP's genericParameters, as Compute places them;
+//     with prach the initialUplinkBWP's rach-ConfigCommon (rach-ConfigGeneric's
+//     prach-ConfigurationIndex, msg1-FDM, msg1-FrequencyStart and
+//     zeroCorrelationZoneConfig, msg1-SubcarrierSpacing for a short
+//     format the plan gives it for, restrictedSetConfig), alone in the
+//     initialUplinkBWP when the plan places none.
 //   - ServingCellConfigCommon: downlinkConfigCommon.frequencyInfoDL
 //     (absoluteFrequencySSB, frequencyBandList, absoluteFrequencyPointA,
 //     scs-SpecificCarrierList), n-TimingAdvanceOffset when the plan gives
@@ -54,7 +59,10 @@
 // environment, the channel bandwidth and range, how the plan gave an
 // initial BWP (a partition's name, startCrb and sizePrb), and which values the plan
 // left to their defaults (offsetToPointA and kSsb left to ssb.gscn, and
-// the GSCN itself) have no RRC field. They travel as comments
+// the GSCN itself; prach's msg1FDM and restrictedSetConfig) have no RRC
+// field, nor has prach.ssbPerRachOccasion alone:
+// ssb-perRACH-OccasionAndCB-PreamblesPerSSB pairs it with a count of
+// contention-based preambles the plan lacks, so that field is left out. They travel as comments
 // "-- gridloom key: value" (the value in JSON): at the top of the text for
 // plan keys (carrier.bandwidthMHz, ssb.bitmap, ...), at the top of a BWP
 // value for that partition's keys (name, layers, ...). Encode writes a note
@@ -70,7 +78,7 @@
 // fields. It reads MIB (or BCCH-BCH-Message), SIB1 or
 // ServingCellConfigCommonSIB, ServingCellConfigCommon, FrequencyInfoDL,
 // TDD-UL-DL-ConfigCommon, BWP-Downlink and BWP-Uplink, with the initial
-// BWPs and MIB fields above; other values and the
+// BWPs, rach-ConfigCommon and MIB fields above; other values and the
 // fields of these it has no use for are skipped and listed in
 // Decoded.Skipped. carrier.band is the first band of frequencyBandList
 // (FrequencyInfoDL-SIB and FrequencyInfoDL must start with the same band).

@@ -24,7 +24,7 @@ func jsonKeys(t reflect.Type) []string {
 // notation would lose: each key of grid.Plan, CarrierPlan, SSBPlan and
 // PartitionPlan must be a row of planKeys or partitionKeys, whose notes
 // carry it when no RRC field does. Adding a key (carrier.band,
-// ssb.gscn, initialAccess.*) means adding its row here and, if 38.331 has
+// ssb.gscn, initialAccess.*, prach.*) means adding its row here and, if 38.331 has
 // a field for it, writing and reading that field in build and read.
 func TestEveryPlanKeyTravels(t *testing.T) {
 	var plan []string
@@ -44,7 +44,7 @@ func TestEveryPlanKeyTravels(t *testing.T) {
 	}
 	for _, k := range jsonKeys(reflect.TypeFor[grid.Plan]()) {
 		switch k {
-		case "carrier", "ssb", "partitions", "initialAccess":
+		case "carrier", "ssb", "partitions", "initialAccess", "prach":
 			continue // their keys are checked below
 		}
 		check([]string{k}, "", plan)
@@ -52,5 +52,6 @@ func TestEveryPlanKeyTravels(t *testing.T) {
 	check(jsonKeys(reflect.TypeFor[grid.CarrierPlan]()), "carrier.", plan)
 	check(jsonKeys(reflect.TypeFor[grid.SSBPlan]()), "ssb.", plan)
 	check(jsonKeys(reflect.TypeFor[grid.InitialAccessPlan]()), "initialAccess.", plan)
+	check(jsonKeys(reflect.TypeFor[grid.PRACHPlan]()), "prach.", plan)
 	check(jsonKeys(reflect.TypeFor[grid.PartitionPlan]()), "", part)
 }

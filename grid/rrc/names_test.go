@@ -88,6 +88,7 @@ var enumType = map[string]string{
 	"subcarrierSpacing":          "SubcarrierSpacing",
 	"referenceSubcarrierSpacing": "SubcarrierSpacing",
 	"ssbSubcarrierSpacing":       "SubcarrierSpacing",
+	"msg1-SubcarrierSpacing":     "SubcarrierSpacing",
 }
 
 // exportPlans are the demo plans and plans that reach the other branches:
@@ -106,6 +107,9 @@ func exportPlans(t *testing.T) map[string]grid.Plan {
 		out[name] = p
 	}
 	for name, p := range initialPlans(t) {
+		out[name] = p
+	}
+	for name, p := range prachPlans(t) {
 		out[name] = p
 	}
 	return out
@@ -201,7 +205,7 @@ func TestWrittenNamesAreTS38331(t *testing.T) {
 		checked++
 	}
 	t.Logf("%d field names and %d enumeration values written, all in the names table", len(fields), checked)
-	for _, f := range []string{"n-TimingAdvanceOffset", "dmrs-TypeA-Position", "pdcch-ConfigSIB1", "pdcch-ConfigCommon", "controlResourceSetZero", "searchSpaceZero", "initialDownlinkBWP", "initialUplinkBWP"} {
+	for _, f := range []string{"n-TimingAdvanceOffset", "dmrs-TypeA-Position", "pdcch-ConfigSIB1", "pdcch-ConfigCommon", "controlResourceSetZero", "searchSpaceZero", "initialDownlinkBWP", "initialUplinkBWP", "rach-ConfigCommon", "rach-ConfigGeneric", "msg1-FDM", "msg1-SubcarrierSpacing", "restrictedSetConfig"} {
 		if !fields[f] {
 			t.Errorf("no plan writes %s; the check does not reach it", f)
 		}

@@ -42,6 +42,17 @@ func iaField(f func(ia *grid.InitialAccessPlan) any) func(p *grid.Plan) any {
 	}
 }
 
+// prachField reaches a key of prach; nil when the plan has none. A note on
+// such a key makes the block (applyNotes).
+func prachField(f func(r *grid.PRACHPlan) any) func(p *grid.Plan) any {
+	return func(p *grid.Plan) any {
+		if p.PRACH == nil {
+			return nil
+		}
+		return f(p.PRACH)
+	}
+}
+
 var planKeys = []planKey{
 	{"name", true, func(p *grid.Plan) any { return &p.Name }},
 	{"spanMs", false, func(p *grid.Plan) any { return &p.SpanMs }},
@@ -77,11 +88,17 @@ var planKeys = []planKey{
 	{"initialAccess.dmrsTypeAPosition", false, iaField(func(ia *grid.InitialAccessPlan) any { return &ia.DMRSTypeAPosition })},
 	{"initialAccess.initialDownlinkBWP", false, iaField(func(ia *grid.InitialAccessPlan) any { return &ia.InitialDownlinkBWP })},
 	{"initialAccess.initialUplinkBWP", false, iaField(func(ia *grid.InitialAccessPlan) any { return &ia.InitialUplinkBWP })},
-	// RACH-ConfigCommon (rach-ConfigGeneric's prach-ConfigurationIndex,
-	// msg1-FDM, msg1-FrequencyStart, zeroCorrelationZoneConfig, and
-	// msg1-SubcarrierSpacing, restrictedSetConfig, ssb-perRACH-Occasion) is
-	// not written yet; until it is, a note carries the whole prach block.
-	{"prach", false, func(p *grid.Plan) any { return &p.PRACH }},
+	// BWP-UplinkCommon's rach-ConfigCommon carries these; notes give back
+	// a default the plan left out (msg1FDM, restrictedSetConfig), a long
+	// format's spacing, and ssbPerRachOccasion, which 38.331 says only
+	// together with a count of contention-based preambles the plan lacks.
+	{"prach.configurationIndex", false, prachField(func(r *grid.PRACHPlan) any { return &r.ConfigurationIndex })},
+	{"prach.msg1SubcarrierSpacing", false, prachField(func(r *grid.PRACHPlan) any { return &r.Msg1SubcarrierSpacing })},
+	{"prach.msg1FDM", false, prachField(func(r *grid.PRACHPlan) any { return &r.Msg1FDM })},
+	{"prach.msg1FrequencyStart", false, prachField(func(r *grid.PRACHPlan) any { return &r.Msg1FrequencyStart })},
+	{"prach.zeroCorrelationZoneConfig", false, prachField(func(r *grid.PRACHPlan) any { return &r.ZeroCorrelationZoneConfig })},
+	{"prach.restrictedSetConfig", false, prachField(func(r *grid.PRACHPlan) any { return &r.RestrictedSetConfig })},
+	{"prach.ssbPerRachOccasion", false, prachField(func(r *grid.PRACHPlan) any { return &r.SSBPerRachOccasion })},
 }
 
 type partitionKey struct {
@@ -172,6 +189,10 @@ func applyNotes(doc *asn1v.Document, p *grid.Plan) (bool, error) {
 		dst := planKeys[i].ptr(p)
 		if dst == nil && strings.HasPrefix(key, "initialAccess.") {
 			p.InitialAccess = &grid.InitialAccessPlan{}
+			dst = planKeys[i].ptr(p)
+		}
+		if dst == nil && strings.HasPrefix(key, "prach.") {
+			p.PRACH = &grid.PRACHPlan{}
 			dst = planKeys[i].ptr(p)
 		}
 		if dst == nil {

@@ -130,6 +130,13 @@ func agree(q, p grid.Plan) error {
 		{"frequencyBandList", q.Carrier.Band, q2.Carrier.Band},
 		{"n-TimingAdvanceOffset", q.Carrier.NTAOffset, q2.Carrier.NTAOffset},
 		{"pdcch-ConfigSIB1, dmrs-TypeA-Position and the initial BWPs", q.InitialAccess, q2.InitialAccess},
+		{"rach-ConfigCommon", rachWritten(q.PRACH), rachWritten(q2.PRACH)},
+	}
+	// gridloom never writes ssb-perRACH-OccasionAndCB-PreamblesPerSSB, so
+	// the rebuilt text cannot have it; a text that does must agree with
+	// the note instead.
+	if q.PRACH != nil && q.PRACH.SSBPerRachOccasion != "" && p.PRACH != nil {
+		checks = append(checks, pair{"ssb-perRACH-OccasionAndCB-PreamblesPerSSB", q.PRACH.SSBPerRachOccasion, p.PRACH.SSBPerRachOccasion})
 	}
 	if q.Carrier.CenterMHz != nil {
 		checks = append(checks, pair{"absoluteFrequencyPointA", deref(q.Carrier.CenterMHz), deref(q2.Carrier.CenterMHz)})
@@ -462,14 +469,23 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 			}
 			if b := um["initialUplinkBWP"]; b != nil {
 				const bp = "UplinkConfigCommonSIB.initialUplinkBWP"
-				bm, err := rd.seq(b, bp, "genericParameters")
+				bm, err := rd.seq(b, bp, "genericParameters", "rach-ConfigCommon")
 				if err != nil {
 					return p, err
 				}
-				if ia.ul, err = rd.initialBWP(b, bm["genericParameters"], bp); err != nil {
-					return p, err
+				if rc := bm["rach-ConfigCommon"]; rc != nil {
+					if p.PRACH, err = rd.readRACH(rc, bp+".rach-ConfigCommon"); err != nil {
+						return p, err
+					}
 				}
-				ia.ulAt = b
+				// A value with rach-ConfigCommon alone places no initial
+				// uplink BWP: its random access sits in the plan's default.
+				if bm["genericParameters"] != nil || bm["rach-ConfigCommon"] == nil {
+					if ia.ul, err = rd.initialBWP(b, bm["genericParameters"], bp); err != nil {
+						return p, err
+					}
+					ia.ulAt = b
+				}
 			}
 			if f := um["frequencyInfoUL"]; f != nil {
 				fm, err := rd.seq(f, "FrequencyInfoUL-SIB", "scs-SpecificCarrierList")
@@ -1057,4 +1073,15 @@ func centre(p *grid.Plan, pointA *asn1v.Value, pointAHz grid.Hz) error {
 	mhz := float64(pointAHz+r.Channel.Center) / 1e6
 	p.Carrier.CenterMHz = &mhz
 	return nil
+}
+
+// rachWritten is the part of a PRACH plan that gridloom writes in
+// rach-ConfigCommon: all but ssbPerRachOccasion.
+func rachWritten(r *grid.PRACHPlan) *grid.PRACHPlan {
+	if r == nil {
+		return nil
+	}
+	c := *r
+	c.SSBPerRachOccasion = ""
+	return &c
 }

@@ -98,7 +98,7 @@ func build(given grid.Plan, r grid.Result) (*asn1v.Document, error) {
 		asn1v.F("scs-SpecificCarrierList", carriers),
 	)
 	noteBand(freqDL, r)
-	initDL, initUL, whyDL, whyUL := initialBWPs(r)
+	initDL, initUL, whyDL, whyUL := initialBWPs(r, rachValue(given.PRACH, r))
 	dl := asn1v.Seq(asn1v.F("frequencyInfoDL", freqDL), asn1v.F("initialDownlinkBWP", initDL)).
 		Note("not set by the plan: bcch-Config, pcch-Config")
 	if whyDL != "" {
@@ -340,10 +340,21 @@ func mibLeft(r grid.Result) string {
 // searchSpaceZero (TS 38.331 PDCCH-ConfigCommon: present in the initial
 // BWP, Cond InitialBWP-Only). A BWP that no RIV from its spacing's
 // offsetToCarrier says is left out, and why says so.
-func initialBWPs(r grid.Result) (dl, ul *asn1v.Value, whyDL, whyUL string) {
+func initialBWPs(r grid.Result, rach *asn1v.Value) (dl, ul *asn1v.Value, whyDL, whyUL string) {
+	// rach-ConfigCommon lives in the initial uplink BWP (TS 38.331
+	// BWP-UplinkCommon); without one the plan places, the value holds only
+	// rach-ConfigCommon and says that genericParameters is left out.
+	rachOnly := func() *asn1v.Value {
+		if rach == nil {
+			return nil
+		}
+		why := "genericParameters is left out: the plan has no initialAccess.initialUplinkBWP; its prach sits in " + r.PRACH.BWPSource
+		return asn1v.Seq(asn1v.F("rach-ConfigCommon", rach)).
+			Note(why, "not set by the plan: pusch-ConfigCommon, pucch-ConfigCommon")
+	}
 	ia := r.InitialAccess
 	if ia == nil {
-		return nil, nil, "not set by the plan: initialDownlinkBWP (the plan has no initialAccess)", ""
+		return nil, rachOnly(), "not set by the plan: initialDownlinkBWP (the plan has no initialAccess)", ""
 	}
 	generic := func(b grid.InitialBWP) *asn1v.Value {
 		var cp *asn1v.Value
@@ -371,11 +382,17 @@ func initialBWPs(r grid.Result) (dl, ul *asn1v.Value, whyDL, whyUL string) {
 	}
 	switch {
 	case ia.InitialUL == nil:
+		if rach != nil {
+			ul = rachOnly()
+		}
 	case ia.InitialUL.LocationAndBandwidth < 0:
 		whyUL = "initialUplinkBWP is left out: no locationAndBandwidth from its spacing's offsetToCarrier says it"
 	default:
-		ul = asn1v.Seq(asn1v.F("genericParameters", generic(*ia.InitialUL))).
-			Note("not set by the plan: rach-ConfigCommon, pusch-ConfigCommon, pucch-ConfigCommon")
+		left := "not set by the plan: rach-ConfigCommon, pusch-ConfigCommon, pucch-ConfigCommon"
+		if rach != nil {
+			left = "not set by the plan: pusch-ConfigCommon, pucch-ConfigCommon"
+		}
+		ul = asn1v.Seq(asn1v.F("genericParameters", generic(*ia.InitialUL)), asn1v.F("rach-ConfigCommon", rach)).Note(left)
 	}
 	return dl, ul, whyDL, whyUL
 }
