@@ -200,7 +200,7 @@ func TestBandwidths(t *testing.T) {
 
 // Every row of the raster tables must lie on the global raster inside its
 // band: first and last within [F_low, F_high] and last−first a whole number
-// of steps. This holds the transcription against Table 5.2-1.
+// of steps. This holds the copied table against Table 5.2-1.
 func TestRasterRowsInsideBands(t *testing.T) {
 	for _, b := range All() {
 		if len(b.Rasters) == 0 {

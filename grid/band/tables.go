@@ -111,7 +111,7 @@ type rasterRow struct {
 // tableFR1ChannelRaster is TS 38.101-1 V17.8.0 Table 5.4.2.3-1, the
 // applicable NR-ARFCN per operating band in FR1. Bands with a 15 kHz
 // channel raster carry two rows, ΔF_Raster 15 and 30 kHz; n90 carries a
-// 100 kHz row besides. The table's notes that this transcription holds
+// 100 kHz row besides. The table's notes that this copy holds
 // elsewhere: n28's extra NR-ARFCN (extraARFCNs) and the bands whose
 // NR-ARFCNs are listed one by one per channel bandwidth (listedARFCNBands).
 var tableFR1ChannelRaster = [...]rasterRow{
@@ -227,7 +227,7 @@ var extraARFCNs = [...]extraARFCN{
 // listedARFCNBands are the shared-spectrum bands whose applicable
 // NR-ARFCNs TS 38.101-1 V17.8.0 Table 5.4.2.3-1 (and its continuation,
 // Table 5.4.2.3-2) lists one by one for each channel bandwidth. This
-// transcription holds only their first–<1>–last span; a centre on it may
+// copy holds only their first–<1>–last span; a centre on it may
 // still be one the per-bandwidth lists leave out.
 var listedARFCNBands = [...]int{46, 96, 102}
 

@@ -164,7 +164,7 @@ func TestTablesAgainstSRSRAN(t *testing.T) {
 }
 
 // TestTablesShape checks what the spec's own structure requires of every
-// row, so a slip of transcription that both copies would not catch (they
+// row, so a slip in copying that both copies would not catch (they
 // only cover what they carry) still shows.
 func TestTablesShape(t *testing.T) {
 	for _, s := range []Spectrum{FR1Paired, FR1Unpaired, FR2Unpaired} {
