@@ -503,21 +503,6 @@ func dirString(ds []grid.SymbolDir) string {
 	return string(b)
 }
 
-// criterionLabel names a rule of the numerology fit for a column header.
-func criterionLabel(name string) string {
-	switch name {
-	case "cp-vs-delay-spread":
-		return "σ / CP"
-	case "scs-vs-coherence-bandwidth":
-		return "SCS / B_c"
-	case "doppler-vs-scs":
-		return "f_d / SCS"
-	case "slot-vs-coherence-time":
-		return "slot / T_c"
-	}
-	return name
-}
-
 func sortedKeys[V any](m map[string]V) []string {
 	return slices.Sorted(maps.Keys(m))
 }

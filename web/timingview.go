@@ -258,27 +258,6 @@ func meanWorst(m grid.MeanWorst) string {
 	return strconv.FormatFloat(m.Mean, 'f', 1, 64) + " / " + strconv.FormatFloat(m.Worst, 'f', 1, 64)
 }
 
-// adviceLabel names a criterion of the advice for a column header.
-func adviceLabel(name string) string {
-	switch name {
-	case "cp-vs-delay-spread":
-		return "σ / CP"
-	case "scs-vs-coherence-bandwidth":
-		return "SCS / B_c"
-	case "doppler-vs-scs":
-		return "f_d / SCS"
-	case "slot-vs-coherence-time":
-		return "slot / T_c"
-	case "latency-target":
-		return "latency / target"
-	case "cell-radius-vs-guard":
-		return "radius / guard's"
-	case "cell-radius-vs-timing-advance":
-		return "radius / TA's"
-	}
-	return name
-}
-
 func itoa(n int) string { return strconv.Itoa(n) }
 
 func boolAttr(b bool) string { return strconv.FormatBool(b) }
