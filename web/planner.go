@@ -5,13 +5,10 @@ import (
 	"io"
 	"net/http"
 	"net/url"
-	"path/filepath"
 	"slices"
 	"strings"
 
 	"github.com/go-chi/chi/v5"
-
-	"bytes"
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
@@ -196,26 +193,14 @@ func readUpload(r *http.Request) (grid.Plan, []string, int, []string) {
 	if len(data) > planfile.MaxSize {
 		return fail(http.StatusRequestEntityTooLarge, fmt.Sprintf("%s is larger than 1 MiB; a plan file may be at most 1 MiB.", hdr.Filename))
 	}
-	ext := strings.ToLower(filepath.Ext(hdr.Filename))
-	if ext == ".svg" || (!slices.Contains(planExts, ext) && looksLikeXML(data)) {
+	if planfile.MayBeFigure(hdr.Filename, data) {
 		inner, err := render.PlanFromSVG(data)
 		if err != nil {
 			return fail(http.StatusBadRequest, fmt.Sprintf("%s cannot be opened as a plan: %s", hdr.Filename, sentence(err)))
 		}
 		data = inner
 	}
-	var plan grid.Plan
-	var notes []string
-	switch ext {
-	case ".json":
-		plan, err = planfile.DecodeJSON(data)
-	case ".yaml", ".yml":
-		plan, err = planfile.DecodeYAML(data)
-	case ".asn", ".asn1":
-		plan, notes, err = planfile.DecodeValueNotation(data)
-	default:
-		plan, notes, err = planfile.DecodeNotes(data)
-	}
+	plan, notes, err := planfile.DecodeFile(hdr.Filename, data)
 	if err != nil {
 		msgs := []string{fmt.Sprintf("%s is not a plan gridloom can open:", hdr.Filename)}
 		for _, fe := range fieldErrors(err) {
@@ -226,10 +211,6 @@ func readUpload(r *http.Request) (grid.Plan, []string, int, []string) {
 	return plan, notes, http.StatusOK, nil
 }
 
-// planExts are the extensions of plan files, which are never read as a
-// saved figure whatever they hold.
-var planExts = []string{".json", ".yaml", ".yml", ".asn", ".asn1"}
-
 // sentence is an error's text as the end of a sentence: with its full stop.
 func sentence(err error) string {
 	s := err.Error()
@@ -237,12 +218,4 @@ func sentence(err error) string {
 		return s
 	}
 	return s + "."
-}
-
-// looksLikeXML reports whether data opens as an XML document does: with
-// "<" after any byte-order mark and white space. No plan file does.
-func looksLikeXML(data []byte) bool {
-	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
-	data = bytes.TrimLeft(data, " \t\r\n")
-	return len(data) > 0 && data[0] == '<'
 }

@@ -1,13 +1,11 @@
 package main
 
 import (
-	"bytes"
 	"context"
 	"flag"
 	"fmt"
 	"io"
 	"os"
-	"path/filepath"
 	"slices"
 	"strconv"
 	"strings"
@@ -104,26 +102,14 @@ func readPlan(ctx context.Context, path string, stdin io.Reader, notes io.Writer
 		// The reading goroutine stays blocked; the program is about to exit.
 		return grid.Plan{}, interrupted(ctx, "while reading "+displayName(path))
 	}
-	var p grid.Plan
 	var err error
-	ext := strings.ToLower(filepath.Ext(path))
-	if ext == ".svg" || (ext != ".json" && ext != ".yaml" && ext != ".yml" && ext != ".asn" && ext != ".asn1" && looksLikeXML(data)) {
+	if planfile.MayBeFigure(path, data) {
 		// A figure gridloom exported carries its plan, as on the page.
 		if data, err = render.PlanFromSVG(data); err != nil {
 			return grid.Plan{}, &exitError{code: exitBadInput, msg: fmt.Sprintf("%s cannot be opened as a plan: %s.", displayName(path), strings.TrimSuffix(err.Error(), "."))}
 		}
 	}
-	var said []string
-	switch ext {
-	case ".json":
-		p, err = planfile.DecodeJSON(data)
-	case ".yaml", ".yml":
-		p, err = planfile.DecodeYAML(data)
-	case ".asn", ".asn1":
-		p, said, err = planfile.DecodeValueNotation(data)
-	default:
-		p, said, err = planfile.DecodeNotes(data)
-	}
+	p, said, err := planfile.DecodeFile(path, data)
 	for _, n := range said {
 		fmt.Fprintf(notes, "%s: note: %s\n", displayName(path), n)
 	}
@@ -131,13 +117,6 @@ func readPlan(ctx context.Context, path string, stdin io.Reader, notes io.Writer
 		return grid.Plan{}, &exitError{code: exitBadInput, msg: fmt.Sprintf("%s: %v", displayName(path), err)}
 	}
 	return p, nil
-}
-
-// looksLikeXML reports whether data opens as an XML document does: with
-// "<" after any byte order mark and white space. No plan file does.
-func looksLikeXML(data []byte) bool {
-	data = bytes.TrimLeft(bytes.TrimPrefix(data, []byte("\ufeff")), " \t\r\n")
-	return len(data) > 0 && data[0] == '<'
 }
 
 func readFileLimited(path string) ([]byte, error) {

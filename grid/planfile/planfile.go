@@ -19,6 +19,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"path/filepath"
 	"reflect"
 	"slices"
 	"strconv"
@@ -116,6 +117,43 @@ func DecodeNotes(data []byte) (grid.Plan, []string, error) {
 	}
 	p, err := DecodeYAML(data)
 	return p, nil, err
+}
+
+// Extensions are the file name endings of plan files: a file so named is
+// read in that format, and never taken for a saved figure.
+var Extensions = []string{".json", ".yaml", ".yml", ".asn", ".asn1"}
+
+// DecodeFile reads a plan file called name, as the command line and the
+// page's Open both do: the extension picks the format, and a file with any
+// other name is read as DecodeNotes reads it.
+func DecodeFile(name string, data []byte) (grid.Plan, []string, error) {
+	switch strings.ToLower(filepath.Ext(name)) {
+	case ".json":
+		p, err := DecodeJSON(data)
+		return p, nil, err
+	case ".yaml", ".yml":
+		p, err := DecodeYAML(data)
+		return p, nil, err
+	case ".asn", ".asn1":
+		return DecodeValueNotation(data)
+	}
+	return DecodeNotes(data)
+}
+
+// MayBeFigure reports whether a file called name holding data may be a
+// figure gridloom exported, which carries its plan: one named .svg, or one
+// not named as a plan file that opens as an XML document does ("<" after
+// any byte order mark and white space; no plan file does).
+func MayBeFigure(name string, data []byte) bool {
+	ext := strings.ToLower(filepath.Ext(name))
+	if ext == ".svg" {
+		return true
+	}
+	if slices.Contains(Extensions, ext) {
+		return false
+	}
+	data = bytes.TrimLeft(bytes.TrimPrefix(data, bom), " \t\r\n")
+	return len(data) > 0 && data[0] == '<'
 }
 
 // DecodeValueNotation reads TS 38.331 value notation into a plan (see

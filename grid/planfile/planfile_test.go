@@ -357,3 +357,34 @@ func TestEncodeYAMLInvalidUTF8(t *testing.T) {
 		t.Errorf("names %q, %q (the caller's plan %q); want %q, %q and the caller's plan untouched", q.Name, q.Partitions[0].Name, p.Name, "a\uFFFDb", "\uFFFD")
 	}
 }
+
+// A file's name picks its format, and only a file not named as a plan file
+// may be taken for a saved figure: the command line and the page's Open
+// both read files this way.
+func TestDecodeFileAndMayBeFigure(t *testing.T) {
+	yamlPlan := []byte("carrier: {bandwidthMHz: 40}\npartitions: [{name: a, scsKHz: 30, sizePrb: 106}]\n")
+	if _, _, err := DecodeFile("plan.json", yamlPlan); err == nil {
+		t.Error("YAML in a .json file was read; the extension should have chosen JSON")
+	}
+	if p, _, err := DecodeFile("plan.YML", yamlPlan); err != nil || p.Carrier.BandwidthMHz != 40 {
+		t.Errorf("plan.YML: %+v, %v", p.Carrier, err)
+	}
+	if p, _, err := DecodeFile("-", yamlPlan); err != nil || len(p.Partitions) != 1 {
+		t.Errorf("standard input: %+v, %v", p, err)
+	}
+	for _, c := range []struct {
+		name, data string
+		want       bool
+	}{
+		{"fig.svg", "anything", true},
+		{"fig.SVG", "", true},
+		{"download", "\ufeff \n<svg>", true},
+		{"plan.yaml", "<svg>", false},
+		{"plan.asn1", "<svg>", false},
+		{"plan", "name: x", false},
+	} {
+		if got := MayBeFigure(c.name, []byte(c.data)); got != c.want {
+			t.Errorf("MayBeFigure(%q, %q) = %v, want %v", c.name, c.data, got, c.want)
+		}
+	}
+}
