@@ -27,7 +27,7 @@ func TestFigureGoldenPRACH(t *testing.T) {
 // TestPRACHDDDSU checks the occasions where TS 38.211 puts them. Index 160
 // of Table 6.3.3.2-3 (FR1, unpaired) is format B4, x = 1, y = 0, subframe
 // 9, starting symbol 2, one PRACH slot in the subframe (the row as
-// grid/prach/testdata/oai_prach_config.tsv has it): at 30 kHz that is the
+// testdata/reference/prach/oai_prach_config.tsv has it): at 30 kHz that is the
 // second slot of subframe 9 (TS 38.211 5.3.2), slot 19, symbol 2, which
 // starts 9.5 ms plus two 30 kHz symbols (the first with the 16κ longer
 // prefix, TS 38.211 5.3.1) after the frame: 18677760 + 71168 + 70144 =

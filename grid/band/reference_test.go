@@ -14,7 +14,7 @@ import (
 // first other line names the columns, the rest are rows.
 func readTSV(t *testing.T, name string) []map[string]string {
 	t.Helper()
-	f, err := os.Open("testdata/" + name)
+	f, err := os.Open("../../testdata/reference/band/" + name)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -95,7 +95,7 @@ func (c *tally) done(what string) {
 
 // TestOperatingBandsAgainstOAI holds TS 38.101-1/-2 Table 5.2-1 and the
 // raster offsets and steps of Table 5.4.2.3-1 against openairinterface5g's
-// nr_bandtable (testdata/oai_nr_bandtable.tsv).
+// nr_bandtable (testdata/reference/band/oai_nr_bandtable.tsv).
 func TestOperatingBandsAgainstOAI(t *testing.T) {
 	c := &tally{t: t, seen: map[string]bool{}, settled: map[string]string{
 		// TS 38.101-1 Table 5.2-1: n89 is the SUL band 824–849 MHz, and
@@ -162,7 +162,7 @@ func TestOperatingBandsAgainstOAI(t *testing.T) {
 }
 
 // TestChannelRasterAgainstSrsRAN holds TS 38.101-1 Table 5.4.2.3-1 against
-// srsRAN's nr_band_table_fr1 (testdata/srsran_nr_band_table_fr1.tsv).
+// srsRAN's nr_band_table_fr1 (testdata/reference/band/srsran_nr_band_table_fr1.tsv).
 func TestChannelRasterAgainstSrsRAN(t *testing.T) {
 	c := &tally{t: t, seen: map[string]bool{}, settled: map[string]string{}}
 	rowsHere := 0
@@ -217,7 +217,7 @@ func TestChannelRasterAgainstSrsRAN(t *testing.T) {
 }
 
 // TestChannelBandwidthsAgainstRel15 holds Table 5.3.5-1 against a Release 15
-// (V15.7.0) copy (testdata/uecapabilityparser_bwtablenr_rel15.tsv). A
+// (V15.7.0) copy (testdata/reference/band/uecapabilityparser_bwtablenr_rel15.tsv). A
 // Release 17 table must hold every bandwidth the Release 15 one has; the
 // bandwidths added since are listed below, each one as remembered from the
 // later releases (no Release 17 copy of this table was found to hold them

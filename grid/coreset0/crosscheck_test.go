@@ -10,7 +10,7 @@ import (
 )
 
 // The tables are compared cell by cell with copies kept by two open-source
-// base stations (values only; see the headers of the files under testdata).
+// base stations (values only; see the headers of the files under testdata/reference/coreset0).
 // Every difference must be listed in settled with the reading of TS 38.213
 // that decides it, and every listed difference must still occur.
 
@@ -75,7 +75,7 @@ func contains(list []string, s string) bool {
 // blank nor a # comment.
 func readTSV(t *testing.T, name string) [][]string {
 	t.Helper()
-	f, err := os.Open("testdata/" + name)
+	f, err := os.Open("../../testdata/reference/coreset0/" + name)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -206,7 +206,7 @@ func atoi(t *testing.T, s string) int {
 }
 
 // TestTableAgainstCopies compares TableFR1 and TableFR2 cell by cell with
-// the independent copies under testdata/ and accounts for every
+// the independent copies under testdata/reference/gscn/ and accounts for every
 // difference. Each difference expected here is settled in a comment.
 func TestTableAgainstCopies(t *testing.T) {
 	compared, differ := 0, 0
@@ -214,7 +214,7 @@ func TestTableAgainstCopies(t *testing.T) {
 	note := func(s string) { diffs = append(diffs, s) }
 
 	// GSCN first, step, last: OpenAirInterface's sync_raster[].
-	oai := readCopy(t, "testdata/oai-sync-raster.tsv")
+	oai := readCopy(t, "../../testdata/reference/gscn/oai-sync-raster.tsv")
 	seen := map[string]bool{}
 	for _, r := range oai {
 		key := r.band + "/" + strconv.Itoa(r.scs)
@@ -241,7 +241,7 @@ func TestTableAgainstCopies(t *testing.T) {
 	}
 
 	// Pattern (case): srsRAN's FR1 table.
-	for _, r := range readCopy(t, "testdata/srsran-ssb-case.tsv") {
+	for _, r := range readCopy(t, "../../testdata/reference/gscn/srsran-ssb-case.tsv") {
 		compared++
 		e, ok := Lookup(r.band, r.scs)
 		if !ok || e.Case != r.fields[0] {
@@ -251,7 +251,7 @@ func TestTableAgainstCopies(t *testing.T) {
 	}
 
 	// The irregular sets: srsRAN's lists, element by element.
-	for _, r := range readCopy(t, "testdata/srsran-gscn-lists.tsv") {
+	for _, r := range readCopy(t, "../../testdata/reference/gscn/srsran-gscn-lists.tsv") {
 		e, _ := Lookup(r.band, 30)
 		if len(e.List) != len(r.fields) {
 			differ++

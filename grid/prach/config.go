@@ -130,8 +130,8 @@ func (c Config) InFrame(sfn int) bool {
 // cc28174): the only full text of the tables at hand; no V17.x.0 text was, so the pin is
 // to that version. The indexes are those Release 17 signals (0–255, and
 // 256–262 of Table 6.3.3.2-3 since Release 16). The rows are checked cell by
-// cell against two independent copies, testdata/oai_prach_config.tsv and
-// testdata/srsran_prach_config.tsv, which agree with this text on every cell
+// cell against two independent copies, testdata/reference/prach/oai_prach_config.tsv and
+// testdata/reference/prach/srsran_prach_config.tsv, which agree with this text on every cell
 // they carry but one (see TestTablesAgainstOAI and TestTablesAgainstSRSRAN
 // for the counts).
 

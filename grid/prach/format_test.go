@@ -9,9 +9,9 @@ import (
 )
 
 // TestNCSAndAllocationAgainstCopies compares Tables 6.3.3.1-5, 6.3.3.1-6,
-// 6.3.3.1-7 and 6.3.3.2-1 with the copies in testdata/ncs_and_rb.tsv.
+// 6.3.3.1-7 and 6.3.3.2-1 with the copies in testdata/reference/prach/ncs_and_rb.tsv.
 func TestNCSAndAllocationAgainstCopies(t *testing.T) {
-	f, err := os.Open("testdata/ncs_and_rb.tsv")
+	f, err := os.Open("../../testdata/reference/prach/ncs_and_rb.tsv")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -121,11 +121,11 @@ func TestFormatNames(t *testing.T) {
 }
 
 // TestPreamblesAgainstCopy compares Tables 6.3.3.1-1 and 6.3.3.1-2 with the
-// srsRAN copy in testdata/preambles.tsv. The long formats were also read
+// srsRAN copy in testdata/reference/prach/preambles.tsv. The long formats were also read
 // against the text of TS 38.211 V18.7.0; the short formats' N_u and N_CP are
 // pictures in that text, so this copy is their only outside check.
 func TestPreamblesAgainstCopy(t *testing.T) {
-	f, err := os.Open("testdata/preambles.tsv")
+	f, err := os.Open("../../testdata/reference/prach/preambles.tsv")
 	if err != nil {
 		t.Fatal(err)
 	}

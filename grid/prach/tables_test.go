@@ -126,11 +126,11 @@ func compareCopy(t *testing.T, rows []copyRow) (cells int, diffs []string) {
 }
 
 // TestTablesAgainstOAI compares Tables 6.3.3.2-2/-3/-4 with the
-// OpenAirInterface copy (testdata/oai_prach_config.tsv). Neither copy has
+// OpenAirInterface copy (testdata/reference/prach/oai_prach_config.tsv). Neither copy has
 // the Release 16 rows 256–262 of Table 6.3.3.2-3; TestOccasionsIndex261
 // works one of them by hand.
 func TestTablesAgainstOAI(t *testing.T) {
-	cells, diffs := compareCopy(t, readCopy(t, "testdata/oai_prach_config.tsv"))
+	cells, diffs := compareCopy(t, readCopy(t, "../../testdata/reference/prach/oai_prach_config.tsv"))
 	// The one difference: Table 6.3.3.2-3 index 95, where the spec text (and
 	// the srsRAN copy) has x = 2 and the OAI copy 16 (see table6332_3).
 	want := []string{"6.3.3.2-3 95 x 2 16"}
@@ -141,11 +141,11 @@ func TestTablesAgainstOAI(t *testing.T) {
 }
 
 // TestTablesAgainstSRSRAN compares the three tables with the srsRAN Project
-// copy (testdata/srsran_prach_config.tsv), which leaves the rows of formats
+// copy (testdata/reference/prach/srsran_prach_config.tsv), which leaves the rows of formats
 // B1, C2, A1/B1, A2/B2 and A3/B3 unimplemented; those rows compare the
 // format only.
 func TestTablesAgainstSRSRAN(t *testing.T) {
-	rows := readCopy(t, "testdata/srsran_prach_config.tsv")
+	rows := readCopy(t, "../../testdata/reference/prach/srsran_prach_config.tsv")
 	full := 0
 	for _, r := range rows {
 		if !r.missing {

@@ -7,7 +7,7 @@
 // # What is written
 //
 // Encode writes, with the IE, field and enumeration names of TS 38.331
-// Release 17 (V17.4.0; testdata/ts38331-names.tsv lists each, checked
+// Release 17 (V17.4.0; testdata/reference/rrc/ts38331-names.tsv lists each, checked
 // against srsRAN_Project's code generated from the same version):
 //
 //   - MIB: ssb-SubcarrierOffset (k_SSB's 4 least significant bits), in

@@ -8,7 +8,7 @@ import (
 )
 
 // The ASN.1 names of TS 38.331 (Release 17, V17.4.0) that gridloom
-// reads and writes; testdata/ts38331-names.tsv lists them with their IEs
+// reads and writes; testdata/reference/rrc/ts38331-names.tsv lists them with their IEs
 // and TestWrittenNamesAreTS38331 checks every name the writer emits.
 
 // scsNames is SubcarrierSpacing (TS 38.331 6.3.2), kHz15 … kHz960-v1700.

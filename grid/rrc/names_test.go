@@ -51,7 +51,7 @@ func readTSV(t *testing.T, path string) []row {
 	return rows
 }
 
-// spec is testdata/ts38331-names.tsv: for each IE, its components, and for
+// spec is testdata/reference/rrc/ts38331-names.tsv: for each IE, its components, and for
 // each component the enumeration values.
 type spec struct {
 	ies        map[string]bool
@@ -61,7 +61,7 @@ type spec struct {
 
 func loadSpec(t *testing.T) spec {
 	s := spec{ies: map[string]bool{}, components: map[string]bool{}, enums: map[string][]string{}}
-	for _, r := range readTSV(t, "testdata/ts38331-names.tsv") {
+	for _, r := range readTSV(t, "../../testdata/reference/rrc/ts38331-names.tsv") {
 		s.ies[r.ie] = true
 		if r.kind != "-" {
 			s.components[r.kind] = true
@@ -230,7 +230,7 @@ func TestNamesAgainstSrsRAN(t *testing.T) {
 		enums      [][]string
 	}
 	other := map[string]*ieNames{}
-	for _, r := range readTSV(t, "testdata/srsran_names.tsv") {
+	for _, r := range readTSV(t, "../../testdata/reference/rrc/srsran_names.tsv") {
 		n := other[r.ie]
 		if n == nil {
 			n = &ieNames{}
@@ -246,7 +246,7 @@ func TestNamesAgainstSrsRAN(t *testing.T) {
 		}
 	}
 	cells, differ := 0, 0
-	for _, r := range readTSV(t, "testdata/ts38331-names.tsv") {
+	for _, r := range readTSV(t, "../../testdata/reference/rrc/ts38331-names.tsv") {
 		n := other[r.ie]
 		if n == nil {
 			t.Errorf("IE %s is not in the srsRAN copy", r.ie)

@@ -12,7 +12,7 @@ import (
 // blank and do not start with '#', split at tabs.
 func readTSV(t *testing.T, name string) [][]string {
 	t.Helper()
-	f, err := os.Open("testdata/" + name)
+	f, err := os.Open("../../testdata/reference/timing/" + name)
 	if err != nil {
 		t.Fatal(err)
 	}
