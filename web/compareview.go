@@ -112,7 +112,7 @@ func buildCompare(c planform.Compare, figs [2]drawn) compareView {
 	v := compareView{Query: q, Status: statusOf(c.Invalid()),
 		Scale: scaleNote(c.Sides[0].Result, c.Sides[1].Result),
 		Swap:  "/compare?" + c.SwapQuery(),
-		Cross: crossLinkOf(c),
+		Cross: crossLinkOf(c), // computed once; markConflicts draws it on both figures
 	}
 	if c.LinkErr != "" {
 		v.Notes = []note{{Severity: string(grid.Error), Text: c.LinkErr}}
@@ -122,7 +122,7 @@ func buildCompare(c planform.Compare, figs [2]drawn) compareView {
 		st := c.Sides[i]
 		sv := compareSide{Key: side, Label: strings.ToUpper(side), Name: strings.TrimSpace(st.Plan.Name),
 			Placed: len(st.Result.Partitions), Total: len(st.Plan.Partitions),
-			Figure: markConflicts(figs[i].SVG, c, i), FigureErr: figs[i].Failed,
+			Figure: markConflicts(figs[i].SVG, v.Cross, i), FigureErr: figs[i].Failed,
 			Planner: "/?" + st.Query(),
 			SVG:     "/compare/figure.svg?" + planform.JoinQuery("side="+side, q, "download=1"),
 			PNG:     "/compare/figure.png?" + planform.JoinQuery("side="+side, q, "download=1"),

@@ -13,7 +13,8 @@ import (
 // The comparison's synchronised TDD (issue 17): both plans on absolute
 // time with B's frame offset, the cross-link conflicts between them, their
 // total per 10 ms, and a strip that marks them along one cycle. Built from
-// planform.Compare.CrossLink; compareview.go only calls crossLinkOf.
+// planform.Compare.CrossLink, computed once per page: compareview.go calls
+// crossLinkOf and hands its view to markConflicts for both figures.
 
 // stripWidth is the width of the conflict strip's viewBox.
 const stripWidth = 1000
@@ -27,6 +28,10 @@ type crossLinkView struct {
 	Total          string // µs per cycle
 	PerTenMs       string // µs per 10 ms
 	Ticks          []stripTick
+
+	// x is the computed list, which markConflicts draws on the figures;
+	// nil when there is none.
+	x *grid.CrossLink
 }
 
 type conflictRow struct {
@@ -56,6 +61,7 @@ func crossLinkOf(c planform.Compare) crossLinkView {
 		v.Why = why
 		return v
 	}
+	v.x = &x
 	v.Offset, v.Cycle = usOf(float64(x.Offset)), usOf(float64(x.Cycle))
 	v.Total, v.PerTenMs = usOf(float64(x.Total)), usOf(x.PerTenMs)
 	pos := func(t grid.Tc) float64 { return float64(t) * stripWidth / float64(x.Cycle) }
@@ -75,16 +81,19 @@ func crossLinkOf(c planform.Compare) crossLinkView {
 
 var plotGroupAttrs = regexp.MustCompile(`<g id="[ab]-gl-plot"[^>]* data-x="([0-9.]+)" data-y="([0-9.]+)" data-w="([0-9.]+)" data-h="([0-9.]+)" data-span-tc="([0-9]+)"`)
 
-// markConflicts draws the cross-link conflicts on side i's figure (0 for
+// markConflicts draws the cross-link conflicts of v on side i's figure (0 for
 // A, 1 for B) as translucent bands over its plot, across its whole time
 // span: on A's time as listed, on B's shifted back by the frame offset.
 // The figure is returned unchanged when it has no plot geometry or there
 // is nothing to mark. The downloads keep the plain figure.
-func markConflicts(svg string, c planform.Compare, side int) string {
-	x, _, ok := c.CrossLink()
+func markConflicts(svg string, v crossLinkView, side int) string {
+	x := v.x
+	if x == nil || len(x.Conflicts) == 0 {
+		return svg
+	}
 	end := strings.LastIndex(svg, "</svg>")
 	m := plotGroupAttrs.FindStringSubmatch(svg)
-	if !ok || len(x.Conflicts) == 0 || end < 0 || m == nil {
+	if end < 0 || m == nil {
 		return svg
 	}
 	var g [4]float64
