@@ -339,3 +339,67 @@ func BenchmarkFindPRACH(b *testing.B) {
 		})
 	}
 }
+
+// Worked by hand: the association pattern period of TS 38.213 clause 8.1,
+// the least whole number of association periods after which the pattern
+// between PRACH occasions and SS/PBCH block indexes repeats, at most 160 ms.
+func TestPRACHAssociationPatternPeriod(t *testing.T) {
+	// Paired spectrum validates every occasion, so the pattern is the
+	// association period: 4 frames for fdd-long.yaml (TestPRACHLongFormatFDD).
+	r := grid.Compute(prachPlan(t, "fdd-long.yaml"))
+	if p := r.PRACH; p == nil || p.AssociationPatternPeriodFrames != 4 || p.PatternNote != "" {
+		t.Errorf("fdd-long: %+v; want a pattern period of 4 frames and no note", p)
+	}
+	// dddsu.yaml sends its blocks every 20 ms, but its occasions fill slot
+	// 19, all uplink and valid in every frame, blocks or not: the pattern is
+	// the association period, 2 frames.
+	r = grid.Compute(prachPlan(t, "dddsu.yaml"))
+	if p := r.PRACH; p == nil || p.AssociationPeriodFrames != 2 || p.AssociationPatternPeriodFrames != 2 || p.PatternNote != "" {
+		t.Errorf("dddsu: %+v; want association and pattern periods of 2 frames", p)
+	}
+	// The same carrier without tdd-UL-DL-ConfigurationCommon and index 167
+	// of Table 6.3.3.2-3: B4, x = 1, every subframe, two PRACH slots per
+	// subframe, so at 30 kHz an occasion in symbols 0–11 of each of the 20
+	// slots. The four blocks of case C at 30 kHz sit in symbols 2–5 and
+	// 8–11 of slots 0 and 1 (TS 38.213 4.1: {4, 8, 16, 20} + 28n, n = 0 … at
+	// the half frame, here symbols 2, 8, 16, 22). Without a TDD pattern an
+	// occasion is valid if no block follows it in its PRACH slot and it
+	// starts N_gap = 2 symbols after the last block symbol (TS 38.213 8.1,
+	// Table 8.1-2): slots 0 and 1 have blocks after symbol 0, invalid; slot
+	// 2 starts at symbol 28, two symbols after the last block symbol (25),
+	// valid, and so are slots 3 to 19. A frame with blocks has 18 valid
+	// occasions, 36 with msg1-FDM 2, against 4 for a mapping cycle: the
+	// association period is one frame. The blocks come every 20 ms, so frame
+	// 1 has none, and there all 20 are valid: the frames repeat every 2,
+	// and the pattern period is lcm(1, 2) = 2 frames.
+	plan := prachPlan(t, "dddsu.yaml")
+	plan.TDD = nil
+	plan.PRACH.ConfigurationIndex = 167
+	r = grid.Compute(plan)
+	p := r.PRACH
+	if p == nil || r.HasErrors() {
+		t.Fatalf("no PRACH, findings %v", r.Findings)
+	}
+	valid := 0
+	for _, o := range p.Occasions {
+		if o.Valid {
+			valid++
+		}
+	}
+	if p.AssociationPeriodFrames != 1 || len(p.Occasions) != 40 || valid != 36 {
+		t.Errorf("association period %d frames, %d occasions, %d valid; want 1, 40, 36", p.AssociationPeriodFrames, len(p.Occasions), valid)
+	}
+	if p.AssociationPatternPeriodFrames != 2 || !strings.Contains(p.PatternNote, "every 20 ms") || !strings.Contains(p.PatternNote, "2 more occasion") {
+		t.Errorf("pattern period %d frames, note %q; want 2 frames, blocks every 20 ms and 2 more occasions", p.AssociationPatternPeriodFrames, p.PatternNote)
+	}
+	// Blocks every 10 ms: every frame alike again, the pattern is one frame.
+	plan.SSB.PeriodMs = 10
+	if p := grid.Compute(plan).PRACH; p == nil || p.AssociationPatternPeriodFrames != 1 {
+		t.Errorf("blocks every 10 ms: %+v; want a pattern period of 1 frame", p)
+	}
+	// Blocks every 160 ms: 16 frames, the longest the clause allows.
+	plan.SSB.PeriodMs = 160
+	if p := grid.Compute(plan).PRACH; p == nil || p.AssociationPatternPeriodFrames != 16 {
+		t.Errorf("blocks every 160 ms: %+v; want a pattern period of 16 frames", p)
+	}
+}

@@ -20,8 +20,11 @@ import (
 type prachView struct {
 	Index, Format, Table, SCS, NRBRA string
 	Per10ms, Valid, Association      string
-	Range, Binds                     string
-	FindHref                         string
+	// Pattern is the association pattern period (TS 38.213 8.1), with
+	// what makes it longer than the association period.
+	Pattern      string
+	Range, Binds string
+	FindHref     string
 }
 
 // prachOf builds the table, nil for a plan without PRACH; query is the
@@ -47,10 +50,24 @@ func prachOf(res grid.Result, query string) *prachView {
 		Per10ms:     prachNum(p.ValidPer10ms),
 		Valid:       fmt.Sprintf("%d of %d", valid, len(p.Occasions)),
 		Association: assoc,
+		Pattern:     patternOf(p),
 		Range:       prachNum(float64(int(p.Range.Limit/10+0.5))/100) + " km",
 		Binds:       rangeBinds(p),
 		FindHref:    "/prach?" + query,
 	}
+}
+
+// patternOf writes the association pattern period and, when it is longer
+// than the association period, why.
+func patternOf(p *grid.PRACH) string {
+	if p.AssociationPatternPeriodFrames == 0 {
+		return "none: no association period"
+	}
+	s := strconv.Itoa(10*p.AssociationPatternPeriodFrames) + " ms"
+	if p.PatternNote != "" {
+		s += ": " + p.PatternNote
+	}
+	return s
 }
 
 // rangeBinds names the limit that sets the cell range: the smallest of the
@@ -85,8 +102,8 @@ type prachFindGroup struct {
 }
 
 type prachFindRow struct {
-	Index, SCS, Per10ms, Range, Period, Association, Warnings string
-	Href, Current                                             string
+	Index, SCS, Per10ms, Range, Period, Association, Pattern, Warnings string
+	Href, Current                                                      string
 }
 
 // prachFind answers GET /prach: the finder on the plan of the query. A
@@ -119,8 +136,9 @@ func (s *server) prachFind(w http.ResponseWriter, r *http.Request) error {
 			q.Set("prach.idx", idx)
 			row := prachFindRow{Index: idx, SCS: prachNum(c.SCSKHz) + " kHz", Per10ms: prachNum(c.OccasionsPer10ms),
 				Range: prachNum(c.CellRangeKm) + " km", Period: strconv.Itoa(10*c.ConfigPeriodFrames) + " ms",
-				Association: strconv.Itoa(10*c.AssociationPeriodFrames) + " ms", Warnings: strconv.Itoa(c.Warnings),
-				Href: "/?" + q.Encode() + "#h-prach"}
+				Association: strconv.Itoa(10*c.AssociationPeriodFrames) + " ms", Pattern: strconv.Itoa(10*c.AssociationPatternPeriodFrames) + " ms",
+				Warnings: strconv.Itoa(c.Warnings),
+				Href:     "/?" + q.Encode() + "#h-prach"}
 			if idx == cur {
 				row.Current = "the plan's index"
 			}

@@ -36,14 +36,17 @@ func prachPlanFile(t *testing.T) ([]byte, grid.Plan) {
 // TS 38.211 Table 6.3.3.2-3 is format B4, one occasion in time in subframe
 // 9 of every frame (x = 1, y = 0); at 30 kHz that is slot 19, the U slot
 // of DDDSU (19 mod 5 = 4), so with msg1-FDM 2 both occasions are valid:
-// 2 valid occasions per 10 ms.
+// 2 valid occasions per 10 ms. The four blocks take two frames
+// (association period 20 ms), and since slot 19 is valid with or without
+// blocks the association pattern period is the same 20 ms (TS 38.213 8.1).
 func TestPRACHTable(t *testing.T) {
 	_, p := prachPlanFile(t)
 	srv, _ := newTestServer(t, testConfig(t))
 	r := get(t, srv, "/?"+planform.FormOf(p).Query())
 	wantStatus(t, r, http.StatusOK)
 	wantContains(t, "page", r.body, `data-testid="prach-table"`, `data-testid="prach-index">160<`, `data-testid="prach-format">B4<`,
-		`data-testid="prach-per10ms">2<`, "TS 38.211 Table 6.3.3.2-3", `data-testid="prach-find"`)
+		`data-testid="prach-per10ms">2<`, "TS 38.211 Table 6.3.3.2-3", `data-testid="prach-find"`,
+		`data-testid="prach-pattern">20 ms<`)
 	demo := get(t, srv, "/?"+planform.FormOf(testConfig(t).Plan).Query())
 	if strings.Contains(demo.body, "prach-table") {
 		t.Error("a plan without prach shows the random access table")

@@ -54,7 +54,8 @@ func TestPRACHCommandRowsApply(t *testing.T) {
 		Groups []struct {
 			Format  string `json:"format"`
 			Choices []struct {
-				ConfigurationIndex int `json:"configurationIndex"`
+				ConfigurationIndex             int `json:"configurationIndex"`
+				AssociationPatternPeriodFrames int `json:"associationPatternPeriodFrames"`
 			} `json:"choices"`
 		} `json:"groups"`
 	}
@@ -81,6 +82,8 @@ func TestPRACHCommandRowsApply(t *testing.T) {
 			r := grid.Compute(q)
 			if r.HasErrors() || r.PRACH == nil || r.PRACH.Format != g.Format {
 				t.Errorf("index %d (format %s): findings %v", c.ConfigurationIndex, g.Format, r.Findings)
+			} else if c.AssociationPatternPeriodFrames != r.PRACH.AssociationPatternPeriodFrames || c.AssociationPatternPeriodFrames == 0 {
+				t.Errorf("index %d: pattern period %d frames in the finder, %d in the plan", c.ConfigurationIndex, c.AssociationPatternPeriodFrames, r.PRACH.AssociationPatternPeriodFrames)
 			}
 		}
 	}
