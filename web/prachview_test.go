@@ -167,3 +167,47 @@ func TestPRACHWalkAndCompare(t *testing.T) {
 		}
 	}
 }
+
+var (
+	prachSectionFind = regexp.MustCompile(`<a href="([^"]*)" data-testid="find-g-prach"`)
+	prachFindingFind = regexp.MustCompile(`<a class="gl-goto" href="([^"]*)" data-testid="finding-find"`)
+)
+
+// TestPRACHFinderFromErrors: a prach block with an error leaves the results
+// without the Random access table; the form's random access section and the
+// prach finding then lead to the finder, with the plan as it stands (index
+// 300 kept in the query), and the finder lists the indexes that fit.
+func TestPRACHFinderFromErrors(t *testing.T) {
+	_, p := prachPlanFile(t)
+	p.PRACH.ConfigurationIndex = 300 // Table 6.3.3.2-3 defines 0 to 262
+	srv, _ := newTestServer(t, testConfig(t))
+	r := get(t, srv, "/?"+planform.FormOf(p).Query())
+	wantStatus(t, r, http.StatusUnprocessableEntity) // the page of a plan with errors
+	if strings.Contains(r.body, `data-testid="prach-table"`) {
+		t.Fatal("a prach block with errors still shows the random access table")
+	}
+	wantContains(t, "page", r.body, `data-code="prach"`)
+	sec := prachSectionFind.FindStringSubmatch(r.body)
+	fnd := prachFindingFind.FindStringSubmatch(r.body)
+	if sec == nil || fnd == nil {
+		t.Fatalf("finder links: section %v, finding %v", sec, fnd)
+	}
+	for what, href := range map[string]string{"section": html.UnescapeString(sec[1]), "finding": html.UnescapeString(fnd[1])} {
+		if !strings.HasPrefix(href, "/prach?") || !strings.Contains(href, "prach.idx=300") {
+			t.Errorf("%s link %q: want the finder with the plan's state (prach.idx=300)", what, href)
+			continue
+		}
+		f := get(t, srv, href)
+		wantStatus(t, f, http.StatusOK)
+		wantContains(t, what+" finder", f.body, `data-testid="prach-find-head"`, `data-testid="prach-apply-160"`)
+	}
+	// Every prach finding has the link and no other finding has: the plan
+	// as it is (a prach warning) and the demo plan (findings, none prach).
+	_, ok := prachPlanFile(t)
+	for _, q := range []string{planform.FormOf(p).Query(), planform.FormOf(ok).Query(), planform.FormOf(testConfig(t).Plan).Query()} {
+		b := get(t, srv, "/?"+q).body
+		if n, m := len(prachFindingFind.FindAllString(b, -1)), strings.Count(b, `data-code="prach"`); n != m {
+			t.Errorf("%d finder links on findings, %d prach findings", n, m)
+		}
+	}
+}
