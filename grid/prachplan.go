@@ -664,3 +664,49 @@ func occasionsPerCycle(n prach.SSBPerRO, blocks int) int {
 	}
 	return (blocks + n.Num - 1) / n.Num
 }
+
+// PRACHSpan is how much of the association period a figure shows: the
+// figure's time axis runs from the start of frame 0 over the plan's span,
+// at most MaxSpanMs.
+type PRACHSpan struct {
+	// Shown counts the occasions (time × msg1-FDM) that start within the
+	// span; Total those of the association period (PRACH.Occasions).
+	Shown, Total int
+	// Next is the first occasion that starts at or after the span's end;
+	// nil when every occasion is shown.
+	Next *PRACHOccasion
+	// FitMs is the least span, at most MaxSpanMs, that holds every
+	// occasion of frame 0 whole (0 when frame 0 has none), and FitShown
+	// how many occasions that span shows.
+	FitMs, FitShown int
+}
+
+// InSpan tells what a figure over spanMs milliseconds from frame 0 shows of
+// p's occasions. A configuration whose occasions lie in other frames only
+// (n_SFN mod x = y with y ≠ 0), or whose association period is longer than
+// a frame, can never be shown whole: the figure starts at frame 0.
+func (p *PRACH) InSpan(spanMs int) PRACHSpan {
+	span := Tc(spanMs) * TcPerSubframe
+	out := PRACHSpan{Total: len(p.Occasions)}
+	var end0 Tc
+	for i, o := range p.Occasions {
+		if o.Start < span {
+			out.Shown++
+		} else if out.Next == nil {
+			out.Next = &p.Occasions[i]
+		}
+		if o.Frame == 0 {
+			end0 = max(end0, o.End)
+		}
+	}
+	if end0 > 0 {
+		out.FitMs = min(int((end0+TcPerSubframe-1)/TcPerSubframe), MaxSpanMs)
+		fit := Tc(out.FitMs) * TcPerSubframe
+		for _, o := range p.Occasions {
+			if o.Start < fit {
+				out.FitShown++
+			}
+		}
+	}
+	return out
+}

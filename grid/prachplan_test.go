@@ -403,3 +403,54 @@ func TestPRACHAssociationPatternPeriod(t *testing.T) {
 		t.Errorf("blocks every 160 ms: %+v; want a pattern period of 16 frames", p)
 	}
 }
+
+// Worked by hand: what a figure span from frame 0 shows of the occasions.
+func TestPRACHInSpan(t *testing.T) {
+	// dddsu.yaml: the span defaults to the TDD period rounded up, 3 ms; the
+	// occasions start at 18 819 072 Tc = 9.571 ms of frames 0 and 1 (two
+	// side by side in each, TestPRACHShortFormatDDDSU): none shown, the
+	// next is frame 0's first, and a 10 ms span (the end of frame 0, where
+	// they end) shows frame 0's two of the four.
+	r := grid.Compute(prachPlan(t, "dddsu.yaml"))
+	if r.Plan.SpanMs != 3 {
+		t.Fatalf("span %d ms, want 3", r.Plan.SpanMs)
+	}
+	s := r.PRACH.InSpan(r.Plan.SpanMs)
+	if s.Shown != 0 || s.Total != 4 || s.Next == nil || s.Next.Frame != 0 || s.Next.Start != 18819072 || s.FitMs != 10 || s.FitShown != 2 {
+		t.Errorf("dddsu: %+v; want 0 of 4 shown, next frame 0 at 18819072 Tc, fit 10 ms showing 2", s)
+	}
+	if s := r.PRACH.InSpan(10); s.Shown != 2 || s.Next == nil || s.Next.Frame != 1 {
+		t.Errorf("dddsu at 10 ms: %+v; want 2 shown, next in frame 1", s)
+	}
+	// fdd-long.yaml: no TDD, span 1 ms; the occasions hold subframe 4 of
+	// frames 0–3 (TestPRACHLongFormatFDD): none shown, next at 4 ms of
+	// frame 0; a 5 ms span holds frame 0's whole (it ends at 5 ms).
+	r = grid.Compute(prachPlan(t, "fdd-long.yaml"))
+	s = r.PRACH.InSpan(r.Plan.SpanMs)
+	if r.Plan.SpanMs != 1 || s.Shown != 0 || s.Total != 4 || s.Next == nil || s.Next.Start != 4*1966080 || s.FitMs != 5 || s.FitShown != 1 {
+		t.Errorf("fdd-long (span %d ms): %+v; want 0 of 4, next at 7864320 Tc, fit 5 ms showing 1", r.Plan.SpanMs, s)
+	}
+	// Index 1 of Table 6.3.3.2-2: format 0, x = 16, y = 1, subframe 4
+	// (TS 38.211 Table 6.3.3.2-2): occasions only in frames 1, 17, …; the
+	// association period (4 blocks, one occasion per 160 ms) cannot map
+	// the four blocks within 160 ms, so the occasions are those of one
+	// configuration period: one, in frame 1 at 14 ms. No span from frame 0
+	// shows it.
+	p := prachPlan(t, "fdd-long.yaml")
+	p.PRACH.ConfigurationIndex = 1
+	p.SpanMs = 10
+	r = grid.Compute(p)
+	if r.PRACH == nil {
+		t.Fatalf("no PRACH: %v", r.Findings)
+	}
+	s = r.PRACH.InSpan(r.Plan.SpanMs)
+	if s.Shown != 0 || s.Total != 1 || s.Next == nil || s.Next.Frame != 1 || s.Next.Start != 14*1966080 || s.FitMs != 0 || s.FitShown != 0 {
+		t.Errorf("x = 16, y = 1: %+v; want 0 of 1, next in frame 1 at 14 ms, no fit", s)
+	}
+	// Every occasion shown: nothing next.
+	r = grid.Compute(prachPlan(t, "fdd-long.yaml"))
+	r.PRACH.Occasions = r.PRACH.Occasions[:1]
+	if s := r.PRACH.InSpan(10); s.Shown != 1 || s.Next != nil {
+		t.Errorf("one occasion in 10 ms: %+v; want it shown and nothing next", s)
+	}
+}

@@ -25,6 +25,10 @@ type prachView struct {
 	Pattern      string
 	Range, Binds string
 	FindHref     string
+	// Span says what the figure's span leaves out of the association
+	// period ("" when it shows every occasion); SpanHref and SpanLink offer
+	// the span that shows the most of it ("" when no longer span helps).
+	Span, SpanHref, SpanLink string
 }
 
 // prachOf builds the table, nil for a plan without PRACH; query is the
@@ -44,7 +48,7 @@ func prachOf(res grid.Result, query string) *prachView {
 	if p.AssociationPeriodFrames > 0 {
 		assoc = strconv.Itoa(10*p.AssociationPeriodFrames) + " ms"
 	}
-	return &prachView{
+	v := &prachView{
 		Index: strconv.Itoa(p.ConfigurationIndex), Format: p.Format, Table: "TS 38.211 Table " + p.Table,
 		SCS: prachNum(float64(p.SCSHz)/1000) + " kHz", NRBRA: strconv.Itoa(p.NRBRA),
 		Per10ms:     prachNum(p.ValidPer10ms),
@@ -55,6 +59,45 @@ func prachOf(res grid.Result, query string) *prachView {
 		Binds:       rangeBinds(p),
 		FindHref:    "/prach?" + query,
 	}
+	v.Span, v.SpanHref, v.SpanLink = spanOf(p, res.Plan.SpanMs, query)
+	return v
+}
+
+// spanOf says what the figure, from the start of frame 0 over spanMs, shows
+// of the occasions, and which span (the plan's span key) shows more. The
+// span stops at grid.MaxSpanMs, so an association period longer than a
+// frame, or occasions only in later frames (n_SFN mod x = y, y ≠ 0), are
+// never all in the figure; the sentence says so and where to find them.
+func spanOf(p *grid.PRACH, spanMs int, query string) (text, href, link string) {
+	s := p.InSpan(spanMs)
+	if s.Next == nil {
+		return "", "", ""
+	}
+	period, what := p.AssociationPeriodFrames, "association period"
+	if period == 0 {
+		period, what = p.ConfigPeriodFrames, "configuration period"
+	}
+	n := s.Next
+	text = fmt.Sprintf("The figure spans 0–%d ms and shows %d of the %d occasions of the %d ms %s; the next is in frame %d, slot %d, from %s ms, outside the span 0–%d ms.",
+		spanMs, s.Shown, s.Total, 10*period, what, n.Frame, n.Slot, prachNum(float64(int64(n.Start)*1000/int64(grid.TcPerSubframe))/1000), spanMs)
+	switch {
+	case s.FitMs > spanMs:
+		q, _ := url.ParseQuery(query)
+		q.Set("span", strconv.Itoa(s.FitMs))
+		href = "/?" + q.Encode() + "#h-prach"
+		link = fmt.Sprintf("Show 0–%d ms", s.FitMs)
+		if s.FitShown == s.Total {
+			link += ", one whole " + what
+		} else {
+			link += fmt.Sprintf(", frame 0's %d occasions", s.FitShown)
+			text += fmt.Sprintf(" The figure starts at frame 0 and spans at most %d ms, so no span shows the whole %d ms; the result document (gridloom render -format json, or POST /api/v1/render) lists every occasion.", grid.MaxSpanMs, 10*period)
+		}
+	case s.FitMs == 0:
+		text += fmt.Sprintf(" Frame 0 holds none of them (n_SFN mod %d is not one of the index's y), and the figure starts at frame 0 and spans at most %d ms, so no span shows them; the result document (gridloom render -format json, or POST /api/v1/render) lists every occasion.", p.ConfigPeriodFrames, grid.MaxSpanMs)
+	default:
+		text += fmt.Sprintf(" The rest lie in later frames: the figure starts at frame 0 and spans at most %d ms; the result document (gridloom render -format json, or POST /api/v1/render) lists every occasion.", grid.MaxSpanMs)
+	}
+	return text, href, link
 }
 
 // patternOf writes the association pattern period and, when it is longer

@@ -211,3 +211,41 @@ func TestPRACHFinderFromErrors(t *testing.T) {
 		}
 	}
 }
+
+var prachSpanFit = regexp.MustCompile(`<a href="([^"]*)" data-testid="prach-span-fit">([^<]*)</a>`)
+
+// TestPRACHSpanHidesOccasions: dddsu.yaml's span defaults to 3 ms (the
+// 2.5 ms TDD period rounded up) while its occasions start at 9.571 ms of
+// frames 0 and 1 (grid's TestPRACHInSpan): the table says none of the four
+// is shown and where the next is, and offers 0–10 ms, which shows frame
+// 0's two; at 10 ms it still says the association period (20 ms) is longer
+// than any span, and offers nothing longer.
+func TestPRACHSpanHidesOccasions(t *testing.T) {
+	_, p := prachPlanFile(t)
+	srv, _ := newTestServer(t, testConfig(t))
+	r := get(t, srv, "/?"+planform.FormOf(p).Query())
+	wantStatus(t, r, http.StatusOK)
+	wantContains(t, "3 ms", html.UnescapeString(r.body), `data-testid="prach-span"`,
+		"The figure spans 0–3 ms and shows 0 of the 4 occasions of the 20 ms association period; the next is in frame 0, slot 19, from 9.571 ms, outside the span 0–3 ms.")
+	m := prachSpanFit.FindStringSubmatch(r.body)
+	if m == nil || html.UnescapeString(m[2]) != "Show 0–10 ms, frame 0's 2 occasions" || !strings.Contains(html.UnescapeString(m[1]), "span=10") {
+		t.Fatalf("span link %q; want one to span=10 showing frame 0's 2 occasions", m)
+	}
+	wide := get(t, srv, html.UnescapeString(m[1]))
+	wantStatus(t, wide, http.StatusOK)
+	wantContains(t, "10 ms", html.UnescapeString(wide.body), "shows 2 of the 4 occasions", "the next is in frame 1, slot 19", "spans at most 10 ms")
+	if strings.Contains(wide.body, `data-testid="prach-span-fit"`) {
+		t.Error("at 10 ms a longer span is still offered")
+	}
+	// Every occasion in the span: no sentence. With one block sent, the two
+	// occasions of frame 0 map it (association period 10 ms, TS 38.213
+	// Table 8.1-1) and a 10 ms span holds both.
+	one := p.Clone()
+	one.SSB.Bitmap = "10000000"
+	one.SpanMs = 10
+	r = get(t, srv, "/?"+planform.FormOf(one).Query())
+	wantStatus(t, r, http.StatusOK)
+	if strings.Contains(r.body, `data-testid="prach-span"`) {
+		t.Errorf("every occasion in the span, yet the table says some are not: %s", html.UnescapeString(r.body[strings.Index(r.body, `data-testid="prach-span"`):][:300]))
+	}
+}
