@@ -100,6 +100,7 @@ func FindPRACH(plan Plan) (PRACHFound, error) {
 		if !ok {
 			continue
 		}
+		pr.finder = true
 		p := buildPRACH(&fs, pr, &res, bwp, source, layout, seen)
 		if p == nil || slices.ContainsFunc(fs, func(f Finding) bool { return f.Severity == Error }) ||
 			slices.ContainsFunc(p.Occasions, func(o PRACHOccasion) bool { return !o.Valid }) {

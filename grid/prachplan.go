@@ -142,6 +142,9 @@ type prachParams struct {
 	zcz   int
 	set   prach.RestrictedSet
 	n     prach.SSBPerRO
+	// finder marks the finder's run, which drops an index with an invalid
+	// occasion and so needs no association pattern period for it.
+	finder bool
 }
 
 const prachField = "prach"
@@ -553,7 +556,9 @@ func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, sourc
 	if periods > 0 {
 		out.AssociationPeriodFrames = periods * cfg.X
 		mapped = periods * perPeriod / perCycle * perCycle
-		out.AssociationPatternPeriodFrames, out.PatternNote = patternPeriod(out.AssociationPeriodFrames, frame, verdict, res, layout, seen)
+		if !pr.finder || nValid == len(frame) {
+			out.AssociationPatternPeriodFrames, out.PatternNote = patternPeriod(out.AssociationPeriodFrames, frame, verdict, res, layout, seen)
+		}
 	}
 	var aerr error
 	if periods == 0 {
@@ -632,7 +637,10 @@ func patternPeriod(assoc int, frame []prach.Occasion, verdict []prach.Validity, 
 		if s := res.SSB; s != nil && s.PeriodMs > 10 {
 			more := 0
 			for i, o := range frame {
-				if v, err := seen.judge(o, layout, true); err == nil && v.Valid && !verdict[i].Valid {
+				if verdict[i].Valid {
+					continue // valid with the blocks, so without them too
+				}
+				if v, err := seen.judge(o, layout, true); err == nil && v.Valid {
 					more++
 				}
 			}
