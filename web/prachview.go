@@ -78,8 +78,12 @@ func spanOf(p *grid.PRACH, spanMs int, query string) (text, href, link string) {
 		period, what = p.ConfigPeriodFrames, "configuration period"
 	}
 	n := s.Next
-	text = fmt.Sprintf("The figure spans 0–%d ms and shows %d of the %d occasions of the %d ms %s; the next is in frame %d, slot %d, from %s ms, outside the span 0–%d ms.",
-		spanMs, s.Shown, s.Total, 10*period, what, n.Frame, n.Slot, prachNum(float64(int64(n.Start)*1000/int64(grid.TcPerSubframe))/1000), spanMs)
+	slot := "slot" // the PRACH slot at Δf^RA; a long format's is the subframe
+	if p.SequenceLength == 839 {
+		slot = "subframe"
+	}
+	text = fmt.Sprintf("The figure spans 0–%d ms and shows %d of the %d occasions of the %d ms %s; the next is in frame %d, %s %d, from %s ms, outside the span 0–%d ms.",
+		spanMs, s.Shown, s.Total, 10*period, what, n.Frame, slot, n.Slot, prachNum(float64(int64(n.Start)*1000/int64(grid.TcPerSubframe))/1000), spanMs)
 	switch {
 	case s.FitMs > spanMs:
 		q, _ := url.ParseQuery(query)
@@ -89,7 +93,11 @@ func spanOf(p *grid.PRACH, spanMs int, query string) (text, href, link string) {
 		if s.FitShown == s.Total {
 			link += ", one whole " + what
 		} else {
-			link += fmt.Sprintf(", frame 0's %d occasions", s.FitShown)
+			if s.FitShown == 1 {
+				link += ", frame 0's occasion"
+			} else {
+				link += fmt.Sprintf(", frame 0's %d occasions", s.FitShown)
+			}
 			text += fmt.Sprintf(" The figure starts at frame 0 and spans at most %d ms, so no span shows the whole %d ms; the result document (gridloom render -format json, or POST /api/v1/render) lists every occasion.", grid.MaxSpanMs, 10*period)
 		}
 	case s.FitMs == 0:

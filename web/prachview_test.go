@@ -249,3 +249,23 @@ func TestPRACHSpanHidesOccasions(t *testing.T) {
 		t.Errorf("every occasion in the span, yet the table says some are not: %s", html.UnescapeString(r.body[strings.Index(r.body, `data-testid="prach-span"`):][:300]))
 	}
 }
+
+// TestPRACHSpanLongFormat: fdd-long.yaml (no TDD: a 1 ms span) has its
+// format 0 occasions in subframe 4 of frames 0–3 (grid's TestPRACHInSpan):
+// the table names the subframe, and offers 0–5 ms for frame 0's one.
+func TestPRACHSpanLongFormat(t *testing.T) {
+	data, err := os.ReadFile("../testdata/prach/fdd-long.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := planfile.DecodeYAML(data)
+	if err != nil {
+		t.Fatal(err)
+	}
+	srv, _ := newTestServer(t, testConfig(t))
+	r := get(t, srv, "/?"+planform.FormOf(p).Query())
+	wantStatus(t, r, http.StatusOK)
+	wantContains(t, "fdd-long", html.UnescapeString(r.body),
+		"shows 0 of the 4 occasions of the 40 ms association period; the next is in frame 0, subframe 4, from 4 ms, outside the span 0–1 ms.",
+		"Show 0–5 ms, frame 0's occasion")
+}
