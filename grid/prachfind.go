@@ -21,6 +21,9 @@ type PRACHChoice struct {
 	CellRangeKm             float64
 	ConfigPeriodFrames      int
 	AssociationPeriodFrames int
+	// AssociationPatternPeriodFrames is the association pattern period of
+	// TS 38.213 8.1 in frames (see PRACH).
+	AssociationPatternPeriodFrames int
 	// Warnings counts the prach warnings the index draws (such as a
 	// cyclic-shift range below the guard's).
 	Warnings int
@@ -97,6 +100,7 @@ func FindPRACH(plan Plan) (PRACHFound, error) {
 		if !ok {
 			continue
 		}
+		pr.finder = true
 		p := buildPRACH(&fs, pr, &res, bwp, source, layout, seen)
 		if p == nil || slices.ContainsFunc(fs, func(f Finding) bool { return f.Severity == Error }) ||
 			slices.ContainsFunc(p.Occasions, func(o PRACHOccasion) bool { return !o.Valid }) {
@@ -104,7 +108,8 @@ func FindPRACH(plan Plan) (PRACHFound, error) {
 		}
 		c := PRACHChoice{ConfigurationIndex: index, Format: p.Format, SCSKHz: float64(p.SCSHz) / 1000,
 			OccasionsPer10ms: p.ValidPer10ms, CellRangeKm: p.CellRangeKm, ConfigPeriodFrames: p.ConfigPeriodFrames,
-			AssociationPeriodFrames: p.AssociationPeriodFrames, Warnings: len(fs)}
+			AssociationPeriodFrames: p.AssociationPeriodFrames, AssociationPatternPeriodFrames: p.AssociationPatternPeriodFrames,
+			Warnings: len(fs)}
 		g := slices.IndexFunc(out.Groups, func(g PRACHGroup) bool { return g.Format == c.Format })
 		if g < 0 {
 			out.Groups = append(out.Groups, PRACHGroup{Format: c.Format})

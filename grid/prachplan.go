@@ -99,7 +99,13 @@ type PRACH struct {
 	// blocks cannot be mapped within its longest value).
 	ConfigPeriodFrames      int
 	AssociationPeriodFrames int
-	SSBPerRO                string
+	// AssociationPatternPeriodFrames is the association pattern period of
+	// TS 38.213 8.1 in frames (0 without an association period), and
+	// PatternNote says what makes it longer than the association period
+	// ("" when it is not); see patternPeriod.
+	AssociationPatternPeriodFrames int
+	PatternNote                    string
+	SSBPerRO                       string
 	// ValidPer10ms counts the valid occasions in time and frequency per
 	// 10 ms, averaged over the configuration period.
 	ValidPer10ms float64
@@ -136,6 +142,9 @@ type prachParams struct {
 	zcz   int
 	set   prach.RestrictedSet
 	n     prach.SSBPerRO
+	// finder marks the finder's run, which drops an index with an invalid
+	// occasion and so needs no association pattern period for it.
+	finder bool
 }
 
 const prachField = "prach"
@@ -408,8 +417,32 @@ func checkPRACH(fs *findings, rng Range, pp *PRACHPlan, res *Result) *PRACH {
 }
 
 // validities remembers the verdict of TS 38.213 8.1 on an occasion (with
-// SFN 0) under one layout: the finder's indexes share most occasions.
-type validities map[prach.Occasion]prach.Validity
+// SFN 0) under one layout, and under the same layout without its SS/PBCH
+// blocks (bare): the finder's indexes share most occasions.
+type validities map[validityKey]prach.Validity
+
+type validityKey struct {
+	o    prach.Occasion
+	bare bool
+}
+
+// judge returns the verdict on o (whose SFN is ignored) under layout, or
+// under bare when bare is true, remembering it in seen.
+func (seen validities) judge(o prach.Occasion, layout prach.Layout, isBare bool) (prach.Validity, error) {
+	o.SFN = 0
+	key := validityKey{o, isBare}
+	if v, known := seen[key]; known {
+		return v, nil
+	}
+	if isBare {
+		layout.SSB = make([]bool, len(layout.SSB))
+	}
+	v, err := prach.Valid(o, layout)
+	if err == nil {
+		seen[key] = v
+	}
+	return v, err
+}
 
 // buildPRACH places the occasions of pr and checks them; the keys of pr are
 // valid. seen may be nil; the finder shares one across the indexes.
@@ -467,16 +500,10 @@ func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, sourc
 	nValid := 0
 	firstBad := ""
 	for _, o := range frame {
-		key := o
-		key.SFN = 0
-		v, known := seen[key]
-		if !known {
-			var err error
-			if v, err = prach.Valid(o, layout); err != nil {
-				fs.add(Error, CodePRACH, "", prachField, "%s.", capitalise(err.Error()))
-				return nil
-			}
-			seen[key] = v
+		v, err := seen.judge(o, layout, false)
+		if err != nil {
+			fs.add(Error, CodePRACH, "", prachField, "%s.", capitalise(err.Error()))
+			return nil
 		}
 		verdict = append(verdict, v)
 		if v.Valid {
@@ -529,6 +556,9 @@ func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, sourc
 	if periods > 0 {
 		out.AssociationPeriodFrames = periods * cfg.X
 		mapped = periods * perPeriod / perCycle * perCycle
+		if !pr.finder || nValid == len(frame) {
+			out.AssociationPatternPeriodFrames, out.PatternNote = patternPeriod(out.AssociationPeriodFrames, frame, verdict, res, layout, seen)
+		}
 	}
 	var aerr error
 	if periods == 0 {
@@ -589,6 +619,51 @@ func buildPRACH(fs *findings, pr prachParams, res *Result, bwp InitialBWP, sourc
 	return out
 }
 
+// patternPeriod is the association pattern period of TS 38.213 8.1 in
+// frames, with what makes it longer than the association period in words.
+// The occasions of one frame are judged as if every frame carried its
+// SS/PBCH blocks (prachLayout), so the occasions gridloom lists repeat every
+// association period. A UE judges each frame as it is: where blocks come
+// every 20 ms or more, the frames without them may validate occasions the
+// blocks rule out, and a TDD pattern of 20 ms differs between even and odd
+// frames; the pattern between occasions and blocks then repeats only when
+// the association period and those frames start together again
+// (prach.AssociationPatternPeriod). Paired spectrum validates every
+// occasion, so its pattern is the association period.
+func patternPeriod(assoc int, frame []prach.Occasion, verdict []prach.Validity, res *Result, layout prach.Layout, seen validities) (int, string) {
+	repeat := 1
+	var why []string
+	if !layout.Paired {
+		if s := res.SSB; s != nil && s.PeriodMs > 10 {
+			more := 0
+			for i, o := range frame {
+				if verdict[i].Valid {
+					continue // valid with the blocks, so without them too
+				}
+				if v, err := seen.judge(o, layout, true); err == nil && v.Valid {
+					more++
+				}
+			}
+			if more > 0 {
+				repeat = s.PeriodMs / 10
+				why = append(why, fmt.Sprintf("the SS/PBCH blocks come every %d ms, and in the frames without them %d more occasion(s) per frame would be valid", s.PeriodMs, more))
+			}
+		}
+		if t := res.TDD; t != nil && (10*TcPerSubframe)%t.Period != 0 {
+			repeat = max(repeat, 2) // both are 1, 2, 4, 8 or 16
+			why = append(why, "the TDD pattern repeats every 20 ms")
+		}
+	}
+	p, err := prach.AssociationPatternPeriod(assoc, repeat)
+	if err != nil {
+		return 0, ""
+	}
+	if p == assoc {
+		return p, ""
+	}
+	return p, strings.Join(why, "; ")
+}
+
 // occasionsPerCycle is how many occasions map every sent block once:
 // 1/N per block when N < 1, ⌈blocks/N⌉ when N ≥ 1 (TS 38.213 8.1).
 func occasionsPerCycle(n prach.SSBPerRO, blocks int) int {
@@ -596,4 +671,50 @@ func occasionsPerCycle(n prach.SSBPerRO, blocks int) int {
 		return blocks * n.Den
 	}
 	return (blocks + n.Num - 1) / n.Num
+}
+
+// PRACHSpan is how much of the association period a figure shows: the
+// figure's time axis runs from the start of frame 0 over the plan's span,
+// at most MaxSpanMs.
+type PRACHSpan struct {
+	// Shown counts the occasions (time × msg1-FDM) that start within the
+	// span; Total those of the association period (PRACH.Occasions).
+	Shown, Total int
+	// Next is the first occasion that starts at or after the span's end;
+	// nil when every occasion is shown.
+	Next *PRACHOccasion
+	// FitMs is the least span, at most MaxSpanMs, that holds every
+	// occasion of frame 0 whole (0 when frame 0 has none), and FitShown
+	// how many occasions that span shows.
+	FitMs, FitShown int
+}
+
+// InSpan tells what a figure over spanMs milliseconds from frame 0 shows of
+// p's occasions. A configuration whose occasions lie in other frames only
+// (n_SFN mod x = y with y ≠ 0), or whose association period is longer than
+// a frame, can never be shown whole: the figure starts at frame 0.
+func (p *PRACH) InSpan(spanMs int) PRACHSpan {
+	span := Tc(spanMs) * TcPerSubframe
+	out := PRACHSpan{Total: len(p.Occasions)}
+	var end0 Tc
+	for i, o := range p.Occasions {
+		if o.Start < span {
+			out.Shown++
+		} else if out.Next == nil {
+			out.Next = &p.Occasions[i]
+		}
+		if o.Frame == 0 {
+			end0 = max(end0, o.End)
+		}
+	}
+	if end0 > 0 {
+		out.FitMs = min(int((end0+TcPerSubframe-1)/TcPerSubframe), MaxSpanMs)
+		fit := Tc(out.FitMs) * TcPerSubframe
+		for _, o := range p.Occasions {
+			if o.Start < fit {
+				out.FitShown++
+			}
+		}
+	}
+	return out
 }

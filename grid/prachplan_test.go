@@ -339,3 +339,118 @@ func BenchmarkFindPRACH(b *testing.B) {
 		})
 	}
 }
+
+// Worked by hand: the association pattern period of TS 38.213 clause 8.1,
+// the least whole number of association periods after which the pattern
+// between PRACH occasions and SS/PBCH block indexes repeats, at most 160 ms.
+func TestPRACHAssociationPatternPeriod(t *testing.T) {
+	// Paired spectrum validates every occasion, so the pattern is the
+	// association period: 4 frames for fdd-long.yaml (TestPRACHLongFormatFDD).
+	r := grid.Compute(prachPlan(t, "fdd-long.yaml"))
+	if p := r.PRACH; p == nil || p.AssociationPatternPeriodFrames != 4 || p.PatternNote != "" {
+		t.Errorf("fdd-long: %+v; want a pattern period of 4 frames and no note", p)
+	}
+	// dddsu.yaml sends its blocks every 20 ms, but its occasions fill slot
+	// 19, all uplink and valid in every frame, blocks or not: the pattern is
+	// the association period, 2 frames.
+	r = grid.Compute(prachPlan(t, "dddsu.yaml"))
+	if p := r.PRACH; p == nil || p.AssociationPeriodFrames != 2 || p.AssociationPatternPeriodFrames != 2 || p.PatternNote != "" {
+		t.Errorf("dddsu: %+v; want association and pattern periods of 2 frames", p)
+	}
+	// The same carrier without tdd-UL-DL-ConfigurationCommon and index 167
+	// of Table 6.3.3.2-3: B4, x = 1, every subframe, two PRACH slots per
+	// subframe, so at 30 kHz an occasion in symbols 0–11 of each of the 20
+	// slots. The four blocks of case C at 30 kHz sit in symbols 2–5 and
+	// 8–11 of slots 0 and 1 (TS 38.213 4.1: {4, 8, 16, 20} + 28n, n = 0 … at
+	// the half frame, here symbols 2, 8, 16, 22). Without a TDD pattern an
+	// occasion is valid if no block follows it in its PRACH slot and it
+	// starts N_gap = 2 symbols after the last block symbol (TS 38.213 8.1,
+	// Table 8.1-2): slots 0 and 1 have blocks after symbol 0, invalid; slot
+	// 2 starts at symbol 28, two symbols after the last block symbol (25),
+	// valid, and so are slots 3 to 19. A frame with blocks has 18 valid
+	// occasions, 36 with msg1-FDM 2, against 4 for a mapping cycle: the
+	// association period is one frame. The blocks come every 20 ms, so frame
+	// 1 has none, and there all 20 are valid: the frames repeat every 2,
+	// and the pattern period is lcm(1, 2) = 2 frames.
+	plan := prachPlan(t, "dddsu.yaml")
+	plan.TDD = nil
+	plan.PRACH.ConfigurationIndex = 167
+	r = grid.Compute(plan)
+	p := r.PRACH
+	if p == nil || r.HasErrors() {
+		t.Fatalf("no PRACH, findings %v", r.Findings)
+	}
+	valid := 0
+	for _, o := range p.Occasions {
+		if o.Valid {
+			valid++
+		}
+	}
+	if p.AssociationPeriodFrames != 1 || len(p.Occasions) != 40 || valid != 36 {
+		t.Errorf("association period %d frames, %d occasions, %d valid; want 1, 40, 36", p.AssociationPeriodFrames, len(p.Occasions), valid)
+	}
+	if p.AssociationPatternPeriodFrames != 2 || !strings.Contains(p.PatternNote, "every 20 ms") || !strings.Contains(p.PatternNote, "2 more occasion") {
+		t.Errorf("pattern period %d frames, note %q; want 2 frames, blocks every 20 ms and 2 more occasions", p.AssociationPatternPeriodFrames, p.PatternNote)
+	}
+	// Blocks every 10 ms: every frame alike again, the pattern is one frame.
+	plan.SSB.PeriodMs = 10
+	if p := grid.Compute(plan).PRACH; p == nil || p.AssociationPatternPeriodFrames != 1 {
+		t.Errorf("blocks every 10 ms: %+v; want a pattern period of 1 frame", p)
+	}
+	// Blocks every 160 ms: 16 frames, the longest the clause allows.
+	plan.SSB.PeriodMs = 160
+	if p := grid.Compute(plan).PRACH; p == nil || p.AssociationPatternPeriodFrames != 16 {
+		t.Errorf("blocks every 160 ms: %+v; want a pattern period of 16 frames", p)
+	}
+}
+
+// Worked by hand: what a figure span from frame 0 shows of the occasions.
+func TestPRACHInSpan(t *testing.T) {
+	// dddsu.yaml: the span defaults to the TDD period rounded up, 3 ms; the
+	// occasions start at 18 819 072 Tc = 9.571 ms of frames 0 and 1 (two
+	// side by side in each, TestPRACHShortFormatDDDSU): none shown, the
+	// next is frame 0's first, and a 10 ms span (the end of frame 0, where
+	// they end) shows frame 0's two of the four.
+	r := grid.Compute(prachPlan(t, "dddsu.yaml"))
+	if r.Plan.SpanMs != 3 {
+		t.Fatalf("span %d ms, want 3", r.Plan.SpanMs)
+	}
+	s := r.PRACH.InSpan(r.Plan.SpanMs)
+	if s.Shown != 0 || s.Total != 4 || s.Next == nil || s.Next.Frame != 0 || s.Next.Start != 18819072 || s.FitMs != 10 || s.FitShown != 2 {
+		t.Errorf("dddsu: %+v; want 0 of 4 shown, next frame 0 at 18819072 Tc, fit 10 ms showing 2", s)
+	}
+	if s := r.PRACH.InSpan(10); s.Shown != 2 || s.Next == nil || s.Next.Frame != 1 {
+		t.Errorf("dddsu at 10 ms: %+v; want 2 shown, next in frame 1", s)
+	}
+	// fdd-long.yaml: no TDD, span 1 ms; the occasions hold subframe 4 of
+	// frames 0–3 (TestPRACHLongFormatFDD): none shown, next at 4 ms of
+	// frame 0; a 5 ms span holds frame 0's whole (it ends at 5 ms).
+	r = grid.Compute(prachPlan(t, "fdd-long.yaml"))
+	s = r.PRACH.InSpan(r.Plan.SpanMs)
+	if r.Plan.SpanMs != 1 || s.Shown != 0 || s.Total != 4 || s.Next == nil || s.Next.Start != 4*1966080 || s.FitMs != 5 || s.FitShown != 1 {
+		t.Errorf("fdd-long (span %d ms): %+v; want 0 of 4, next at 7864320 Tc, fit 5 ms showing 1", r.Plan.SpanMs, s)
+	}
+	// Index 1 of Table 6.3.3.2-2: format 0, x = 16, y = 1, subframe 4
+	// (TS 38.211 Table 6.3.3.2-2): occasions only in frames 1, 17, …; the
+	// association period (4 blocks, one occasion per 160 ms) cannot map
+	// the four blocks within 160 ms, so the occasions are those of one
+	// configuration period: one, in frame 1 at 14 ms. No span from frame 0
+	// shows it.
+	p := prachPlan(t, "fdd-long.yaml")
+	p.PRACH.ConfigurationIndex = 1
+	p.SpanMs = 10
+	r = grid.Compute(p)
+	if r.PRACH == nil {
+		t.Fatalf("no PRACH: %v", r.Findings)
+	}
+	s = r.PRACH.InSpan(r.Plan.SpanMs)
+	if s.Shown != 0 || s.Total != 1 || s.Next == nil || s.Next.Frame != 1 || s.Next.Start != 14*1966080 || s.FitMs != 0 || s.FitShown != 0 {
+		t.Errorf("x = 16, y = 1: %+v; want 0 of 1, next in frame 1 at 14 ms, no fit", s)
+	}
+	// Every occasion shown: nothing next.
+	r = grid.Compute(prachPlan(t, "fdd-long.yaml"))
+	r.PRACH.Occasions = r.PRACH.Occasions[:1]
+	if s := r.PRACH.InSpan(10); s.Shown != 1 || s.Next != nil {
+		t.Errorf("one occasion in 10 ms: %+v; want it shown and nothing next", s)
+	}
+}

@@ -1,6 +1,8 @@
 package render
 
 import (
+	"bytes"
+	"fmt"
 	"strings"
 	"testing"
 
@@ -156,6 +158,49 @@ func TestPRACHHeaviest(t *testing.T) {
 		}
 		if len(data) > 600_000 {
 			t.Errorf("width %d: %d bytes, want at most 600000", width, len(data))
+		}
+	}
+}
+
+// BenchmarkFigurePRACH measures what the prach layer costs in time and
+// size: the DDDSU plan (4 occasions, 2 in its 10 ms span) and the heaviest
+// PRACH plan of TestPRACHHeaviest (1120 occasions in 10 ms), each with the
+// layer drawn and hidden, at the default and the widest figure. svg-bytes
+// and elements are one figure's; the difference between "on" and "off" is
+// the layer's cost. Reported, not asserted; TestPRACHHeaviest holds the
+// budget (one group of at most three paths, 600 000 bytes).
+func BenchmarkFigurePRACH(b *testing.B) {
+	heavy := loadPlan(b, "../testdata/stress/fr2-1-initial-access.yaml")
+	heavy.SpanMs = grid.MaxSpanMs
+	heavy.PRACH = &grid.PRACHPlan{ConfigurationIndex: 171, Msg1SubcarrierSpacing: 120, Msg1FDM: 8}
+	for _, c := range []struct {
+		name string
+		plan grid.Plan
+	}{{"dddsu", prachPlan(b)}, {"heaviest", heavy}} {
+		r := compute(b, c.plan)
+		if r.PRACH == nil {
+			b.Fatalf("%s: no PRACH; findings %v", c.name, r.Findings)
+		}
+		for _, width := range []int{DefaultWidth, MaxWidth} {
+			for _, layer := range []string{"on", "off"} {
+				opt := Options{Width: width}
+				if layer == "off" {
+					opt.Layers = Layers{}.Hide(LayerPRACH)
+				}
+				b.Run(fmt.Sprintf("%s/width=%d/prach=%s", c.name, width, layer), func(b *testing.B) {
+					var buf bytes.Buffer
+					b.ReportAllocs()
+					for b.Loop() {
+						buf.Reset()
+						if err := Figure(&buf, r, opt); err != nil {
+							b.Fatal(err)
+						}
+					}
+					b.SetBytes(int64(buf.Len()))
+					b.ReportMetric(float64(buf.Len()), "svg-bytes")
+					b.ReportMetric(float64(parseSVG(b, buf.Bytes()).count()), "elements")
+				})
+			}
 		}
 	}
 }

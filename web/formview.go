@@ -94,9 +94,12 @@ type section struct {
 	Summary string // what the plan makes of it, e.g. "DDDSU on 15 kHz"
 	Rows    []sectionRow
 	Open    bool
-	ClearOp string
-	OpName  string // the query key of the clear button
-	ClearID string // the id of the clear button
+	// Find is a finder's page for the plan as it stands ("" for none), with
+	// FindText its link's words; the random access section's only.
+	Find, FindText string
+	ClearOp        string
+	OpName         string // the query key of the clear button
+	ClearID        string // the id of the clear button
 }
 
 type sectionRow struct {
@@ -413,6 +416,10 @@ func (fb *formBuilder) prachSection() section {
 		}
 		sec.Summary = fmt.Sprintf("index %d, format %s: %d of %d occasions valid", pr.ConfigurationIndex, pr.Format, valid, len(pr.Occasions))
 	}
+	// The finder, for the plan as it stands: when the prach block has
+	// errors the results have no Random access table, and this link (with
+	// the prach finding's) is the way to an index that fits.
+	sec.Find, sec.FindText = "/prach?"+fb.s.Query(), "Find a configuration index whose occasions all fit this plan"
 	return finishSection(sec)
 }
 

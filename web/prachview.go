@@ -20,8 +20,15 @@ import (
 type prachView struct {
 	Index, Format, Table, SCS, NRBRA string
 	Per10ms, Valid, Association      string
-	Range, Binds                     string
-	FindHref                         string
+	// Pattern is the association pattern period (TS 38.213 8.1), with
+	// what makes it longer than the association period.
+	Pattern      string
+	Range, Binds string
+	FindHref     string
+	// Span says what the figure's span leaves out of the association
+	// period ("" when it shows every occasion); SpanHref and SpanLink offer
+	// the span that shows the most of it ("" when no longer span helps).
+	Span, SpanHref, SpanLink string
 }
 
 // prachOf builds the table, nil for a plan without PRACH; query is the
@@ -41,16 +48,77 @@ func prachOf(res grid.Result, query string) *prachView {
 	if p.AssociationPeriodFrames > 0 {
 		assoc = strconv.Itoa(10*p.AssociationPeriodFrames) + " ms"
 	}
-	return &prachView{
+	v := &prachView{
 		Index: strconv.Itoa(p.ConfigurationIndex), Format: p.Format, Table: "TS 38.211 Table " + p.Table,
 		SCS: prachNum(float64(p.SCSHz)/1000) + " kHz", NRBRA: strconv.Itoa(p.NRBRA),
 		Per10ms:     prachNum(p.ValidPer10ms),
 		Valid:       fmt.Sprintf("%d of %d", valid, len(p.Occasions)),
 		Association: assoc,
+		Pattern:     patternOf(p),
 		Range:       prachNum(float64(int(p.Range.Limit/10+0.5))/100) + " km",
 		Binds:       rangeBinds(p),
 		FindHref:    "/prach?" + query,
 	}
+	v.Span, v.SpanHref, v.SpanLink = spanOf(p, res.Plan.SpanMs, query)
+	return v
+}
+
+// spanOf says what the figure, from the start of frame 0 over spanMs, shows
+// of the occasions, and which span (the plan's span key) shows more. The
+// span stops at grid.MaxSpanMs, so an association period longer than a
+// frame, or occasions only in later frames (n_SFN mod x = y, y ≠ 0), are
+// never all in the figure; the sentence says so and where to find them.
+func spanOf(p *grid.PRACH, spanMs int, query string) (text, href, link string) {
+	s := p.InSpan(spanMs)
+	if s.Next == nil {
+		return "", "", ""
+	}
+	period, what := p.AssociationPeriodFrames, "association period"
+	if period == 0 {
+		period, what = p.ConfigPeriodFrames, "configuration period"
+	}
+	n := s.Next
+	slot := "slot" // the PRACH slot at Δf^RA; a long format's is the subframe
+	if p.SequenceLength == 839 {
+		slot = "subframe"
+	}
+	text = fmt.Sprintf("The figure spans 0–%d ms and shows %d of the %d occasions of the %d ms %s; the next is in frame %d, %s %d, from %s ms, outside the span 0–%d ms.",
+		spanMs, s.Shown, s.Total, 10*period, what, n.Frame, slot, n.Slot, prachNum(float64(int64(n.Start)*1000/int64(grid.TcPerSubframe))/1000), spanMs)
+	switch {
+	case s.FitMs > spanMs:
+		q, _ := url.ParseQuery(query)
+		q.Set("span", strconv.Itoa(s.FitMs))
+		href = "/?" + q.Encode() + "#h-prach"
+		link = fmt.Sprintf("Show 0–%d ms", s.FitMs)
+		if s.FitShown == s.Total {
+			link += ", one whole " + what
+		} else {
+			if s.FitShown == 1 {
+				link += ", frame 0's occasion"
+			} else {
+				link += fmt.Sprintf(", frame 0's %d occasions", s.FitShown)
+			}
+			text += fmt.Sprintf(" The figure starts at frame 0 and spans at most %d ms, so no span shows the whole %d ms; the result document (gridloom render -format json, or POST /api/v1/render) lists every occasion.", grid.MaxSpanMs, 10*period)
+		}
+	case s.FitMs == 0:
+		text += fmt.Sprintf(" Frame 0 holds none of them (n_SFN mod %d is not one of the index's y), and the figure starts at frame 0 and spans at most %d ms, so no span shows them; the result document (gridloom render -format json, or POST /api/v1/render) lists every occasion.", p.ConfigPeriodFrames, grid.MaxSpanMs)
+	default:
+		text += fmt.Sprintf(" The rest lie in later frames: the figure starts at frame 0 and spans at most %d ms; the result document (gridloom render -format json, or POST /api/v1/render) lists every occasion.", grid.MaxSpanMs)
+	}
+	return text, href, link
+}
+
+// patternOf writes the association pattern period and, when it is longer
+// than the association period, why.
+func patternOf(p *grid.PRACH) string {
+	if p.AssociationPatternPeriodFrames == 0 {
+		return "none: no association period"
+	}
+	s := strconv.Itoa(10*p.AssociationPatternPeriodFrames) + " ms"
+	if p.PatternNote != "" {
+		s += ": " + p.PatternNote
+	}
+	return s
 }
 
 // rangeBinds names the limit that sets the cell range: the smallest of the
@@ -85,8 +153,8 @@ type prachFindGroup struct {
 }
 
 type prachFindRow struct {
-	Index, SCS, Per10ms, Range, Period, Association, Warnings string
-	Href, Current                                             string
+	Index, SCS, Per10ms, Range, Period, Association, Pattern, Warnings string
+	Href, Current                                                      string
 }
 
 // prachFind answers GET /prach: the finder on the plan of the query. A
@@ -119,8 +187,9 @@ func (s *server) prachFind(w http.ResponseWriter, r *http.Request) error {
 			q.Set("prach.idx", idx)
 			row := prachFindRow{Index: idx, SCS: prachNum(c.SCSKHz) + " kHz", Per10ms: prachNum(c.OccasionsPer10ms),
 				Range: prachNum(c.CellRangeKm) + " km", Period: strconv.Itoa(10*c.ConfigPeriodFrames) + " ms",
-				Association: strconv.Itoa(10*c.AssociationPeriodFrames) + " ms", Warnings: strconv.Itoa(c.Warnings),
-				Href: "/?" + q.Encode() + "#h-prach"}
+				Association: strconv.Itoa(10*c.AssociationPeriodFrames) + " ms", Pattern: strconv.Itoa(10*c.AssociationPatternPeriodFrames) + " ms",
+				Warnings: strconv.Itoa(c.Warnings),
+				Href:     "/?" + q.Encode() + "#h-prach"}
 			if idx == cur {
 				row.Current = "the plan's index"
 			}

@@ -87,6 +87,7 @@ type download struct {
 type findingView struct {
 	Severity, Code, Text, Partition string
 	Control, ControlLabel           string // the control it concerns: its id and label
+	Find                            string // a finder's page for the plan that answers it, or ""
 }
 
 type fact struct{ Label, Value string }
@@ -167,8 +168,12 @@ func findingsOf(s planform.State) (out []findingView, errors, warnings, infos in
 		default:
 			infos++
 		}
-		out = append(out, findingView{Severity: string(f.Severity), Code: f.Code, Text: planform.NamePaths(f.Message, s.Plan.Partitions),
-			Partition: f.Partition, Control: planform.ControlID(f.Field), ControlLabel: findingLabel(f.Field, s.Plan.Partitions)})
+		fv := findingView{Severity: string(f.Severity), Code: f.Code, Text: planform.NamePaths(f.Message, s.Plan.Partitions),
+			Partition: f.Partition, Control: planform.ControlID(f.Field), ControlLabel: findingLabel(f.Field, s.Plan.Partitions)}
+		if f.Code == grid.CodePRACH {
+			fv.Find = "/prach?" + s.Query() // the PRACH finder on this plan
+		}
+		out = append(out, fv)
 	}
 	for _, k := range planform.FigKeys {
 		if m, ok := s.Fig.Msgs[k]; ok {

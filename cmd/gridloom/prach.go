@@ -54,10 +54,10 @@ func runPRACH(ctx context.Context, args []string, stdin io.Reader, stdout, stder
 	for _, g := range found.Groups {
 		fmt.Fprintf(stdout, "\nformat %s: %s\n", g.Format, count(len(g.Choices), "index", "indexes"))
 		tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', tabwriter.AlignRight)
-		fmt.Fprintln(tw, "index\tkHz\toccasions per 10 ms\tcell range km\tperiod ms\tassociation ms\twarnings\t")
+		fmt.Fprintln(tw, "index\tkHz\toccasions per 10 ms\tcell range km\tperiod ms\tassociation ms\tpattern ms\twarnings\t")
 		for _, c := range g.Choices {
-			fmt.Fprintf(tw, "%d\t%s\t%s\t%s\t%d\t%d\t%d\t\n", c.ConfigurationIndex, num(c.SCSKHz), num(c.OccasionsPer10ms),
-				num(c.CellRangeKm), 10*c.ConfigPeriodFrames, 10*c.AssociationPeriodFrames, c.Warnings)
+			fmt.Fprintf(tw, "%d\t%s\t%s\t%s\t%d\t%d\t%d\t%d\t\n", c.ConfigurationIndex, num(c.SCSKHz), num(c.OccasionsPer10ms),
+				num(c.CellRangeKm), 10*c.ConfigPeriodFrames, 10*c.AssociationPeriodFrames, 10*c.AssociationPatternPeriodFrames, c.Warnings)
 		}
 		if err := tw.Flush(); err != nil {
 			return err

@@ -33,10 +33,29 @@ func TestRenderJSONGoldenPRACH(t *testing.T) {
 	if err := json.Unmarshal(doc.PRACH["occasions"], &occ); err != nil || len(occ) == 0 {
 		t.Fatalf("occasions %s: %v", doc.PRACH["occasions"], err)
 	}
-	for _, k := range []string{"frame", "slot", "startSymbol", "startTc", "endTc", "lowKHz", "highKHz", "ssbIndexes", "valid"} {
-		if _, ok := occ[0][k]; !ok {
-			t.Errorf("an occasion has no %q", k)
+	for i, o := range occ {
+		for _, k := range []string{"frame", "slot", "startSymbol", "startTc", "endTc", "lowKHz", "highKHz", "ssbIndexes", "valid"} {
+			if _, ok := o[k]; !ok {
+				t.Errorf("occasion %d has no %q", i, k)
+			}
 		}
+		// ssbIndexes is a list (empty, never null), valid a boolean, the
+		// times whole numbers of Tc.
+		if _, ok := o["ssbIndexes"].([]any); !ok {
+			t.Errorf("occasion %d: ssbIndexes %v is not a list", i, o["ssbIndexes"])
+		}
+		if _, ok := o["valid"].(bool); !ok {
+			t.Errorf("occasion %d: valid %v is not a boolean", i, o["valid"])
+		}
+		for _, k := range []string{"startTc", "endTc"} {
+			if v, ok := o[k].(float64); !ok || v != float64(int64(v)) {
+				t.Errorf("occasion %d: %s %v is not a whole number", i, k, o[k])
+			}
+		}
+	}
+	// The association pattern period (TS 38.213 8.1) beside the period.
+	if string(doc.PRACH["associationPatternPeriodFrames"]) != "2" {
+		t.Errorf("associationPatternPeriodFrames %s, want 2 (dddsu: 20 ms)", doc.PRACH["associationPatternPeriodFrames"])
 	}
 }
 
@@ -54,7 +73,8 @@ func TestPRACHCommandRowsApply(t *testing.T) {
 		Groups []struct {
 			Format  string `json:"format"`
 			Choices []struct {
-				ConfigurationIndex int `json:"configurationIndex"`
+				ConfigurationIndex             int `json:"configurationIndex"`
+				AssociationPatternPeriodFrames int `json:"associationPatternPeriodFrames"`
 			} `json:"choices"`
 		} `json:"groups"`
 	}
@@ -81,6 +101,8 @@ func TestPRACHCommandRowsApply(t *testing.T) {
 			r := grid.Compute(q)
 			if r.HasErrors() || r.PRACH == nil || r.PRACH.Format != g.Format {
 				t.Errorf("index %d (format %s): findings %v", c.ConfigurationIndex, g.Format, r.Findings)
+			} else if c.AssociationPatternPeriodFrames != r.PRACH.AssociationPatternPeriodFrames || c.AssociationPatternPeriodFrames == 0 {
+				t.Errorf("index %d: pattern period %d frames in the finder, %d in the plan", c.ConfigurationIndex, c.AssociationPatternPeriodFrames, r.PRACH.AssociationPatternPeriodFrames)
 			}
 		}
 	}

@@ -149,3 +149,41 @@ func Associate(s Spectrum, index, mu, fdm int, ssb []int, n SSBPerRO, layout Lay
 	}
 	return a, nil
 }
+
+// MaxPatternFrames is the longest association pattern period, 160 ms
+// (TS 38.213 clause 8.1), in radio frames.
+const MaxPatternFrames = 16
+
+// AssociationPatternPeriod returns the association pattern period of
+// TS 38.213 clause 8.1 in radio frames: "an association pattern period
+// includes one or more association periods and is determined so that a
+// pattern between PRACH occasions and SS/PBCH block indexes repeats at most
+// every 160 msec". associationFrames is the association period in frames;
+// repeatFrames is how many frames the carrier takes to look the same again
+// for the validity of the occasions (1 when every frame is alike; the
+// SS/PBCH period when frames without blocks validate other occasions; 2 for
+// a TDD pattern of 20 ms). Since the mapping starts again with each
+// association period, the pattern repeats once both start together: the
+// least common multiple of the two, which must stay within 160 ms. Every
+// period of NR is 10 ms times a power of two, so the pattern period holds
+// a whole number of association periods and no occasion is left after the
+// last of them ("PRACH occasions not associated ... after an integer number
+// of association periods ... are not used" then selects none).
+func AssociationPatternPeriod(associationFrames, repeatFrames int) (int, error) {
+	if associationFrames < 1 || associationFrames > MaxPatternFrames {
+		return 0, fmt.Errorf("the association period is %d frames; TS 38.213 Table 8.1-1 allows 1 to %d", associationFrames, MaxPatternFrames)
+	}
+	if repeatFrames < 1 {
+		return 0, fmt.Errorf("the frames repeat every %d frames; it must be at least 1", repeatFrames)
+	}
+	a, b := associationFrames, repeatFrames
+	for b != 0 {
+		a, b = b, a%b
+	}
+	p := associationFrames / a * repeatFrames
+	if p > MaxPatternFrames {
+		return 0, fmt.Errorf("an association period of %d frames and frames that repeat every %d repeat together only every %d ms, beyond the 160 ms of TS 38.213 8.1",
+			associationFrames, repeatFrames, 10*p)
+	}
+	return p, nil
+}

@@ -125,15 +125,40 @@ func (c Config) InFrame(sfn int) bool {
 // symbol, PRACH slots per subframe or 60 kHz slot, N_t^{RA,slot}, N_dur^RA},
 // with 0 for the spec's "-".
 //
-// Transcribed from the text of TS 38.211 V18.7.0 (2025-06), Release 18, as
+// Which text: read from TS 38.211 V18.7.0 (2025-06), Release 18, as
 // converted to Markdown in github.com/CrzyNxtG/mdspc (38211-i70.md, commit
-// cc28174): the only full text of the tables at hand; no V17.x.0 text was, so the pin is
-// to that version. The indexes are those Release 17 signals (0–255, and
-// 256–262 of Table 6.3.3.2-3 since Release 16). The rows are checked cell by
-// cell against two independent copies, testdata/reference/prach/oai_prach_config.tsv and
-// testdata/reference/prach/srsran_prach_config.tsv, which agree with this text on every cell
-// they carry but one (see TestTablesAgainstOAI and TestTablesAgainstSRSRAN
-// for the counts).
+// cc28174), the only full text of the tables at hand. The indexes are those
+// Release 17 signals (0–255, and 256–262 of Table 6.3.3.2-3 since Release
+// 16). Three checks, cell by cell (tables_test.go logs the counts):
+//   - a second reading of that text by a script
+//     (testdata/reference/prach/ts38211-v18.7.0-tables.tsv): all 775 rows
+//     (256 + 263 + 256), 5878 cells, none differ (TestTablesAgainstText);
+//   - OpenAirInterface's copy (oai_prach_config.tsv): 768 rows, 5836 cells,
+//     one differs — Table 6.3.3.2-3 index 95, x = 2 in the text and in
+//     srsRAN's copy, 16 in OAI's; the text is followed (TestTablesAgainstOAI);
+//   - srsRAN Project's copy (srsran_prach_config.tsv): 768 rows, 513 with
+//     every column, 4051 cells, none differ (TestTablesAgainstSRSRAN).
+//
+// Release 17: no V17.x.0 text of clause 6.3.3.2 was found. Searched: the
+// stored code, docs and pages for "Table 6.3.3.2-3", "configurations for FR1
+// and unpaired spectrum", "3GPP TS 38.211 V17." and "38211-h" (the Release 17
+// file names); what turned up were citations, a Release 19 text (V19.3.0)
+// whose tables carry captions but no rows, and the V18.7.0 text above.
+// What was read: the change history (Annex A) of the V18.7.0 text lists the
+// Release 18 CRs, 18.0.0 to 18.7.0; by their titles three touch random
+// access — 0129 "introduction of FR2-NTN" (18.3.0), which in the text adds
+// "and for FR2-NTN and paired spectrum" to the caption of Table 6.3.3.2-4
+// and "FR2-NTN" beside FR2 in the prose of 6.3.3.2 (60 kHz slot numbering),
+// and 0137 and 0147 on PRACH for LTM candidate cells (18.4.0, 18.5.0), which
+// the text carries in the prose of 6.3.3.1 (ltm-restrictedSetConfig and the
+// preambles of a candidate cell), not in the three tables. What is inferred, not read: the CRs leave the
+// rows as they were, because prach-ConfigurationIndex is a Release 15 field
+// of SIB1 that UEs of every release read against these rows, so a changed
+// cell would move a deployed cell's occasions for older UEs; new needs get
+// new rows (256–262 in Release 16) or new captions. The base-station copies
+// agree: OAI's rows were first written in 2020 (Release 15) and match the
+// V18.7.0 text on every cell but the one above. The rows are therefore
+// taken to be those of Release 17, the release grid.Spec pins.
 
 // table6332_2 is TS 38.211 Table 6.3.3.2-2: random access configurations for
 // FR1 and paired spectrum/supplementary uplink.

@@ -11,26 +11,29 @@ import (
 // occasion of the association period. Times count Tc from the start of
 // frame 0; kHz are relative to point A.
 type PRACH struct {
-	Table                   string          `json:"table"`
-	ConfigurationIndex      int             `json:"configurationIndex"`
-	Format                  string          `json:"format"`
-	SequenceLength          int             `json:"sequenceLength"`
-	SCSKHz                  float64         `json:"scsKHz"`
-	PUSCHSCSKHz             int             `json:"puschScsKHz"`
-	NRBRA                   int             `json:"nRbRa"`
-	KBar                    int             `json:"kBar"`
-	Msg1FDM                 int             `json:"msg1FDM"`
-	Msg1FrequencyStart      int             `json:"msg1FrequencyStart"`
-	StartCRB                int             `json:"startCrb"`
-	BWP                     string          `json:"bwp"`
-	NCS                     int             `json:"nCs"`
-	CellRangeKm             float64         `json:"cellRangeKm"`
-	CellRange               PRACHRange      `json:"cellRange"`
-	ConfigPeriodFrames      int             `json:"configPeriodFrames"`
-	AssociationPeriodFrames int             `json:"associationPeriodFrames"`
-	SSBPerRachOccasion      string          `json:"ssbPerRachOccasion"`
-	ValidPer10ms            float64         `json:"validPer10ms"`
-	Occasions               []PRACHOccasion `json:"occasions"`
+	Table                   string     `json:"table"`
+	ConfigurationIndex      int        `json:"configurationIndex"`
+	Format                  string     `json:"format"`
+	SequenceLength          int        `json:"sequenceLength"`
+	SCSKHz                  float64    `json:"scsKHz"`
+	PUSCHSCSKHz             int        `json:"puschScsKHz"`
+	NRBRA                   int        `json:"nRbRa"`
+	KBar                    int        `json:"kBar"`
+	Msg1FDM                 int        `json:"msg1FDM"`
+	Msg1FrequencyStart      int        `json:"msg1FrequencyStart"`
+	StartCRB                int        `json:"startCrb"`
+	BWP                     string     `json:"bwp"`
+	NCS                     int        `json:"nCs"`
+	CellRangeKm             float64    `json:"cellRangeKm"`
+	CellRange               PRACHRange `json:"cellRange"`
+	ConfigPeriodFrames      int        `json:"configPeriodFrames"`
+	AssociationPeriodFrames int        `json:"associationPeriodFrames"`
+	// AssociationPatternPeriodFrames is TS 38.213 8.1's association
+	// pattern period in frames (0 without an association period).
+	AssociationPatternPeriodFrames int             `json:"associationPatternPeriodFrames"`
+	SSBPerRachOccasion             string          `json:"ssbPerRachOccasion"`
+	ValidPer10ms                   float64         `json:"validPer10ms"`
+	Occasions                      []PRACHOccasion `json:"occasions"`
 }
 
 // PRACHRange is the radius in km each limit allows: the cyclic prefix, the
@@ -75,7 +78,8 @@ func prachDoc(p *grid.PRACH) *PRACH {
 		Msg1FrequencyStart: p.FrequencyStart, StartCRB: p.StartCRB, BWP: bwp, NCS: p.NCS, CellRangeKm: p.CellRangeKm,
 		CellRange:          PRACHRange{CPKm: km(p.Range.CP), GuardKm: km(p.Range.Guard), ZeroCorrelationKm: km(p.Range.ZeroCorrelation)},
 		ConfigPeriodFrames: p.ConfigPeriodFrames, AssociationPeriodFrames: p.AssociationPeriodFrames,
-		SSBPerRachOccasion: p.SSBPerRO, ValidPer10ms: round3(p.ValidPer10ms), Occasions: make([]PRACHOccasion, len(p.Occasions))}
+		AssociationPatternPeriodFrames: p.AssociationPatternPeriodFrames,
+		SSBPerRachOccasion:             p.SSBPerRO, ValidPer10ms: round3(p.ValidPer10ms), Occasions: make([]PRACHOccasion, len(p.Occasions))}
 	for i, o := range p.Occasions {
 		ssb := o.SSBIndexes
 		if ssb == nil {

@@ -20,13 +20,14 @@ type PRACHFinderGroup struct {
 
 // PRACHFinderChoice is one fitting prach-ConfigurationIndex.
 type PRACHFinderChoice struct {
-	ConfigurationIndex      int     `json:"configurationIndex"`
-	SCSKHz                  float64 `json:"scsKHz"`
-	OccasionsPer10ms        float64 `json:"occasionsPer10ms"`
-	CellRangeKm             float64 `json:"cellRangeKm"`
-	ConfigPeriodFrames      int     `json:"configPeriodFrames"`
-	AssociationPeriodFrames int     `json:"associationPeriodFrames"`
-	Warnings                int     `json:"warnings"`
+	ConfigurationIndex             int     `json:"configurationIndex"`
+	SCSKHz                         float64 `json:"scsKHz"`
+	OccasionsPer10ms               float64 `json:"occasionsPer10ms"`
+	CellRangeKm                    float64 `json:"cellRangeKm"`
+	ConfigPeriodFrames             int     `json:"configPeriodFrames"`
+	AssociationPeriodFrames        int     `json:"associationPeriodFrames"`
+	AssociationPatternPeriodFrames int     `json:"associationPatternPeriodFrames"`
+	Warnings                       int     `json:"warnings"`
 }
 
 // BuildPRACHFinder turns what FindPRACH found into its document; Groups is
@@ -38,7 +39,8 @@ func BuildPRACHFinder(found grid.PRACHFound) PRACHFinder {
 		for _, c := range g.Choices {
 			jg.Choices = append(jg.Choices, PRACHFinderChoice{ConfigurationIndex: c.ConfigurationIndex, SCSKHz: c.SCSKHz,
 				OccasionsPer10ms: c.OccasionsPer10ms, CellRangeKm: c.CellRangeKm, ConfigPeriodFrames: c.ConfigPeriodFrames,
-				AssociationPeriodFrames: c.AssociationPeriodFrames, Warnings: c.Warnings})
+				AssociationPeriodFrames: c.AssociationPeriodFrames, AssociationPatternPeriodFrames: c.AssociationPatternPeriodFrames,
+				Warnings: c.Warnings})
 		}
 		doc.Groups = append(doc.Groups, jg)
 	}
