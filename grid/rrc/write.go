@@ -61,7 +61,7 @@ func Document(p grid.Plan) (*asn1v.Document, error) {
 }
 
 var header = []string{
-	"A gridloom plan as TS 38.331 (Release 17, V17.4.0) value notation.",
+	"A gridloom plan as TS 38.331 (Release 17, V17.1.0 ASN.1) value notation.",
 	"Fields the plan does not determine are left out; each value lists the mandatory ones it leaves out.",
 	"Lines \"gridloom key: value\" carry what 38.331 has no field for (values in JSON),",
 	"so that the plan reads back exactly; a note overrides the field it names.",
@@ -98,6 +98,11 @@ func build(given grid.Plan, r grid.Result) (*asn1v.Document, error) {
 		asn1v.F("scs-SpecificCarrierList", carriers),
 	)
 	noteBand(freqDL, r)
+	if r.SSB == nil {
+		// TS 38.331 FrequencyInfoDL-SIB: offsetToPointA is mandatory; it
+		// counts from point A to the SS/PBCH block's common RB.
+		freqDL.Note("offsetToPointA is left out: the plan places no SS/PBCH block, whose common RB it counts to")
+	}
 	initDL, initUL, whyDL, whyUL := initialBWPs(r, rachValue(given.PRACH, r))
 	dl := asn1v.Seq(asn1v.F("frequencyInfoDL", freqDL), asn1v.F("initialDownlinkBWP", initDL)).
 		Note("not set by the plan: bcch-Config, pcch-Config")
@@ -354,7 +359,13 @@ func initialBWPs(r grid.Result, rach *asn1v.Value) (dl, ul *asn1v.Value, whyDL, 
 	}
 	ia := r.InitialAccess
 	if ia == nil {
-		return nil, rachOnly(), "not set by the plan: initialDownlinkBWP (the plan has no initialAccess)", ""
+		ul = rachOnly()
+		if ul == nil {
+			// initialUplinkBWP is mandatory in UplinkConfigCommonSIB (TS
+			// 38.331).
+			whyUL = "not set by the plan: initialUplinkBWP (the plan has no initialAccess)"
+		}
+		return nil, ul, "not set by the plan: initialDownlinkBWP (the plan has no initialAccess)", whyUL
 	}
 	generic := func(b grid.InitialBWP) *asn1v.Value {
 		var cp *asn1v.Value
@@ -382,8 +393,8 @@ func initialBWPs(r grid.Result, rach *asn1v.Value) (dl, ul *asn1v.Value, whyDL, 
 	}
 	switch {
 	case ia.InitialUL == nil:
-		if rach != nil {
-			ul = rachOnly()
+		if ul = rachOnly(); ul == nil {
+			whyUL = "not set by the plan: initialUplinkBWP (the plan gives none and Compute places none)"
 		}
 	case ia.InitialUL.LocationAndBandwidth < 0:
 		whyUL = "initialUplinkBWP is left out: no locationAndBandwidth from its spacing's offsetToCarrier says it"
