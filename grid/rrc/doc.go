@@ -17,7 +17,15 @@
 //
 //   - MIB: ssb-SubcarrierOffset (k_SSB's 4 least significant bits), in
 //     FR1 and FR2-1 subCarrierSpacingCommon, and with initialAccess
-//     dmrs-TypeA-Position and pdcch-ConfigSIB1.
+//     dmrs-TypeA-Position and pdcch-ConfigSIB1. In FR2-2 and with shared
+//     spectrum channel access in FR1 (bands n46, n96, n102)
+//     subCarrierSpacingCommon gives no spacing — SIB1, Msg.2/4 and paging
+//     use the SS/PBCH block's — and with shared spectrum it is the QCL
+//     relation between SS/PBCH blocks (TS 38.331 MIB field description,
+//     TS 38.213 4.1), which a plan does not hold: it is left out with a
+//     comment saying so, and read as giving nothing. With shared spectrum
+//     in FR1 ssb-SubcarrierOffset is k̄_SSB: written as k_SSB, read as
+//     k_SSB = 2⌊k̄_SSB/2⌋ (TS 38.211 7.4.3.1), its low bit the QCL bit.
 //   - ServingCellConfigCommonSIB: downlinkConfigCommon.frequencyInfoDL
 //     (frequencyBandList, offsetToPointA, scs-SpecificCarrierList), uplinkConfigCommon
 //     .frequencyInfoUL.scs-SpecificCarrierList when a partition is uplink,

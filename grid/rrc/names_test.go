@@ -70,6 +70,9 @@ func exportPlans(t *testing.T) map[string]grid.Plan {
 	for name, p := range prachPlans(t) {
 		out[name] = p
 	}
+	for name, p := range commonPlans() {
+		out[name] = p
+	}
 	return out
 }
 

@@ -286,16 +286,45 @@ func noteBand(v *asn1v.Value, r grid.Result) {
 	v.Note(why)
 }
 
+// commonIsSpacing reports whether the MIB's subCarrierSpacingCommon gives
+// the spacing of SIB1, Msg.2/4 and paging. TS 38.331 Release 17, MIB field
+// description: "For operation with shared spectrum channel access in FR1
+// (see 37.213) and for operation in FR2-2, the subcarrier spacing for SIB1,
+// Msg.2/4 and MsgB for initial access, paging and broadcast SI-messages is
+// same as that for the corresponding SSB. For operation with shared
+// spectrum channel access, this field instead is used for deriving the QCL
+// relation between SS/PBCH blocks as specified in TS 38.213 [13], clause
+// 4.1" (testdata/reference/rrc/ts38331-mib-fields.txt). So it does in FR1
+// without shared spectrum and in FR2-1, and not in FR2-2 nor on a shared
+// spectrum FR1 band, where it is either unused or the QCL relation, which
+// a plan does not hold.
+func commonIsSpacing(rng grid.Range, bandName string) bool {
+	return rng != grid.FR2_2 && !(rng == grid.FR1 && band.SharedSpectrum(bandName))
+}
+
+// commonLeftOut says why subCarrierSpacingCommon is not written where it
+// gives no spacing.
+func commonLeftOut(r grid.Result) string {
+	where := "in FR2-2"
+	qcl := "with shared spectrum channel access it gives the QCL relation between SS/PBCH blocks instead"
+	if r.Channel.Range == grid.FR1 {
+		where = "with shared spectrum channel access (band " + r.Plan.Carrier.Band + ")"
+		qcl = "the field, with the least significant bit of ssb-SubcarrierOffset, gives the QCL relation between SS/PBCH blocks instead"
+	}
+	return fmt.Sprintf("subCarrierSpacingCommon is left out: %s SIB1, Msg.2/4 and paging use the SS/PBCH block's spacing, %d kHz, and %s (TS 38.331 MIB, TS 38.213 4.1), which the plan does not hold",
+		where, r.SSB.Numerology.SCSKHz(), qcl)
+}
+
 // mibValue writes the MIB fields a plan sets: ssb-SubcarrierOffset and,
-// in FR1 and FR2-1, subCarrierSpacingCommon, with the values Compute
-// resolved (a block placed by ssb.gscn, the default common spacing).
+// where it gives a spacing (commonIsSpacing), subCarrierSpacingCommon,
+// with the values Compute resolved (a block placed by ssb.gscn, the
+// default common spacing).
 func mibValue(r grid.Result) *asn1v.Value {
 	s := r.SSB
 	var common *asn1v.Value
 	v := asn1v.Seq()
-	if r.Channel.Range == grid.FR2_2 {
-		v.Note(mibLeft(r),
-			"subCarrierSpacingCommon is left out: gridloom does not map it in FR2-2")
+	if !commonIsSpacing(r.Channel.Range, r.Plan.Carrier.Band) {
+		v.Note(mibLeft(r), commonLeftOut(r))
 	} else {
 		fr := coreset0.FR1
 		if r.Channel.Range == grid.FR2_1 {
@@ -305,13 +334,24 @@ func mibValue(r grid.Result) *asn1v.Value {
 			common = asn1v.Ident(c.String())
 		}
 		v.Note(mibLeft(r))
-		if r.Channel.Range == grid.FR1 && s.KSSB >= 16 {
-			msg := fmt.Sprintf("k_SSB is %d: ssb-SubcarrierOffset carries its 4 least significant bits and PBCH payload bit a(A+5) its most significant (TS 38.212 7.1.1)", s.KSSB)
-			if _, ok := ssbARFCN(r); ok {
-				msg += "; absoluteFrequencySSB below fixes it too"
-			}
-			v.Note(msg)
+	}
+	if r.Channel.Range == grid.FR1 && band.SharedSpectrum(r.Plan.Carrier.Band) && s.KSSB < 24 {
+		// TS 38.331 MIB, ssb-SubcarrierOffset: with shared spectrum in FR1
+		// the field is k̄_SSB, k_SSB is obtained from it (TS 38.211 7.4.3.1:
+		// k_SSB = 2⌊k̄_SSB/2⌋ below 24), and its least significant bit also
+		// gives the QCL relation (TS 38.213 4.1).
+		msg := "ssb-SubcarrierOffset is k̄_SSB with shared spectrum channel access: k_SSB = 2⌊k̄_SSB/2⌋ (TS 38.211 7.4.3.1), and its least significant bit gives the QCL relation between SS/PBCH blocks, which the plan does not hold; it is written as k_SSB's"
+		if s.KSSB%2 == 1 {
+			msg = fmt.Sprintf("k_SSB %d is odd, which ssb-SubcarrierOffset cannot say with shared spectrum channel access: k_SSB = 2⌊k̄_SSB/2⌋ below 24 (TS 38.211 7.4.3.1)", s.KSSB)
 		}
+		v.Note(msg)
+	}
+	if r.Channel.Range == grid.FR1 && s.KSSB >= 16 {
+		msg := fmt.Sprintf("k_SSB is %d: ssb-SubcarrierOffset carries its 4 least significant bits and PBCH payload bit a(A+5) its most significant (TS 38.212 7.1.1)", s.KSSB)
+		if _, ok := ssbARFCN(r); ok {
+			msg += "; absoluteFrequencySSB below fixes it too"
+		}
+		v.Note(msg)
 	}
 	if common != nil {
 		v.Fields = append(v.Fields, asn1v.F("subCarrierSpacingCommon", common))
