@@ -213,6 +213,15 @@ func TestMIBPanel(t *testing.T) {
 	}{
 		{"&mib.sfn=682", "MIB of SS/PBCH block 0 in frame 682", "550104", "010101010000000100000100", "10100100"},
 		{"&mib.sfn=1&mib.ssb=3", "MIB of SS/PBCH block 3 in frame 1", "010104", "000000010000000100000100", "00010100"},
+		// cellBarred and intraFreqReselection are bits 21 and 22
+		// (ENUMERATED, one bit each in ASN.1 order: barred 0, notBarred 1;
+		// allowed 0, notAllowed 1), before the spare bit 23:
+		//	barred, allowed:        0 101010 1 0000 0 0010 0000 0 0 0 = 0101 0101 0000 0001 0000 0000 = 550100
+		//	notBarred, notAllowed:  0 101010 1 0000 0 0010 0000 1 1 0 = 0101 0101 0000 0001 0000 0110 = 550106
+		//	barred, notAllowed:     0 101010 1 0000 0 0010 0000 0 1 0 = 0101 0101 0000 0001 0000 0010 = 550102
+		{"&mib.sfn=682&mib.cellBarred=barred", "MIB of SS/PBCH block 0 in frame 682", "550100", "010101010000000100000000", "10100100"},
+		{"&mib.sfn=682&mib.intraFreqReselection=notAllowed", "MIB of SS/PBCH block 0 in frame 682", "550106", "010101010000000100000110", "10100100"},
+		{"&mib.sfn=682&mib.cellBarred=barred&mib.intraFreqReselection=notAllowed", "MIB of SS/PBCH block 0 in frame 682", "550102", "010101010000000100000010", "10100100"},
 	} {
 		r := get(t, srv, "/?"+q+c.keys)
 		wantStatus(t, r, http.StatusOK)
@@ -232,8 +241,10 @@ func TestMIBPanel(t *testing.T) {
 
 	// Values out of range are named beside their control, and the panel
 	// shows the default instead.
-	r := get(t, srv, "/?"+q+"&mib.sfn=1024&mib.ssb=5")
+	r := get(t, srv, "/?"+q+"&mib.sfn=1024&mib.ssb=5&mib.cellBarred=maybe")
 	wantContains(t, "SFN note", noteText(t, r.body, "f-mib-sfn"), "1024 is outside 0 to 1023")
+	wantContains(t, "cellBarred note", noteText(t, r.body, "f-mib-cellBarred"), "maybe", "is not a value; give barred or notBarred")
+	wantContains(t, "cellBarred control", between(r.body, `id="f-mib-cellBarred"`, `</select>`), `value="maybe" selected`)
 	wantContains(t, "SSB note", noteText(t, r.body, "f-mib-ssb"), "does not send block 5", "0, 1, 2 and 3")
 	wantContains(t, "MIB panel", between(r.body, `data-testid="mib"`, `</section>`), "MIB of SS/PBCH block 0 in frame 0")
 

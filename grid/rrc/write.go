@@ -302,6 +302,13 @@ func commonIsSpacing(rng grid.Range, bandName string) bool {
 	return rng != grid.FR2_2 && !(rng == grid.FR1 && band.SharedSpectrum(bandName))
 }
 
+// CommonIsSpacing reports whether the MIB's subCarrierSpacingCommon gives a
+// spacing for a computed plan: not in FR2-2, nor with shared spectrum
+// channel access in FR1 (TS 38.331 MIB field description).
+func CommonIsSpacing(r grid.Result) bool {
+	return commonIsSpacing(r.Channel.Range, r.Plan.Carrier.Band)
+}
+
 // commonLeftOut says why subCarrierSpacingCommon is not written where it
 // gives no spacing.
 func commonLeftOut(r grid.Result) string {
