@@ -13,6 +13,7 @@ import (
 	"testing"
 	"unicode"
 
+	"gridloom/grid"
 	"gridloom/grid/asn1v"
 	"gridloom/grid/rrc"
 )
@@ -202,7 +203,7 @@ func (p *asnParser) comps() []asnComp {
 	}
 }
 
-func loadTypes(t *testing.T) asnModule {
+func loadTypes(t testing.TB) asnModule {
 	t.Helper()
 	src, err := os.ReadFile(typesFile)
 	if err != nil {
@@ -608,5 +609,72 @@ func TestTypeWalkFails(t *testing.T) {
 	w.walk("test", "BWP-Downlink", v, &asnType{kind: "REF", ref: "BWP-Downlink"})
 	if len(w.errs) != 5 {
 		t.Errorf("%d errors, want 5 (order, enumeration, SetupRelease, misspelt field, mandatory bwp-Id):\n%s", len(w.errs), strings.Join(w.errs, "\n"))
+	}
+}
+
+// checkPlanValues walks a plan's value notation through the TS 38.331
+// types (as TestValuesFollowTS38331Types does) and checks its bandwidth
+// parts: each partition is one BWP-Downlink or BWP-Uplink, by its
+// direction, in plan order, whose bwp-Id counts 1 to 4 per direction and
+// whose only fields are bwp-Id and bwp-Common.genericParameters — the
+// partition's locationAndBandwidth, subcarrierSpacing and, for the
+// extended cyclic prefix only, cyclicPrefix — since the plan determines
+// nothing else of a BWP (pdcch-ConfigCommon, bwp-Dedicated, … are left
+// out and named in a comment).
+func checkPlanValues(t testing.TB, m asnModule, name string, p grid.Plan) {
+	t.Helper()
+	doc, err := rrc.Document(p)
+	if err != nil {
+		t.Fatalf("%s: %v", name, err)
+	}
+	w := &typeWalk{m: m, fields: map[string]bool{}}
+	var bwps []asn1v.Assignment
+	for _, a := range doc.Assignments {
+		w.walk(name+": "+a.Name, a.Type, a.Value, &asnType{kind: "REF", ref: a.Type})
+		if a.Type == "BWP-Downlink" || a.Type == "BWP-Uplink" {
+			bwps = append(bwps, a)
+		}
+	}
+	for _, e := range w.errs {
+		t.Error(e)
+	}
+	r := grid.Compute(p)
+	if len(bwps) != len(r.Partitions) {
+		t.Fatalf("%s: %d BWP values for %d partitions", name, len(bwps), len(r.Partitions))
+	}
+	ids := map[string]int{}
+	for i, l := range r.Partitions {
+		a := bwps[i]
+		want := "BWP-Downlink"
+		if l.Direction == grid.UL {
+			want = "BWP-Uplink"
+		}
+		ids[want]++
+		v := a.Value
+		g := v.Get("bwp-Common").Get("genericParameters")
+		switch {
+		case a.Type != want:
+			t.Errorf("%s: partition %d (%s) is written as %s", name, i, l.Direction, a.Type)
+		case len(v.Fields) != 2 || v.Fields[0].Name != "bwp-Id" || v.Fields[1].Name != "bwp-Common" || len(v.Get("bwp-Common").Fields) != 1 || g == nil:
+			t.Errorf("%s: %s holds more or less than bwp-Id and bwp-Common.genericParameters", name, a.Name)
+		case v.Get("bwp-Id").Int != int64(ids[want]):
+			t.Errorf("%s: %s has bwp-Id %d, want %d", name, a.Name, v.Get("bwp-Id").Int, ids[want])
+		case g.Get("locationAndBandwidth").Int != int64(l.LocationAndBandwidth):
+			t.Errorf("%s: %s locationAndBandwidth %d, the partition's is %d", name, a.Name, g.Get("locationAndBandwidth").Int, l.LocationAndBandwidth)
+		case g.Get("subcarrierSpacing").Text != rrc.Enumerations()["SubcarrierSpacing"][l.Numerology.Mu]:
+			t.Errorf("%s: %s subcarrierSpacing %s for μ = %d", name, a.Name, g.Get("subcarrierSpacing").Text, l.Numerology.Mu)
+		case (g.Get("cyclicPrefix") != nil) != (l.Numerology.CP == grid.ExtendedCP):
+			t.Errorf("%s: %s cyclicPrefix %v for a %v cyclic prefix", name, a.Name, g.Get("cyclicPrefix"), l.Numerology.CP)
+		}
+	}
+}
+
+// TestPartitionsAreBWPs runs checkPlanValues over the demo plans and the
+// plans of the other branches; TestRoundTripRandomPlans and FuzzRoundTrip
+// run it over their generated plans.
+func TestPartitionsAreBWPs(t *testing.T) {
+	m := loadTypes(t)
+	for name, p := range exportPlans(t) {
+		checkPlanValues(t, m, name, p)
 	}
 }
