@@ -423,11 +423,26 @@ func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 //   - UplinkConfigCommonSIB's initialUplinkBWP is mandatory; a plan with
 //     uplink partitions but no initialAccess wrote uplinkConfigCommon
 //     without saying it was left out.
+//   - FrequencyInfoDL-SIB's offsetToPointA is mandatory; a plan without
+//     SS/PBCH blocks left it out without saying so.
 //   - RACH-ConfigCommon's msg1-SubcarrierSpacing is "OPTIONAL -- Cond L139",
 //     which the field's conditional presence makes mandatory for a short
 //     (L = 139) format; gridloom wrote it only when the plan gave it, and
 //     now writes the spacing Compute resolved, with a note when the plan
 //     left it to its default.
+//
+// Shapes written from memory that the text confirms as they were: the band
+// lists (FrequencyInfoDL-SIB's MultiFrequencyBandListNR-SIB is SEQUENCE
+// (SIZE (1..maxNrofMultiBands)) OF NR-MultiBandInfo, whose
+// freqBandIndicatorNR is OPTIONAL, Cond OptULNotSIB2; FrequencyInfoDL's
+// MultiFrequencyBandListNR a SEQUENCE OF FreqBandIndicatorNR,
+// INTEGER (1..1024)); pdcch-ConfigCommon and rach-ConfigCommon as
+// SetupRelease { ... }, written "setup : { ... }"; prach-ConfigurationIndex-v1610
+// INTEGER (256..262) in RACH-ConfigGeneric's first extension group, the
+// UE ignoring prach-ConfigurationIndex when it is present;
+// msg1-SubcarrierSpacing a SubcarrierSpacing of RACH-ConfigCommon;
+// ssb-PeriodicityServingCell without spares in the SIB and
+// ssb-periodicityServingCell with spare2, spare1 in ServingCellConfigCommon.
 func TestValuesFollowTS38331Types(t *testing.T) {
 	m := loadTypes(t)
 	w := &typeWalk{m: m, fields: map[string]bool{}}
