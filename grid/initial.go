@@ -187,7 +187,7 @@ func coresetBand(rng Range, ch Channel) (b coreset0.Band, assumed string) {
 		}
 	}
 	b.Uses40MHzTables = bd.Name == "n79" || bd.Name == "n104"
-	b.SharedSpectrum = bd.Name == "n46" || bd.Name == "n96" || bd.Name == "n102"
+	b.SharedSpectrum = band.SharedSpectrum(bd.Name)
 	if minBW == 0 {
 		return b, "Band " + bd.Name + "'s channel bandwidths are not transcribed, so"
 	}

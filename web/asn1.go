@@ -2,6 +2,7 @@ package web
 
 import (
 	"net/http"
+	"strings"
 
 	"gridloom/grid"
 	"gridloom/grid/rrc"
@@ -44,8 +45,13 @@ func (s *server) planASN(w http.ResponseWriter, r *http.Request) error {
 // apiASN1 takes a plan file (JSON, YAML or value notation, as readAPIPlan
 // reads it) and answers its value notation, the command line's
 // render -format asn1.
+//
+// The answer is text, not JSON, so for a value notation body the import
+// notes lead it as comments, one a line: "-- import skipped: <path (line
+// n)>" and "-- import assumed: <sentence>", which reading the answer back
+// ignores.
 func (s *server) apiASN1(w http.ResponseWriter, r *http.Request) error {
-	plan, err := readAPIPlan(r)
+	plan, notes, err := readAPIPlan(r)
 	if err != nil {
 		return err
 	}
@@ -53,6 +59,22 @@ func (s *server) apiASN1(w http.ResponseWriter, r *http.Request) error {
 	if err != nil {
 		return err
 	}
+	if notes != nil {
+		var head []byte
+		for _, n := range notes.Skipped {
+			head = append(head, "-- import skipped: "+oneLine(n)+"\n"...)
+		}
+		for _, n := range notes.Assumed {
+			head = append(head, "-- import assumed: "+oneLine(n)+"\n"...)
+		}
+		b = append(head, b...)
+	}
 	send(w, r, http.StatusOK, "text/plain; charset=utf-8", b)
 	return nil
+}
+
+// oneLine keeps a note on its comment line: a line break would end the
+// comment, and "--" inside one would too.
+func oneLine(s string) string {
+	return strings.NewReplacer("\r", " ", "\n", " ", "--", "- -").Replace(s)
 }

@@ -5,6 +5,8 @@ import (
 	"net/http"
 	"net/url"
 	"os"
+	"reflect"
+	"slices"
 	"strings"
 	"testing"
 
@@ -119,17 +121,80 @@ func TestAPIASN1(t *testing.T) {
 	}
 
 	// render reads value notation under text/x-asn1: the same document as
-	// from the JSON plan file.
+	// from the JSON plan file, with the import notes (none here) first.
 	r = post(t, srv, "/api/v1/render", "text/x-asn1", want)
 	wantStatus(t, r, http.StatusOK)
 	fromJSON, _ := planfile.EncodeJSON(p)
-	if j := post(t, srv, "/api/v1/render", "application/json", fromJSON); j.body != r.body {
+	noNotes := "{\n  \"import\": {\n    \"skipped\": [],\n    \"assumed\": []\n  },\n"
+	if j := post(t, srv, "/api/v1/render", "application/json", fromJSON); noNotes+j.body[2:] != r.body {
 		t.Error("the document of the value notation differs from the document of the JSON plan file")
 	}
 	// Malformed text is refused with its line and column.
 	r = post(t, srv, "/api/v1/render", "text/x-asn1", []byte("mib MIB ::= {\n  subCarrierSpacingCommon scs30or120,\n  ssb-SubcarrierOffset 99\n}\n"))
 	wantStatus(t, r, http.StatusBadRequest)
 	wantContains(t, "malformed value notation", r.body, "line 3, column")
+}
+
+// TestAPIImportNotes: every API answer to a value notation body carries
+// what reading it skipped and assumed — the notes Open shows — as
+// "import": {"skipped": [...], "assumed": [...]} first in its JSON, and
+// /api/v1/asn1, whose answer is text, as leading comment lines; an answer
+// to a plan file has none.
+func TestAPIImportNotes(t *testing.T) {
+	srv, _ := newTestServer(t, testConfig(t))
+	text, err := rrc.Encode(initialCampus(t))
+	if err != nil {
+		t.Fatal(err)
+	}
+	// A second band in FrequencyInfoDL's list: the reader takes the first
+	// and says so; the PCI-Range value is skipped.
+	two := strings.Replace(string(text), "        78\n", "        78,\n        77\n", 1)
+	body := []byte(two + skippedIE)
+	d, err := rrc.Decode(body)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(d.Skipped) == 0 || len(d.Assumed) == 0 {
+		t.Fatalf("the test text should leave both kinds of note: %v %v", d.Skipped, d.Assumed)
+	}
+	type withImport struct {
+		Import *struct {
+			Skipped []string `json:"skipped"`
+			Assumed []string `json:"assumed"`
+		} `json:"import"`
+	}
+	for _, route := range []string{"/api/v1/render", "/api/v1/ssb", "/api/v1/initial"} {
+		r := post(t, srv, route, "text/x-asn1", body)
+		if !strings.HasPrefix(r.body, "{\n  \"import\": {") {
+			t.Errorf("%s: the answer does not start with the import notes:\n%.200s", route, r.body)
+		}
+		var got withImport
+		if err := json.Unmarshal([]byte(r.body), &got); err != nil || got.Import == nil {
+			t.Fatalf("%s (%s): %v\n%.300s", route, r.Status, err, r.body)
+		}
+		if !slices.Equal(got.Import.Skipped, d.Skipped) || !slices.Equal(got.Import.Assumed, d.Assumed) {
+			t.Errorf("%s: import %+v, want skipped %v and assumed %v", route, *got.Import, d.Skipped, d.Assumed)
+		}
+		if !strings.Contains(strings.Join(got.Import.Skipped, " "), "other-cell") || !strings.Contains(strings.Join(got.Import.Assumed, " "), "takes the first, n78") {
+			t.Errorf("%s: the notes do not name the skipped value and the band taken: %+v", route, *got.Import)
+		}
+		// A plan file leaves no notes and gets no "import".
+		fromJSON, _ := planfile.EncodeJSON(d.Plan)
+		if j := post(t, srv, route, "application/json", fromJSON); strings.Contains(j.body, `"import"`) {
+			t.Errorf("%s: a JSON plan file's answer has import notes", route)
+		}
+	}
+	r := post(t, srv, "/api/v1/asn1", "text/x-asn1", body)
+	wantStatus(t, r, http.StatusOK)
+	for _, n := range d.Skipped {
+		wantContains(t, "asn1 answer", r.body, "-- import skipped: "+n+"\n")
+	}
+	for _, n := range d.Assumed {
+		wantContains(t, "asn1 answer", r.body, "-- import assumed: "+n+"\n")
+	}
+	if back, err := rrc.Decode([]byte(r.body)); err != nil || !reflect.DeepEqual(back.Plan, d.Plan) {
+		t.Errorf("the asn1 answer with its note lines does not read back to the plan: %v", err)
+	}
 }
 
 // skippedIE is a value of a type gridloom does not read, which Open skips
@@ -213,6 +278,15 @@ func TestMIBPanel(t *testing.T) {
 	}{
 		{"&mib.sfn=682", "MIB of SS/PBCH block 0 in frame 682", "550104", "010101010000000100000100", "10100100"},
 		{"&mib.sfn=1&mib.ssb=3", "MIB of SS/PBCH block 3 in frame 1", "010104", "000000010000000100000100", "00010100"},
+		// cellBarred and intraFreqReselection are bits 21 and 22
+		// (ENUMERATED, one bit each in ASN.1 order: barred 0, notBarred 1;
+		// allowed 0, notAllowed 1), before the spare bit 23:
+		//	barred, allowed:        0 101010 1 0000 0 0010 0000 0 0 0 = 0101 0101 0000 0001 0000 0000 = 550100
+		//	notBarred, notAllowed:  0 101010 1 0000 0 0010 0000 1 1 0 = 0101 0101 0000 0001 0000 0110 = 550106
+		//	barred, notAllowed:     0 101010 1 0000 0 0010 0000 0 1 0 = 0101 0101 0000 0001 0000 0010 = 550102
+		{"&mib.sfn=682&mib.cellBarred=barred", "MIB of SS/PBCH block 0 in frame 682", "550100", "010101010000000100000000", "10100100"},
+		{"&mib.sfn=682&mib.intraFreqReselection=notAllowed", "MIB of SS/PBCH block 0 in frame 682", "550106", "010101010000000100000110", "10100100"},
+		{"&mib.sfn=682&mib.cellBarred=barred&mib.intraFreqReselection=notAllowed", "MIB of SS/PBCH block 0 in frame 682", "550102", "010101010000000100000010", "10100100"},
 	} {
 		r := get(t, srv, "/?"+q+c.keys)
 		wantStatus(t, r, http.StatusOK)
@@ -232,8 +306,10 @@ func TestMIBPanel(t *testing.T) {
 
 	// Values out of range are named beside their control, and the panel
 	// shows the default instead.
-	r := get(t, srv, "/?"+q+"&mib.sfn=1024&mib.ssb=5")
+	r := get(t, srv, "/?"+q+"&mib.sfn=1024&mib.ssb=5&mib.cellBarred=maybe")
 	wantContains(t, "SFN note", noteText(t, r.body, "f-mib-sfn"), "1024 is outside 0 to 1023")
+	wantContains(t, "cellBarred note", noteText(t, r.body, "f-mib-cellBarred"), "maybe", "is not a value; give barred or notBarred")
+	wantContains(t, "cellBarred control", between(r.body, `id="f-mib-cellBarred"`, `</select>`), `value="maybe" selected`)
 	wantContains(t, "SSB note", noteText(t, r.body, "f-mib-ssb"), "does not send block 5", "0, 1, 2 and 3")
 	wantContains(t, "MIB panel", between(r.body, `data-testid="mib"`, `</section>`), "MIB of SS/PBCH block 0 in frame 0")
 

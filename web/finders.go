@@ -47,7 +47,7 @@ func notSearchable(err error) *problem {
 
 // apiSSB answers POST /api/v1/ssb: the JSON of `gridloom ssb -format json`.
 func (s *server) apiSSB(w http.ResponseWriter, r *http.Request) error {
-	plan, err := readAPIPlan(r)
+	plan, notes, err := readAPIPlan(r)
 	if err != nil {
 		return err
 	}
@@ -55,7 +55,7 @@ func (s *server) apiSSB(w http.ResponseWriter, r *http.Request) error {
 	if err != nil {
 		return notSearchable(err)
 	}
-	if err := sendJSON(w, r, http.StatusOK, report.BuildSSBPositions(found)); err != nil {
+	if err := sendJSONImport(w, r, http.StatusOK, report.BuildSSBPositions(found), notes); err != nil {
 		return internal("SS/PBCH positions", err)
 	}
 	return nil
@@ -65,7 +65,7 @@ func (s *server) apiSSB(w http.ResponseWriter, r *http.Request) error {
 // -format json`, with 422 when no combination passes, as the command
 // exits with the plan-errors code.
 func (s *server) apiInitial(w http.ResponseWriter, r *http.Request) error {
-	plan, err := readAPIPlan(r)
+	plan, notes, err := readAPIPlan(r)
 	if err != nil {
 		return err
 	}
@@ -83,7 +83,7 @@ func (s *server) apiInitial(w http.ResponseWriter, r *http.Request) error {
 	if len(doc.Options) == 0 {
 		status = http.StatusUnprocessableEntity
 	}
-	if err := sendJSON(w, r, status, doc); err != nil {
+	if err := sendJSONImport(w, r, status, doc, notes); err != nil {
 		return internal("initial-access options", err)
 	}
 	return nil

@@ -76,10 +76,10 @@ type formView struct {
 // planner's form so that the live update and the page without script both
 // carry them.
 type mibBoxView struct {
-	Group    group
-	SFN, SSB control
-	Open     bool
-	Hint     string
+	Group                       group
+	SFN, SSB, CellBarred, Intra control
+	Open                        bool
+	Hint                        string
 }
 
 // id is the form's id for name.

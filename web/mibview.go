@@ -2,6 +2,7 @@ package web
 
 import (
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -53,8 +54,10 @@ func buildMIB(st planform.State, mf planform.MIBForm) (mibBoxView, *mibView) {
 			Value: mf.SFN, InputMode: "numeric", Placeholder: "0", Size: "6", Notes: note(planform.KeyMIBSFN)},
 		SSB: control{ID: planform.KeyID(planform.KeyMIBSSB), Name: planform.KeyMIBSSB, Label: "SS/PBCH block",
 			Value: mf.SSB, InputMode: "numeric", Placeholder: ssbHolder, Size: "6", Notes: note(planform.KeyMIBSSB)},
-		Open: mf != planform.MIBForm{},
-		Hint: "The frame and the SS/PBCH block whose MIB and PBCH payload bits the results show. The plan holds neither: they change from block to block and frame to frame.",
+		CellBarred: enumControl(planform.KeyMIBCellBarred, "cellBarred", mf.CellBarred, planform.CellBarredValues, "notBarred", note(planform.KeyMIBCellBarred)),
+		Intra:      enumControl(planform.KeyMIBIntraFreq, "intraFreqReselection", mf.IntraFreq, planform.IntraFreqValues, "allowed", note(planform.KeyMIBIntraFreq)),
+		Open:       mf != planform.MIBForm{},
+		Hint:       "The frame and the SS/PBCH block whose MIB and PBCH payload bits the results show, and the MIB's cellBarred and intraFreqReselection. The plan holds none of them: the first two change from block to block and frame to frame, the last two are the operator's to set.",
 	}
 	if !ok {
 		return box, nil
@@ -67,6 +70,7 @@ func buildMIB(st planform.State, mf planform.MIBForm) (mibBoxView, *mibView) {
 		return box, v
 	}
 	m.SFN = c.SFN
+	m.CellBarred, m.IntraFreqReselectionNotAllowed = c.CellBarred, c.IntraFreqNotAllowed
 	t.SSBIndex = c.SSBIndex
 	t.HalfFrame = c.HalfFrame
 	bits, err := rrc.EncodeMIB(m, t)
@@ -123,15 +127,38 @@ func mibFacts(res grid.Result, c planform.MIBChoice) []string {
 	facts := []string{
 		fmt.Sprintf("Block %d lies in the %s half of its frame as the plan places it, which sets the half frame bit ā(A+4).", c.SSBIndex, half),
 		fmt.Sprintf("k_SSB %d is the plan's; L_max = %d decides what ā(A+5) to ā(A+7) carry (TS 38.212 7.1.1).", res.SSB.KSSB, res.SSB.Candidates),
-		"cellBarred is notBarred and intraFreqReselection allowed: the plan does not hold them.",
+		fmt.Sprintf("cellBarred %s and intraFreqReselection %s are the panel's choice (mib.cellBarred, mib.intraFreqReselection): the plan does not hold them.",
+			planform.CellBarredValues[boolIndex(!c.CellBarred)], planform.IntraFreqValues[boolIndex(c.IntraFreqNotAllowed)]),
 	}
 	if res.InitialAccess == nil {
 		facts = append(facts, "pdcch-ConfigSIB1 is 0 and dmrs-TypeA-Position pos2 here because the plan has no initial access block; set CORESET#0 and the search space zero to encode yours.")
 	}
-	if res.Channel.Range == grid.FR2_2 {
-		facts = append(facts, "subCarrierSpacingCommon is scs15or60 here: in FR2-2 the plan does not set it.")
+	if !rrc.CommonIsSpacing(res) {
+		facts = append(facts, "subCarrierSpacingCommon is scs15or60 here: in FR2-2 and with shared spectrum channel access it gives no spacing (SIB1 uses the SS/PBCH block's) and, with shared spectrum, the QCL relation between SS/PBCH blocks, which the plan does not hold (TS 38.331 MIB).")
 	}
 	return facts
+}
+
+// enumControl is a select of the MIB's two-valued field: empty (its usual
+// value, def) and the two values TS 38.331 spells. A value typed into the
+// address that is neither stays selectable, so it is not lost.
+func enumControl(key, label, value string, values []string, def string, notes []note) control {
+	opts := []option{{Value: "", Label: def + " (default)", Selected: value == ""}}
+	for _, v := range values {
+		opts = append(opts, option{Value: v, Label: v, Selected: value == v})
+	}
+	if value != "" && !slices.Contains(values, value) {
+		opts = append(opts, option{Value: value, Label: value, Selected: true})
+	}
+	return control{ID: planform.KeyID(key), Name: key, Label: label, Value: value, Size: "6", Options: opts, Notes: notes}
+}
+
+// boolIndex is 1 for true, 0 for false.
+func boolIndex(b bool) int {
+	if b {
+		return 1
+	}
+	return 0
 }
 
 // withStop is an error's text ending in a full stop, as the panel shows it.

@@ -204,7 +204,7 @@ func (s *server) prachFind(w http.ResponseWriter, r *http.Request) error {
 // the document of "gridloom prach -format json"; 422 with the reason when
 // the plan has errors to fix first.
 func (s *server) apiPRACH(w http.ResponseWriter, r *http.Request) error {
-	plan, err := readAPIPlan(r)
+	plan, notes, err := readAPIPlan(r)
 	if err != nil {
 		return err
 	}
@@ -212,7 +212,7 @@ func (s *server) apiPRACH(w http.ResponseWriter, r *http.Request) error {
 	if err != nil {
 		return &problem{status: http.StatusUnprocessableEntity, text: err.Error()}
 	}
-	if err := sendJSON(w, r, http.StatusOK, report.BuildPRACHFinder(found)); err != nil {
+	if err := sendJSONImport(w, r, http.StatusOK, report.BuildPRACHFinder(found), notes); err != nil {
 		return internal("prach finder document", err)
 	}
 	return nil

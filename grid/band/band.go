@@ -218,3 +218,11 @@ func (b Band) AllowsBandwidth(scsKHz, mhz int) (ok, known bool) {
 // Table 5.4.2.3-1 lists one by one per channel bandwidth; this package
 // holds only their span, so a centre it accepts may still be off the list.
 func (b Band) ListsARFCNs() bool { return slices.Contains(listedARFCNBands[:], b.Number) }
+
+// SharedSpectrum reports whether an FR1 band is operated with shared
+// spectrum channel access: n46, n96 and n102 (TS 38.101-1 Table 5.2-1,
+// from memory). TS 38.331 and TS 38.213 give some fields another meaning
+// there (the MIB's subCarrierSpacingCommon, for one).
+func SharedSpectrum(name string) bool {
+	return name == "n46" || name == "n96" || name == "n102"
+}

@@ -159,14 +159,24 @@ func MayBeFigure(name string, data []byte) bool {
 // DecodeValueNotation reads TS 38.331 value notation into a plan (see
 // package grid/rrc) and returns its notes. Errors give the line and column.
 func DecodeValueNotation(data []byte) (grid.Plan, []string, error) {
+	d, err := ReadValueNotation(data)
+	if err != nil {
+		return grid.Plan{}, nil, err
+	}
+	return d.Plan, d.Notes(), nil
+}
+
+// ReadValueNotation is DecodeValueNotation with what the reader skipped
+// and assumed kept apart, for answers that list them separately.
+func ReadValueNotation(data []byte) (rrc.Decoded, error) {
 	if len(data) > MaxSize {
-		return grid.Plan{}, nil, tooLarge(len(data))
+		return rrc.Decoded{}, tooLarge(len(data))
 	}
 	d, err := rrc.Decode(bytes.TrimPrefix(data, bom))
 	if err != nil {
-		return grid.Plan{}, nil, &FieldError{Msg: "The plan is not TS 38.331 value notation gridloom can read: " + err.Error()}
+		return rrc.Decoded{}, &FieldError{Msg: "The plan is not TS 38.331 value notation gridloom can read: " + err.Error()}
 	}
-	return d.Plan, d.Notes(), nil
+	return d, nil
 }
 
 // DecodeJSON reads a JSON plan file.

@@ -7,12 +7,25 @@
 // # What is written
 //
 // Encode writes, with the IE, field and enumeration names of TS 38.331
-// Release 17 (V17.4.0; testdata/reference/rrc/ts38331-names.tsv lists each, checked
-// against srsRAN_Project's code generated from the same version):
+// Release 17 as the ASN.1 of V17.1.0 (2022-06) spells them
+// (testdata/reference/rrc/ts38331-v17.1.0-types.asn holds the type
+// definitions used; TestValuesFollowTS38331Types walks every written value
+// through them: names, nesting, order, optionality, enumerations and
+// ranges), cross-checked against srsRAN_Project's code generated from
+// V17.4.0 (2023-03), which spells the same IEs alike
+// (testdata/reference/rrc/ts38331-names.tsv and srsran_names.tsv):
 //
 //   - MIB: ssb-SubcarrierOffset (k_SSB's 4 least significant bits), in
 //     FR1 and FR2-1 subCarrierSpacingCommon, and with initialAccess
-//     dmrs-TypeA-Position and pdcch-ConfigSIB1.
+//     dmrs-TypeA-Position and pdcch-ConfigSIB1. In FR2-2 and with shared
+//     spectrum channel access in FR1 (bands n46, n96, n102)
+//     subCarrierSpacingCommon gives no spacing — SIB1, Msg.2/4 and paging
+//     use the SS/PBCH block's — and with shared spectrum it is the QCL
+//     relation between SS/PBCH blocks (TS 38.331 MIB field description,
+//     TS 38.213 4.1), which a plan does not hold: it is left out with a
+//     comment saying so, and read as giving nothing. With shared spectrum
+//     in FR1 ssb-SubcarrierOffset is k̄_SSB: written as k_SSB, read as
+//     k_SSB = 2⌊k̄_SSB/2⌋ (TS 38.211 7.4.3.1), its low bit the QCL bit.
 //   - ServingCellConfigCommonSIB: downlinkConfigCommon.frequencyInfoDL
 //     (frequencyBandList, offsetToPointA, scs-SpecificCarrierList), uplinkConfigCommon
 //     .frequencyInfoUL.scs-SpecificCarrierList when a partition is uplink,
@@ -24,7 +37,8 @@
 //     with prach the initialUplinkBWP's rach-ConfigCommon (rach-ConfigGeneric's
 //     prach-ConfigurationIndex, msg1-FDM, msg1-FrequencyStart and
 //     zeroCorrelationZoneConfig, msg1-SubcarrierSpacing for a short
-//     format the plan gives it for, restrictedSetConfig), alone in the
+//     (L = 139) format, which Cond L139 makes mandatory there,
+//     restrictedSetConfig), alone in the
 //     initialUplinkBWP when the plan places none.
 //   - ServingCellConfigCommon: downlinkConfigCommon.frequencyInfoDL
 //     (absoluteFrequencySSB, frequencyBandList, absoluteFrequencyPointA,

@@ -179,12 +179,14 @@ func FuzzRoundTrip(f *testing.F) {
 	f.Add([]byte{0, 1, 5, 1, 0, 1, 1, 2, 10, 20, 0, 1, 0, 1, 1, 1, 0, 2, 3, 4, 5, 1, 1, 0, 3, 4})
 	f.Add([]byte{1, 0, 1, 2, 7, 0, 1, 0, 3, 1, 3, 30, 1, 2, 2, 2, 1, 0, 0, 1, 0, 2, 1, 0, 0, 20, 5, 2, 1, 1})
 	f.Add([]byte{2, 1, 0, 0, 0, 0, 2, 0, 0, 2, 1, 0, 0, 1, 0})
+	m := loadTypes(f)
 	f.Fuzz(func(t *testing.T, data []byte) {
 		p, ok := exportable(data)
 		if !ok {
 			return // a plan with errors is not exported
 		}
 		roundTrip(t, "fuzz", p)
+		checkPlanValues(t, m, "fuzz", p)
 	})
 }
 
@@ -245,6 +247,7 @@ func FuzzDecode(f *testing.F) {
 // band and synchronization-raster checks refuse most blocks placed by
 // offsets at an absolute frequency).
 func TestRoundTripRandomPlans(t *testing.T) {
+	m := loadTypes(t)
 	r := rand.New(rand.NewSource(18))
 	exported, withSSB, withTDD, withBand, withGSCN, withIA, withNTA, withPRACH := 0, 0, 0, 0, 0, 0, 0, 0
 	for range 40000 {
@@ -277,6 +280,7 @@ func TestRoundTripRandomPlans(t *testing.T) {
 			withPRACH++
 		}
 		roundTrip(t, "generated", p)
+		checkPlanValues(t, m, "generated", p)
 	}
 	t.Logf("%d plans exported and read back (%d with SS/PBCH blocks, %d placed by GSCN, %d with TDD, %d naming a band, %d with initial access, %d with nTaOffset, %d with prach)", exported, withSSB, withGSCN, withTDD, withBand, withIA, withNTA, withPRACH)
 	if exported < 100 || withSSB < 20 || withTDD < 20 || withGSCN < 3 || withBand < 10 || withIA < 3 || withNTA < 20 {

@@ -216,13 +216,16 @@ func EncodeMIB(m MIB, t PBCHTiming) (MIBBits, error) {
 }
 
 // MIBForPlan starts a MIB from what a computed plan sets — k_SSB, in FR1
-// and FR2-1 subCarrierSpacingCommon from ssb.scsCommonKHz, and with
+// (without shared spectrum) and FR2-1 subCarrierSpacingCommon from
+// ssb.scsCommonKHz, and with
 // initialAccess pdcch-ConfigSIB1 and dmrs-TypeA-Position — and returns the
 // PBCH timing of its blocks (frequency range and L_max) for block 0, with
 // the values as Compute resolved them (a block placed by ssb.gscn, the
 // default common spacing, pos2 for an unset dmrsTypeAPosition). The rest
 // of the MIB (SFN, cellBarred, intraFreqReselection, subCarrierSpacingCommon
-// in FR2-2, and pdcch-ConfigSIB1 and dmrs-TypeA-Position for a plan
+// in FR2-2 and on a shared spectrum FR1 band, where it gives no spacing but
+// the QCL relation between SS/PBCH blocks (TS 38.331 MIB, commonIsSpacing),
+// and pdcch-ConfigSIB1 and dmrs-TypeA-Position for a plan
 // without initialAccess) is the caller's to choose: the plan does not hold
 // it.
 func MIBForPlan(r grid.Result) (MIB, PBCHTiming, error) {
@@ -234,7 +237,7 @@ func MIBForPlan(r grid.Result) (MIB, PBCHTiming, error) {
 	if r.Channel.Range.FR2() {
 		t.FR = coreset0.FR2
 	}
-	if r.Channel.Range != grid.FR2_2 {
+	if commonIsSpacing(r.Channel.Range, r.Plan.Carrier.Band) {
 		s, err := coreset0.SubCarrierSpacingCommonFor(t.FR, r.SSB.ScsCommonKHz)
 		if err != nil {
 			return MIB{}, PBCHTiming{}, err

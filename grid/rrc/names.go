@@ -7,9 +7,10 @@ import (
 	"strings"
 )
 
-// The ASN.1 names of TS 38.331 (Release 17, V17.4.0) that gridloom
-// reads and writes; testdata/reference/rrc/ts38331-names.tsv lists them with their IEs
-// and TestWrittenNamesAreTS38331 checks every name the writer emits.
+// The ASN.1 names of TS 38.331 (Release 17, V17.1.0) that gridloom
+// reads and writes; testdata/reference/rrc/ts38331-v17.1.0-types.asn has
+// the type definitions, TestValuesFollowTS38331Types checks every value the
+// writer emits against them and TestEnumerationsAreTS38331 the lists below.
 
 // scsNames is SubcarrierSpacing (TS 38.331 6.3.2), kHz15 … kHz960-v1700.
 var scsNames = []struct {

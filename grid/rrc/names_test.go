@@ -8,9 +8,7 @@ import (
 	"testing"
 
 	"gridloom/grid"
-	"gridloom/grid/asn1v"
 	"gridloom/grid/demo"
-	"gridloom/grid/rrc"
 )
 
 // row is one line of a names table: an IE, a component, and values.
@@ -51,46 +49,6 @@ func readTSV(t *testing.T, path string) []row {
 	return rows
 }
 
-// spec is testdata/reference/rrc/ts38331-names.tsv: for each IE, its components, and for
-// each component the enumeration values.
-type spec struct {
-	ies        map[string]bool
-	components map[string]bool
-	enums      map[string][]string // component (or IE, for SubcarrierSpacing) → values
-}
-
-func loadSpec(t *testing.T) spec {
-	s := spec{ies: map[string]bool{}, components: map[string]bool{}, enums: map[string][]string{}}
-	for _, r := range readTSV(t, "../../testdata/reference/rrc/ts38331-names.tsv") {
-		s.ies[r.ie] = true
-		if r.kind != "-" {
-			s.components[r.kind] = true
-		}
-		if r.values != nil {
-			key := r.kind
-			if key == "-" {
-				key = r.ie
-			}
-			if prev, ok := s.enums[key]; ok && !slices.Equal(prev, r.values) {
-				// Two IEs use one component name with different
-				// enumerations (ssb-PeriodicityServingCell has no spares
-				// in the SIB); keep both under distinct keys.
-				key = r.ie + "." + key
-			}
-			s.enums[key] = r.values
-		}
-	}
-	return s
-}
-
-// enumType maps components whose type is a named enumeration to it.
-var enumType = map[string]string{
-	"subcarrierSpacing":          "SubcarrierSpacing",
-	"referenceSubcarrierSpacing": "SubcarrierSpacing",
-	"ssbSubcarrierSpacing":       "SubcarrierSpacing",
-	"msg1-SubcarrierSpacing":     "SubcarrierSpacing",
-}
-
 // exportPlans are the demo plans and plans that reach the other branches:
 // the 3 ms TDD period of the -v1530 extension, extended CP, FR2's
 // subCarrierSpacingCommon and a 4-candidate SS/PBCH bitmap.
@@ -110,6 +68,9 @@ func exportPlans(t *testing.T) map[string]grid.Plan {
 		out[name] = p
 	}
 	for name, p := range prachPlans(t) {
+		out[name] = p
+	}
+	for name, p := range commonPlans() {
 		out[name] = p
 	}
 	return out
@@ -145,73 +106,58 @@ func extraPlans() map[string]grid.Plan {
 	}
 }
 
-// collect gathers the names a value tree uses: field names, CHOICE
-// alternatives, and for each identifier value its field.
-func collect(v *asn1v.Value, field string, fields map[string]bool, enums map[[2]string]bool) {
-	switch v.Kind {
-	case asn1v.Sequence:
-		for _, f := range v.Fields {
-			fields[f.Name] = true
-			collect(f.Value, f.Name, fields, enums)
+// TestNamesTableMatchesTypes checks the names table (the rows compared
+// with srsRAN_Project's V17.4.0 code below) against the V17.1.0 ASN.1
+// excerpt, so that the two sources and the excerpt agree: each row's
+// component is one of its IE's components, or a component or CHOICE
+// alternative nested inline in it (inOneGroup, shortBitmap, oneEighth),
+// and an enumeration row lists that component's values in order.
+func TestNamesTableMatchesTypes(t *testing.T) {
+	m := loadTypes(t)
+	// find looks for a component among an IE's own and inline types.
+	var find func(ty *asnType, name string) *asnType
+	find = func(ty *asnType, name string) *asnType {
+		if ty == nil {
+			return nil
 		}
-	case asn1v.SequenceOf:
-		for _, e := range v.Elems {
-			collect(e, field, fields, enums)
-		}
-	case asn1v.Choice:
-		fields[v.Name] = true
-		collect(v.Elems[0], v.Name, fields, enums)
-	case asn1v.Identifier:
-		enums[[2]string{field, v.Text}] = true
-	}
-}
-
-func TestWrittenNamesAreTS38331(t *testing.T) {
-	s := loadSpec(t)
-	fields, enums := map[string]bool{}, map[[2]string]bool{}
-	for name, p := range exportPlans(t) {
-		doc, err := rrc.Document(p)
-		if err != nil {
-			t.Fatalf("%s: %v", name, err)
-		}
-		for _, a := range doc.Assignments {
-			if !s.ies[a.Type] {
-				t.Errorf("%s: type %s is not an IE of the names table", name, a.Type)
-			}
-			collect(a.Value, "", fields, enums)
-		}
-	}
-	for f := range fields {
-		if !s.components[f] {
-			t.Errorf("field %s is not a component of the names table", f)
-		}
-	}
-	checked := 0
-	for e := range enums {
-		field, value := e[0], e[1]
-		key := field
-		if ty, ok := enumType[field]; ok {
-			key = ty
-		}
-		var allowed []string
-		for k, vals := range s.enums {
-			if k == key || strings.HasSuffix(k, "."+key) {
-				allowed = append(allowed, vals...)
+		for _, c := range ty.comps {
+			if c.name == name {
+				return c.t
 			}
 		}
-		if !slices.Contains(allowed, value) {
-			t.Errorf("%s %s is not an enumeration value of the names table (%v)", field, value, allowed)
+		for _, c := range ty.comps {
+			if c.t.kind != "REF" {
+				if got := find(c.t, name); got != nil {
+					return got
+				}
+			}
 		}
-		checked++
+		return nil
 	}
-	t.Logf("%d field names and %d enumeration values written, all in the names table", len(fields), checked)
-	for _, f := range []string{"n-TimingAdvanceOffset", "dmrs-TypeA-Position", "pdcch-ConfigSIB1", "pdcch-ConfigCommon", "controlResourceSetZero", "searchSpaceZero", "initialDownlinkBWP", "initialUplinkBWP", "rach-ConfigCommon", "rach-ConfigGeneric", "msg1-FDM", "msg1-SubcarrierSpacing", "restrictedSetConfig"} {
-		if !fields[f] {
-			t.Errorf("no plan writes %s; the check does not reach it", f)
+	rows := 0
+	for _, r := range readTSV(t, "../../testdata/reference/rrc/ts38331-names.tsv") {
+		def := m.types[r.ie]
+		if def == nil {
+			t.Errorf("%s is not a type of the excerpt", r.ie)
+			continue
+		}
+		rows++
+		ty := def
+		if r.kind != "-" {
+			if ty = find(def, r.kind); ty == nil {
+				t.Errorf("%s has no component %s in TS 38.331 V17.1.0", r.ie, r.kind)
+				continue
+			}
+		}
+		if r.values != nil {
+			rt := m.resolve(ty, nil)
+			if rt == nil || !slices.Equal(rt.enums, r.values) {
+				t.Errorf("%s.%s: the table has %v, TS 38.331 V17.1.0 %v", r.ie, r.kind, r.values, rt)
+			}
 		}
 	}
-	if len(fields) < 30 || checked < 8 {
-		t.Errorf("only %d fields and %d values written; the plans should reach every branch", len(fields), checked)
+	if rows < 100 {
+		t.Errorf("only %d rows checked", rows)
 	}
 }
 

@@ -26,7 +26,7 @@ var ssbPerROChoices = map[string]string{
 var restrictedSetNames = []string{"unrestrictedSet", "restrictedSetTypeA", "restrictedSetTypeB"}
 
 // rachLeft lists the mandatory fields of RACH-ConfigGeneric and
-// RACH-ConfigCommon (TS 38.331 V17.4.0) the plan does not determine.
+// RACH-ConfigCommon (TS 38.331 V17.1.0) the plan does not determine.
 const (
 	rachGenericLeft = "not set by the plan: preambleReceivedTargetPower, preambleTransMax, powerRampingStep, ra-ResponseWindow"
 	rachCommonLeft  = "not set by the plan: ra-ContentionResolutionTimer, prach-RootSequenceIndex"
@@ -37,9 +37,9 @@ const (
 // rach-ConfigCommon, with the values as the plan gives them and Compute
 // checked them: a field the plan leaves to its default is written as that
 // default where 38.331 has the field mandatory (msg1-FDM,
-// restrictedSetConfig), and msg1-SubcarrierSpacing only when the plan
-// gives it for a short format (for the long formats the UE takes the
-// spacing from the format, TS 38.331 Cond L139).
+// restrictedSetConfig, and for a short format msg1-SubcarrierSpacing, which
+// TS 38.331 Cond L139 makes mandatory for L = 139 and absent otherwise: for
+// the long formats the UE takes the spacing from the format).
 func rachValue(given *grid.PRACHPlan, r grid.Result) *asn1v.Value {
 	if given == nil || r.PRACH == nil {
 		return nil
@@ -68,8 +68,10 @@ func rachValue(given *grid.PRACHPlan, r grid.Result) *asn1v.Value {
 		set = "unrestrictedSet"
 	}
 	v := asn1v.Seq(asn1v.F("rach-ConfigGeneric", generic))
-	if r.PRACH.SequenceLength == 139 && given.Msg1SubcarrierSpacing != 0 {
-		v.Fields = append(v.Fields, asn1v.F("msg1-SubcarrierSpacing", asn1v.Ident(scsName(int(given.Msg1SubcarrierSpacing)))))
+	if r.PRACH.SequenceLength == 139 {
+		// Mandatory for L = 139 (TS 38.331 RACH-ConfigCommon, Cond L139):
+		// the spacing Compute resolved, the plan's or its default.
+		v.Fields = append(v.Fields, asn1v.F("msg1-SubcarrierSpacing", asn1v.Ident(scsName(r.PRACH.SCSHz/1000))))
 	}
 	v.Fields = append(v.Fields, asn1v.F("restrictedSetConfig", asn1v.Ident(set)))
 	v.Note(rachCommonLeft, rachSSBLeft)

@@ -85,6 +85,19 @@ func prachPlans(t *testing.T) map[string]grid.Plan {
 	}
 	campus.PRACH = &grid.PRACHPlan{ConfigurationIndex: 0, Msg1FDM: 8, Msg1FrequencyStart: 0, ZeroCorrelationZoneConfig: 1, RestrictedSetConfig: "restrictedSetTypeA", SSBPerRachOccasion: "1/2"}
 	out["campus+prach"] = campus
+	// Index 258 of TS 38.211 Table 6.3.3.2-3 (format 0), beyond
+	// prach-ConfigurationIndex's 0..255, under a pattern whose slots 2 to
+	// 19 are uplink, so that prach-ConfigurationIndex-v1610 is written.
+	ext := loadPRACHPlan(t, "dddsu.yaml")
+	ext.TDD.Pattern1 = grid.TDDPattern{PeriodMs: 10, DownlinkSlots: 2, UplinkSlots: 18}
+	ext.PRACH.ConfigurationIndex, ext.PRACH.Msg1SubcarrierSpacing = 258, 0
+	out["dddsu+v1610"] = ext
+	// Format B4 (L = 139) with msg1SubcarrierSpacing left to its default:
+	// the mandatory msg1-SubcarrierSpacing (Cond L139) is written as the
+	// spacing Compute resolved, and a note keeps the plan's absence.
+	def := loadPRACHPlan(t, "dddsu.yaml")
+	def.PRACH.Msg1SubcarrierSpacing = 0
+	out["dddsu+default-msg1"] = def
 	return out
 }
 

@@ -8,6 +8,7 @@ import (
 
 	"gridloom/grid"
 	"gridloom/grid/asn1v"
+	"gridloom/grid/band"
 )
 
 // Error is a value the reader refuses, at its place in the text. Field is
@@ -721,10 +722,20 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 		} else {
 			rd.d.Assumed = append(rd.d.Assumed, "The text has no MIB, so k_SSB (ssb-SubcarrierOffset) is taken as 0.")
 		}
-		if common != nil && p.Carrier.Range == grid.FR2_2.String() {
-			rd.skip("MIB.subCarrierSpacingCommon", common.Pos) // gridloom does not map it in FR2-2
+		rng, _ := grid.ParseRange(p.Carrier.Range)
+		spacing := commonIsSpacing(rng, p.Carrier.Band)
+		if common != nil && !spacing {
+			// TS 38.331 MIB field description: in FR2-2 and with shared
+			// spectrum in FR1 the common spacing is the block's, and the
+			// field gives the QCL relation (shared spectrum) or nothing.
+			name, _ := ident(common, "subCarrierSpacingCommon", "scs15or60, scs30or120")
+			where := "in FR2-2"
+			if rng == grid.FR1 {
+				where = "with shared spectrum channel access (band " + p.Carrier.Band + ")"
+			}
+			rd.d.Assumed = append(rd.d.Assumed, fmt.Sprintf("subCarrierSpacingCommon %s (%s) gives no spacing %s: SIB1, Msg.2/4 and paging use the SS/PBCH block's, %d kHz, and with shared spectrum channel access the field gives the QCL relation between SS/PBCH blocks (TS 38.331 MIB, TS 38.213 4.1), which a plan does not hold.", name, common.Pos, where, s.SCSKHz))
 		}
-		if common != nil && p.Carrier.Range != grid.FR2_2.String() {
+		if common != nil && spacing {
 			name, err := ident(common, "subCarrierSpacingCommon", "scs15or60, scs30or120")
 			if err != nil {
 				return p, err
@@ -769,6 +780,16 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 				return p, err
 			}
 			rd.ssbARFCN = ssbARFCNv
+		}
+		if kSSB != nil && rng == grid.FR1 && band.SharedSpectrum(p.Carrier.Band) && s.KSSB%2 == 1 {
+			// TS 38.331 MIB: with shared spectrum channel access in FR1
+			// ssb-SubcarrierOffset is k̄_SSB and k_SSB = 2⌊k̄_SSB/2⌋ below 24
+			// (TS 38.211 7.4.3.1); its least significant bit gives the QCL
+			// relation (TS 38.213 4.1).
+			rd.d.Assumed = append(rd.d.Assumed, fmt.Sprintf("ssb-SubcarrierOffset %d (%s) is k̄_SSB with shared spectrum channel access, so k_SSB is %d (TS 38.211 7.4.3.1); its least significant bit gives the QCL relation between SS/PBCH blocks (TS 38.213 4.1), which a plan does not hold.", s.KSSB, kSSB.Pos, s.KSSB-1))
+			s.KSSB--
+		}
+		if ssbARFCNv != nil {
 			if kSSB != nil && p.Carrier.Range == grid.FR1.String() {
 				s.KSSB = fifthBit(p, *s, ssbARFCNv.Int)
 			}

@@ -61,7 +61,7 @@ func Document(p grid.Plan) (*asn1v.Document, error) {
 }
 
 var header = []string{
-	"A gridloom plan as TS 38.331 (Release 17, V17.4.0) value notation.",
+	"A gridloom plan as TS 38.331 (Release 17, V17.1.0 ASN.1) value notation.",
 	"Fields the plan does not determine are left out; each value lists the mandatory ones it leaves out.",
 	"Lines \"gridloom key: value\" carry what 38.331 has no field for (values in JSON),",
 	"so that the plan reads back exactly; a note overrides the field it names.",
@@ -98,6 +98,11 @@ func build(given grid.Plan, r grid.Result) (*asn1v.Document, error) {
 		asn1v.F("scs-SpecificCarrierList", carriers),
 	)
 	noteBand(freqDL, r)
+	if r.SSB == nil {
+		// TS 38.331 FrequencyInfoDL-SIB: offsetToPointA is mandatory; it
+		// counts from point A to the SS/PBCH block's common RB.
+		freqDL.Note("offsetToPointA is left out: the plan places no SS/PBCH block, whose common RB it counts to")
+	}
 	initDL, initUL, whyDL, whyUL := initialBWPs(r, rachValue(given.PRACH, r))
 	dl := asn1v.Seq(asn1v.F("frequencyInfoDL", freqDL), asn1v.F("initialDownlinkBWP", initDL)).
 		Note("not set by the plan: bcch-Config, pcch-Config")
@@ -281,16 +286,52 @@ func noteBand(v *asn1v.Value, r grid.Result) {
 	v.Note(why)
 }
 
+// commonIsSpacing reports whether the MIB's subCarrierSpacingCommon gives
+// the spacing of SIB1, Msg.2/4 and paging. TS 38.331 Release 17, MIB field
+// description: "For operation with shared spectrum channel access in FR1
+// (see 37.213) and for operation in FR2-2, the subcarrier spacing for SIB1,
+// Msg.2/4 and MsgB for initial access, paging and broadcast SI-messages is
+// same as that for the corresponding SSB. For operation with shared
+// spectrum channel access, this field instead is used for deriving the QCL
+// relation between SS/PBCH blocks as specified in TS 38.213 [13], clause
+// 4.1" (testdata/reference/rrc/ts38331-mib-fields.txt). So it does in FR1
+// without shared spectrum and in FR2-1, and not in FR2-2 nor on a shared
+// spectrum FR1 band, where it is either unused or the QCL relation, which
+// a plan does not hold.
+func commonIsSpacing(rng grid.Range, bandName string) bool {
+	return rng != grid.FR2_2 && !(rng == grid.FR1 && band.SharedSpectrum(bandName))
+}
+
+// CommonIsSpacing reports whether the MIB's subCarrierSpacingCommon gives a
+// spacing for a computed plan: not in FR2-2, nor with shared spectrum
+// channel access in FR1 (TS 38.331 MIB field description).
+func CommonIsSpacing(r grid.Result) bool {
+	return commonIsSpacing(r.Channel.Range, r.Plan.Carrier.Band)
+}
+
+// commonLeftOut says why subCarrierSpacingCommon is not written where it
+// gives no spacing.
+func commonLeftOut(r grid.Result) string {
+	where := "in FR2-2"
+	qcl := "with shared spectrum channel access it gives the QCL relation between SS/PBCH blocks instead"
+	if r.Channel.Range == grid.FR1 {
+		where = "with shared spectrum channel access (band " + r.Plan.Carrier.Band + ")"
+		qcl = "the field, with the least significant bit of ssb-SubcarrierOffset, gives the QCL relation between SS/PBCH blocks instead"
+	}
+	return fmt.Sprintf("subCarrierSpacingCommon is left out: %s SIB1, Msg.2/4 and paging use the SS/PBCH block's spacing, %d kHz, and %s (TS 38.331 MIB, TS 38.213 4.1), which the plan does not hold",
+		where, r.SSB.Numerology.SCSKHz(), qcl)
+}
+
 // mibValue writes the MIB fields a plan sets: ssb-SubcarrierOffset and,
-// in FR1 and FR2-1, subCarrierSpacingCommon, with the values Compute
-// resolved (a block placed by ssb.gscn, the default common spacing).
+// where it gives a spacing (commonIsSpacing), subCarrierSpacingCommon,
+// with the values Compute resolved (a block placed by ssb.gscn, the
+// default common spacing).
 func mibValue(r grid.Result) *asn1v.Value {
 	s := r.SSB
 	var common *asn1v.Value
 	v := asn1v.Seq()
-	if r.Channel.Range == grid.FR2_2 {
-		v.Note(mibLeft(r),
-			"subCarrierSpacingCommon is left out: gridloom does not map it in FR2-2")
+	if !commonIsSpacing(r.Channel.Range, r.Plan.Carrier.Band) {
+		v.Note(mibLeft(r), commonLeftOut(r))
 	} else {
 		fr := coreset0.FR1
 		if r.Channel.Range == grid.FR2_1 {
@@ -300,13 +341,24 @@ func mibValue(r grid.Result) *asn1v.Value {
 			common = asn1v.Ident(c.String())
 		}
 		v.Note(mibLeft(r))
-		if r.Channel.Range == grid.FR1 && s.KSSB >= 16 {
-			msg := fmt.Sprintf("k_SSB is %d: ssb-SubcarrierOffset carries its 4 least significant bits and PBCH payload bit a(A+5) its most significant (TS 38.212 7.1.1)", s.KSSB)
-			if _, ok := ssbARFCN(r); ok {
-				msg += "; absoluteFrequencySSB below fixes it too"
-			}
-			v.Note(msg)
+	}
+	if r.Channel.Range == grid.FR1 && band.SharedSpectrum(r.Plan.Carrier.Band) && s.KSSB < 24 {
+		// TS 38.331 MIB, ssb-SubcarrierOffset: with shared spectrum in FR1
+		// the field is k̄_SSB, k_SSB is obtained from it (TS 38.211 7.4.3.1:
+		// k_SSB = 2⌊k̄_SSB/2⌋ below 24), and its least significant bit also
+		// gives the QCL relation (TS 38.213 4.1).
+		msg := "ssb-SubcarrierOffset is k̄_SSB with shared spectrum channel access: k_SSB = 2⌊k̄_SSB/2⌋ (TS 38.211 7.4.3.1), and its least significant bit gives the QCL relation between SS/PBCH blocks, which the plan does not hold; it is written as k_SSB's"
+		if s.KSSB%2 == 1 {
+			msg = fmt.Sprintf("k_SSB %d is odd, which ssb-SubcarrierOffset cannot say with shared spectrum channel access: k_SSB = 2⌊k̄_SSB/2⌋ below 24 (TS 38.211 7.4.3.1)", s.KSSB)
 		}
+		v.Note(msg)
+	}
+	if r.Channel.Range == grid.FR1 && s.KSSB >= 16 {
+		msg := fmt.Sprintf("k_SSB is %d: ssb-SubcarrierOffset carries its 4 least significant bits and PBCH payload bit a(A+5) its most significant (TS 38.212 7.1.1)", s.KSSB)
+		if _, ok := ssbARFCN(r); ok {
+			msg += "; absoluteFrequencySSB below fixes it too"
+		}
+		v.Note(msg)
 	}
 	if common != nil {
 		v.Fields = append(v.Fields, asn1v.F("subCarrierSpacingCommon", common))
@@ -354,7 +406,13 @@ func initialBWPs(r grid.Result, rach *asn1v.Value) (dl, ul *asn1v.Value, whyDL, 
 	}
 	ia := r.InitialAccess
 	if ia == nil {
-		return nil, rachOnly(), "not set by the plan: initialDownlinkBWP (the plan has no initialAccess)", ""
+		ul = rachOnly()
+		if ul == nil {
+			// initialUplinkBWP is mandatory in UplinkConfigCommonSIB (TS
+			// 38.331).
+			whyUL = "not set by the plan: initialUplinkBWP (the plan has no initialAccess)"
+		}
+		return nil, ul, "not set by the plan: initialDownlinkBWP (the plan has no initialAccess)", whyUL
 	}
 	generic := func(b grid.InitialBWP) *asn1v.Value {
 		var cp *asn1v.Value
@@ -382,8 +440,8 @@ func initialBWPs(r grid.Result, rach *asn1v.Value) (dl, ul *asn1v.Value, whyDL, 
 	}
 	switch {
 	case ia.InitialUL == nil:
-		if rach != nil {
-			ul = rachOnly()
+		if ul = rachOnly(); ul == nil {
+			whyUL = "not set by the plan: initialUplinkBWP (the plan gives none and Compute places none)"
 		}
 	case ia.InitialUL.LocationAndBandwidth < 0:
 		whyUL = "initialUplinkBWP is left out: no locationAndBandwidth from its spacing's offsetToCarrier says it"

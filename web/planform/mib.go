@@ -3,6 +3,7 @@ package planform
 import (
 	"fmt"
 	"net/url"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -10,16 +11,28 @@ import (
 )
 
 // Query keys of the MIB panel: the system frame number and the SS/PBCH
-// block index whose MIB and PBCH payload bits the page shows. They are not
-// plan keys — a plan holds neither — so they live in their own "mib."
+// block index whose MIB and PBCH payload bits the page shows, and the
+// MIB's cellBarred and intraFreqReselection (TS 38.331 6.2.2). They are not
+// plan keys — a plan holds none of them — so they live in their own "mib."
 // namespace, as the figure's options live in "fig.".
 const (
-	KeyMIBSFN = "mib.sfn"
-	KeyMIBSSB = "mib.ssb"
+	KeyMIBSFN        = "mib.sfn"
+	KeyMIBSSB        = "mib.ssb"
+	KeyMIBCellBarred = "mib.cellBarred"
+	KeyMIBIntraFreq  = "mib.intraFreqReselection"
 )
 
 // MIBKeys lists the MIB panel's keys in query order.
-var MIBKeys = []string{KeyMIBSFN, KeyMIBSSB}
+var MIBKeys = []string{KeyMIBSFN, KeyMIBSSB, KeyMIBCellBarred, KeyMIBIntraFreq}
+
+// The values of the MIB's two access fields, as TS 38.331 spells them
+// (ENUMERATED {barred, notBarred} and {allowed, notAllowed}); empty is the
+// second of barred's and the first of intraFreqReselection's, a cell open
+// to UEs.
+var (
+	CellBarredValues = []string{"barred", "notBarred"}
+	IntraFreqValues  = []string{"allowed", "notAllowed"}
+)
 
 // MIBForm is the MIB panel's choice as typed, kept as strings so that a
 // value that does not parse is shown again beside its control:
@@ -27,19 +40,22 @@ var MIBKeys = []string{KeyMIBSFN, KeyMIBSSB}
 //	mib.sfn   the system frame number, 0 to 1023; empty is 0
 //	mib.ssb   the SS/PBCH block index, one the plan's ssb.bitmap sends;
 //	          empty is the first block sent
+//	mib.cellBarred            barred or notBarred; empty is notBarred
+//	mib.intraFreqReselection  allowed or notAllowed; empty is allowed
 type MIBForm struct {
-	SFN, SSB string
+	SFN, SSB, CellBarred, IntraFreq string
 }
 
 // ParseMIBForm reads the MIB keys of a query.
 func ParseMIBForm(v url.Values) MIBForm {
-	return MIBForm{SFN: v.Get(KeyMIBSFN), SSB: v.Get(KeyMIBSSB)}
+	return MIBForm{SFN: v.Get(KeyMIBSFN), SSB: v.Get(KeyMIBSSB),
+		CellBarred: v.Get(KeyMIBCellBarred), IntraFreq: v.Get(KeyMIBIntraFreq)}
 }
 
 // Query writes the MIB keys that have a value, in a fixed order.
 func (m MIBForm) Query() string {
 	var parts []string
-	for i, val := range []string{m.SFN, m.SSB} {
+	for i, val := range []string{m.SFN, m.SSB, m.CellBarred, m.IntraFreq} {
 		if val != "" {
 			parts = append(parts, MIBKeys[i]+"="+url.QueryEscape(val))
 		}
@@ -58,7 +74,10 @@ type MIBChoice struct {
 	// Sent lists the block indices the plan sends, for the messages and
 	// the control's hint.
 	Sent []int
-	Msgs Messages
+	// CellBarred is cellBarred barred; IntraFreqNotAllowed is
+	// intraFreqReselection notAllowed.
+	CellBarred, IntraFreqNotAllowed bool
+	Msgs                            Messages
 }
 
 // tcPerFrame and tcPerHalfFrame are 10 ms and 5 ms in Tc (TS 38.211 4.1:
@@ -107,6 +126,22 @@ func ReadMIB(m MIBForm, res grid.Result) (c MIBChoice, ok bool) {
 			c.SSBIndex = n
 		}
 	}
+	// read takes one of the MIB's two-valued access fields as typed; empty
+	// is the cell's usual value, def, and so is a value 38.331 lacks, which
+	// is reported beside its control.
+	read := func(key, field, typed string, values []string, def string) string {
+		t := strings.TrimSpace(typed)
+		switch {
+		case t == "":
+			return def
+		case !slices.Contains(values, t):
+			c.Msgs.Add(key, "%s (%s): %q is not a value; give %s or %s (TS 38.331 MIB), or nothing for %s.", field, key, ShortText(typed), values[0], values[1], def)
+			return def
+		}
+		return t
+	}
+	c.CellBarred = read(KeyMIBCellBarred, "cellBarred", m.CellBarred, CellBarredValues, "notBarred") == "barred"
+	c.IntraFreqNotAllowed = read(KeyMIBIntraFreq, "intraFreqReselection", m.IntraFreq, IntraFreqValues, "allowed") == "notAllowed"
 	for _, b := range res.SSB.Blocks {
 		if b.Index == c.SSBIndex {
 			if int64(b.Start)%tcPerFrame >= tcPerHalfFrame {

@@ -62,7 +62,40 @@ func TestReadMIB(t *testing.T) {
 	if _, ok := ReadMIB(MIBForm{SFN: "3"}, grid.Result{}); ok {
 		t.Error("a plan without blocks has a MIB")
 	}
-	if q := (MIBForm{SFN: "682", SSB: "3"}).Query(); q != "mib.sfn=682&mib.ssb=3" {
+	if q := (MIBForm{SFN: "682", SSB: "3", CellBarred: "barred", IntraFreq: "notAllowed"}).Query(); q != "mib.sfn=682&mib.ssb=3&mib.cellBarred=barred&mib.intraFreqReselection=notAllowed" {
 		t.Errorf("Query %q", q)
+	}
+}
+
+// TestReadMIBAccessFields reads cellBarred and intraFreqReselection: the
+// values of TS 38.331's ENUMERATED {barred, notBarred} and {allowed,
+// notAllowed}, empty for a cell open to UEs (notBarred, allowed); any
+// other text is named beside its control and the default used.
+func TestReadMIBAccessFields(t *testing.T) {
+	res := blocksAt([]int{0}, []grid.Tc{0})
+	for _, c := range []struct {
+		query             string
+		barred, notAllow  bool
+		barredMsg, intraM bool
+	}{
+		{"", false, false, false, false},
+		{"mib.cellBarred=barred", true, false, false, false},
+		{"mib.cellBarred=notBarred&mib.intraFreqReselection=notAllowed", false, true, false, false},
+		{"mib.intraFreqReselection=allowed", false, false, false, false},
+		{"mib.cellBarred=+barred+", true, false, false, false},
+		{"mib.cellBarred=Barred&mib.intraFreqReselection=no", false, false, true, true},
+	} {
+		v, _ := url.ParseQuery(c.query)
+		got, _ := ReadMIB(ParseMIBForm(v), res)
+		_, bm := got.Msgs[KeyMIBCellBarred]
+		_, im := got.Msgs[KeyMIBIntraFreq]
+		if got.CellBarred != c.barred || got.IntraFreqNotAllowed != c.notAllow || bm != c.barredMsg || im != c.intraM {
+			t.Errorf("%q: barred %v, notAllowed %v, messages %v %v; want %v %v %v %v", c.query, got.CellBarred, got.IntraFreqNotAllowed, bm, im, c.barred, c.notAllow, c.barredMsg, c.intraM)
+		}
+	}
+	v, _ := url.ParseQuery("mib.cellBarred=Barred")
+	got, _ := ReadMIB(ParseMIBForm(v), res)
+	if m := got.Msgs[KeyMIBCellBarred]; !strings.Contains(m, `"Barred" is not a value; give barred or notBarred`) {
+		t.Errorf("message %q does not name the value and the two allowed", m)
 	}
 }
