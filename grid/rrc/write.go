@@ -186,7 +186,7 @@ func build(given grid.Plan, r grid.Result) (*asn1v.Document, error) {
 		asn1v.F("ssb-PositionsInBurst", longBurst),
 		asn1v.F("dmrs-TypeA-Position", dmrsA),
 		asn1v.F("ssbSubcarrierSpacing", ssbSCS),
-	).Note("only the fields issue 18 asks for are written, with n-TimingAdvanceOffset and dmrs-TypeA-Position when the plan sets them; ServingCellConfigCommonSIB above has the rest", left)
+	).Note("only frequencyInfoDL and the SS/PBCH fields are written, with n-TimingAdvanceOffset and dmrs-TypeA-Position when the plan sets them; ServingCellConfigCommonSIB above has the rest", left)
 	add("servingCellConfigCommon", typeSCC, scc)
 
 	dlID, ulID := 0, 0
