@@ -63,6 +63,7 @@ func (s *server) routes(r *chi.Mux) {
 		r.Get("/", page(s.planner))                                           // the planner; an empty query opens the startup plan
 		r.Get("/fragment", page(s.plannerFragment))                           // the planner's workspace alone, for live updates
 		r.Get("/demo/{name}", page(s.demo))                                   // redirect to a demo plan
+		r.Get("/new", page(s.newPlan))                                        // redirect to an empty carrier to start from (planform.NewPlan)
 		r.Get("/figure.svg", cached(s.figures, page(s.figureSVG)).ServeHTTP)  // the figure, with the plan in its metadata; download=1 sends it as a file
 		r.Get("/figure.png", cached(s.figures, heavy(s.figurePNG)).ServeHTTP) // the figure as a PNG image; download=1 sends it as a file
 		r.Get("/find/ssb", heavy(s.findSSBPage))                              // the SS/PBCH block's places on the sync raster, each a link applying it
