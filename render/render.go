@@ -354,6 +354,9 @@ func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDr
 	if blocks != nil {
 		drawSSB(b, blocks)
 	}
+	if b.shows(LayerOverlap) {
+		drawOverlaps(b, f, r.Overlaps)
+	}
 	if f.pastPlan() {
 		// The window runs on past the plan's span: nothing of the plan is there.
 		x := f.planRight()
@@ -815,6 +818,9 @@ func keyRows(r grid.Result, b *builder, blocks *ssbDrawing, coreset *coresetDraw
 	}
 	if raster != nil {
 		keys = append(keys, syncKeys(r.SyncRaster, raster)...)
+	}
+	if b.shows(LayerOverlap) {
+		keys = append(keys, overlapKeys(r.Overlaps, b)...)
 	}
 	return keys
 }
