@@ -2,6 +2,7 @@ package web
 
 import (
 	"fmt"
+	"math"
 	"strings"
 	"testing"
 
@@ -88,6 +89,67 @@ func TestBrowserOverlapOutlined(t *testing.T) {
 			}
 			// No checkConsole: a plan with an error finding is answered 422, which
 			// the console reports as a failed load.
+		})
+	}
+}
+
+// TestBrowserReadoutBesidePointer: pointing at the figure puts the readout
+// beside the pointer — its nearest edge within 40 px, not over the point,
+// wholly inside the viewport — at points near each corner of the plot's
+// visible part, at each width of the issue; what follows the figure does
+// not move; leaving the figure docks it under the figure again; the
+// keyboard's mark brings it beside the mark.
+func TestBrowserReadoutBesidePointer(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	for _, width := range issueWidths {
+		t.Run(fmt.Sprint(width), func(t *testing.T) {
+			height := 900
+			if width == 390 {
+				height = 800
+			}
+			tb := newTab(t, width, height)
+			tb.open(srv.URL + "/?" + campusQuery(t))
+			tb.do("scrolling the figure into view", chromedp.Evaluate[chromedp.Void](`document.getElementById('gl-figure').scrollIntoView({block: 'center'})`))
+			tb.waitFor("the scroll done", `(() => { const r = document.getElementById('gl-figure').getBoundingClientRect(); return r.bottom > 0 && r.top < innerHeight; })()`)
+			tb.do("watching the pointer", chromedp.Evaluate[chromedp.Void](`document.addEventListener('pointermove', e => { window.glPointer = [e.clientX, e.clientY, performance.now()]; }, true)`))
+			below := eval[float64](tb, `document.querySelector('.gl-downloads').getBoundingClientRect().top`)
+			// The plot's visible part in the viewport: [left, top, right, bottom].
+			plot := eval[[]float64](tb, `(() => { const r = document.querySelector('#gl-plot').getBoundingClientRect();
+				return [Math.max(r.left, 0), Math.max(r.top, 0), Math.min(r.right, innerWidth), Math.min(r.bottom, innerHeight)]; })()`)
+			for _, at := range [][2]float64{{0.05, 0.05}, {0.95, 0.05}, {0.5, 0.5}, {0.05, 0.95}, {0.95, 0.95}} {
+				x := plot[0] + at[0]*(plot[2]-plot[0])
+				y := plot[1] + at[1]*(plot[3]-plot[1])
+				tb.do("pointing", chromedp.MouseEvent(chromedp.MouseMoved, x+2, y+2), chromedp.MouseEvent(chromedp.MouseMoved, x, y))
+				// The readout follows on the next frame: wait for the event, then 100 ms.
+				tb.waitFor("the readout placed", fmt.Sprintf(`window.glPointer && Math.abs(glPointer[0] - %f) < 1 && Math.abs(glPointer[1] - %f) < 1 && performance.now() > glPointer[2] + 100 && document.getElementById('gl-readout').classList.contains('gl-float')`, x, y))
+				r := eval[[]float64](tb, `(() => { const r = document.getElementById('gl-readout').getBoundingClientRect(); return [r.left, r.top, r.right, r.bottom]; })()`)
+				dx := max(r[0]-x, x-r[2], 0)
+				dy := max(r[1]-y, y-r[3], 0)
+				dist := max(dx, dy)
+				if dist > 40 {
+					t.Errorf("pointer at (%.0f, %.0f): the readout at %v is %.0f px away, want at most 40", x, y, r, dist)
+				}
+				if dx == 0 && dy == 0 {
+					t.Errorf("pointer at (%.0f, %.0f): the readout at %v covers the point read", x, y, r)
+				}
+				if r[0] < 0 || r[1] < 0 || r[2] > float64(width) || r[3] > float64(height) {
+					t.Errorf("pointer at (%.0f, %.0f): the readout at %v leaves the %d×%d viewport", x, y, r, width, height)
+				}
+			}
+			if got := eval[float64](tb, `document.querySelector('.gl-downloads').getBoundingClientRect().top`); math.Abs(got-below) > 0.5 {
+				t.Errorf("what follows the figure moved from %.1f to %.1f while pointing", below, got)
+			}
+			tb.do("leaving the figure", chromedp.MouseEvent(chromedp.MouseMoved, 1, 1))
+			tb.waitFor("the readout docked under the figure", `(() => { const o = document.getElementById('gl-readout'); return !o.classList.contains('gl-float') && o.getBoundingClientRect().top >= document.getElementById('gl-figure').getBoundingClientRect().bottom - 1; })()`)
+			tb.do("focusing the figure", chromedp.Focus(chromedp.ID("gl-figure")))
+			tb.waitFor("the readout beside the keyboard's mark", `(() => {
+				const o = document.getElementById('gl-readout'), m = document.querySelector('#gl-plot .gl-cursor');
+				if (!m || !o.classList.contains('gl-float')) return false;
+				const a = o.getBoundingClientRect(), b = m.getBoundingClientRect();
+				return Math.max(a.left - b.right, b.left - a.right, a.top - b.bottom, b.top - a.bottom) <= 40;
+			})()`)
+			tb.checkConsole()
 		})
 	}
 }
