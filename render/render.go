@@ -396,16 +396,18 @@ func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDr
 	}
 	b.add(line("gl-frame", whole, lk.soft, 1, lk.frameW))
 	if b.shows(LayerLabels) {
+		// The partitions' names are drawn; the labels drawn after them
+		// keep clear of them and of each other.
 		var taken []labelBox
+		for _, l := range r.Partitions {
+			if name, ok := nameLabel(f, l); ok {
+				taken = append(taken, labelBox{name.x, name.y - 11, name.x + measure(&name), name.y + 3})
+			}
+		}
 		if blocks != nil {
-			taken = drawSSBLabels(b, blocks)
+			taken = append(taken, drawSSBLabels(b, blocks, taken)...)
 		}
 		if coreset != nil {
-			for _, l := range r.Partitions {
-				if name, ok := nameLabel(f, l); ok {
-					taken = append(taken, labelBox{name.x, name.y - 11, name.x + measure(&name), name.y + 3})
-				}
-			}
 			drawCoreset0Labels(b, coreset, taken)
 		}
 	}

@@ -153,3 +153,35 @@ func TestBrowserReadoutBesidePointer(t *testing.T) {
 		})
 	}
 }
+
+// TestBrowserLabelsDoNotCollide: with "video" cut to 28 PRBs the label
+// "SSB 0–3" would sit on the name "video 30 kHz"; in the page's figure no
+// SS/PBCH label's box (as the browser lays its glyphs out) overlaps a
+// partition's name, at each width of the issue.
+func TestBrowserLabelsDoNotCollide(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	v := mustQuery(t, campusQuery(t))
+	v.Set("p1.size", "28")
+	q := v.Encode()
+	for _, width := range issueWidths {
+		t.Run(fmt.Sprint(width), func(t *testing.T) {
+			tb := newTab(t, width, 900)
+			tb.open(srv.URL + "/?" + q)
+			hits := eval[[]string](tb, `(() => {
+				const box = (e) => e.getBoundingClientRect();
+				const names = [...document.querySelectorAll('#gl-figure .gl-name')], ssb = [...document.querySelectorAll('#gl-figure .gl-ssb-label')];
+				if (ssb.length === 0) return ['no SS/PBCH label'];
+				const out = [];
+				for (const s of ssb) for (const n of names) {
+					const a = box(s), b = box(n);
+					if (a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom) out.push(s.textContent + ' on ' + n.textContent);
+				}
+				return out;
+			})()`)
+			if len(hits) > 0 {
+				t.Errorf("labels overlap: %q", hits)
+			}
+		})
+	}
+}
