@@ -1217,5 +1217,66 @@
   // A scroll moves the figure under a fixed readout: dock it until the
   // pointer moves again.
   addEventListener('scroll', dockReadout, { passive: true });
+
+  // Opening a plan on one side of the comparison: a file dropped on a
+  // side (.gl-cmp-side with its form.gl-cmp-open) is posted to that form's
+  // action as its Open button would; a refusal shows the server's reason
+  // beside the side's file control.
+  function cmpSideOf(e) {
+    const side = e.target.closest && e.target.closest('.gl-cmp-side');
+    return side && side.querySelector('form.gl-cmp-open') ? side : null;
+  }
+
+  document.addEventListener('dragover', (e) => {
+    const side = cmpSideOf(e);
+    if (!side || !hasFiles(e)) return;
+    e.preventDefault();
+    e.dataTransfer.dropEffect = 'copy';
+    side.classList.add('gl-drop-here');
+  });
+
+  document.addEventListener('dragleave', (e) => {
+    const side = cmpSideOf(e);
+    if (side && !(e.relatedTarget && side.contains(e.relatedTarget))) side.classList.remove('gl-drop-here');
+  });
+
+  document.addEventListener('drop', (e) => {
+    const side = cmpSideOf(e);
+    if (!side || !hasFiles(e)) return;
+    e.preventDefault();
+    side.classList.remove('gl-drop-here');
+    const file = e.dataTransfer.files[0];
+    if (file) openOnSide(side.querySelector('form.gl-cmp-open'), file);
+  });
+
+  async function openOnSide(form, file) {
+    const body = new FormData();
+    body.append('plan', file, file.name);
+    setBusy(true);
+    let res;
+    try {
+      res = await fetch(form.getAttribute('action'), { method: 'POST', body });
+    } catch (err) {
+      setBusy(false);
+      trouble('The file could not be sent (' + err.message + '); try the Open control.');
+      return;
+    }
+    if (res.ok && res.redirected) {
+      location.assign(res.url);
+      return;
+    }
+    setBusy(false);
+    const input = form.querySelector('input[type=file]');
+    const page = new DOMParser().parseFromString(await res.text(), 'text/html');
+    const fresh = input && page.getElementById('n-' + input.id);
+    const cur = input && byId('n-' + input.id);
+    if (fresh && cur) {
+      cur.replaceWith(document.adoptNode(fresh));
+      input.focus();
+      byId('n-' + input.id).scrollIntoView({ block: 'nearest' });
+    } else {
+      trouble('The server could not open ' + file.name + ' (' + res.status + ').');
+    }
+  }
   // -- end issue 19 (h19w) --
 })();

@@ -2,11 +2,16 @@ package web
 
 import (
 	"fmt"
+	"io/fs"
 	"math"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
 	"github.com/chromedp/chromedp"
+
+	"gridloom/grid/demo"
 )
 
 // Browser tests of issue 19's second half: a new plan, the overlap drawn
@@ -182,6 +187,87 @@ func TestBrowserLabelsDoNotCollide(t *testing.T) {
 			if len(hits) > 0 {
 				t.Errorf("labels overlap: %q", hits)
 			}
+		})
+	}
+}
+
+// TestBrowserCompareOpenB: compare's B side opens a plan from a file — its
+// Open button and a file dropped on it — keeping A; a file it cannot open
+// is refused beside B's control, in view; and B's edit form sits right
+// under the figures, before what differs (it sat about 2 000 px below),
+// at each width of the issue.
+func TestBrowserCompareOpenB(t *testing.T) {
+	t.Parallel()
+	srv, _ := newTestServer(t, testConfig(t))
+	dir := t.TempDir()
+	port, err := fs.ReadFile(demo.FS, "port.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	stadium, err := fs.ReadFile(demo.FS, "stadium.yaml")
+	if err != nil {
+		t.Fatal(err)
+	}
+	portFile := filepath.Join(dir, "port.yaml")
+	if err := os.WriteFile(portFile, port, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	// drop dispatches a drop of a file on B's figure, as a browser does
+	// for a file dragged from the desktop.
+	drop := func(tb *tab, name, text string) {
+		tb.do("dropping "+name+" on B", chromedp.Evaluate[chromedp.Void](fmt.Sprintf(`(() => {
+			const dt = new DataTransfer();
+			dt.items.add(new File([%q], %q, {type: 'text/yaml'}));
+			const at = document.querySelector('[data-testid=figure-b] .gl-cmp-figure');
+			at.dispatchEvent(new DragEvent('dragover', {dataTransfer: dt, bubbles: true, cancelable: true}));
+			at.dispatchEvent(new DragEvent('drop', {dataTransfer: dt, bubbles: true, cancelable: true}));
+		})()`, text, name)))
+	}
+	names := `[...document.querySelectorAll('.gl-cmp-head .gl-cmp-name')].map(e => e.textContent).join(' | ')`
+	for _, width := range issueWidths {
+		t.Run(fmt.Sprint(width), func(t *testing.T) {
+			tb := newTab(t, width, 900)
+			tb.do("opening the comparison", chromedp.Navigate(srv.URL+"/compare"))
+			tb.waitFor("the comparison", `document.readyState === 'complete' && document.querySelector('[data-testid=figure-b]') !== null`)
+
+			// Where B's edit form is, against B's figure and the tables.
+			geo := eval[[]float64](tb, `(() => {
+				const y = (sel, edge) => document.querySelector(sel).getBoundingClientRect()[edge] + scrollY;
+				return [y('[data-testid=figure-b]', 'bottom'), y('[data-testid=form-b]', 'top'), y('[data-testid=form-a]', 'top'), y('[data-testid=diff-totals]', 'top')];
+			})()`)
+			figB, formB, formA, diff := geo[0], geo[1], geo[2], geo[3]
+			if formA > diff || formB > diff {
+				t.Errorf("the edit forms (A at %.0f, B at %.0f) come after the difference table (%.0f)", formA, formB, diff)
+			}
+			if width >= 1024 && formB-figB > 400 {
+				t.Errorf("B's edit form starts %.0f px below B's figure, want at most 400", formB-figB)
+			}
+			t.Logf("%d px: B's form %.0f px below B's figure", width, formB-figB)
+			if sw := eval[float64](tb, `document.documentElement.scrollWidth`); sw > float64(width) {
+				t.Errorf("the page is %.0f px wide in a %d px window", sw, width)
+			}
+			// The form over the results' middle row takes the pointer.
+			if !eval[bool](tb, `(() => { const e = document.getElementById('b-p0-name') || document.querySelector('[data-testid=form-b] input'); e.scrollIntoView({block: 'center'});
+				const r = e.getBoundingClientRect(); const hit = document.elementFromPoint(r.left + r.width / 2, r.top + r.height / 2); return hit === e; })()`) {
+				t.Error("a field of B's form is not what the pointer reaches")
+			}
+
+			// The Open button on B's side.
+			tb.do("choosing the port plan for B", chromedp.SetUploadFiles(chromedp.CSS("#f-b-file"), []string{portFile}))
+			tb.do("pressing Open as B", chromedp.Click(chromedp.CSS(`[data-testid=open-b]`)))
+			tb.waitAcross("B is the port plan", `document.readyState === 'complete' && location.pathname === '/compare' && (`+names+`) === 'Hillcrest campus 40 MHz | Saltmarsh port 100 MHz'`)
+
+			// A file dropped on B's side.
+			drop(tb, "stadium.yaml", string(stadium))
+			tb.waitAcross("B is the stadium plan", `document.readyState === 'complete' && (`+names+`).startsWith('Hillcrest campus 40 MHz | ') && !(`+names+`).includes('Saltmarsh')`)
+			if got := eval[string](tb, names); !strings.Contains(got, "Hillcrest") || strings.Contains(got, "Saltmarsh") {
+				t.Errorf("after the drop the sides are %q", got)
+			}
+
+			// A file B cannot open: the reason beside B's control, in view.
+			drop(tb, "broken.yaml", "carrier: [\n")
+			tb.waitFor("the reason beside B's file control", `document.getElementById('n-f-b-file').textContent.includes('broken.yaml')`)
+			tb.waitFor("the reason in view", `(() => { const r = document.getElementById('n-f-b-file').getBoundingClientRect(); return r.top >= 0 && r.bottom <= innerHeight + 1; })()`)
 		})
 	}
 }

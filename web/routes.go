@@ -71,6 +71,7 @@ func (s *server) routes(r *chi.Mux) {
 		r.Get("/walk", page(s.heavy.heavyWhen(printed, s.walk)))              // the plan step by step for a team: step=, view=projector or print
 		r.Get("/compare", heavy(s.compare))                                   // two plans side by side on shared scales, a. and b. keys
 		r.Get("/compare/fragment", heavy(s.compareFragment))                  // the comparison's workspace alone, for live updates
+		r.Post("/compare/open", heavy(s.compareOpen))                         // upload a plan file into one side (side=a or b) of the comparison in the query
 		r.Get("/compare/figure.svg", heavy(s.compareFigure("svg")))           // one side's figure on the shared scales: side=a or b
 		r.Get("/compare/figure.png", heavy(s.compareFigure("png")))           // the same as a PNG image
 		r.Get("/prach", heavy(s.prachFind))                                   // the PRACH configuration finder: every index that fits, each a link that applies it
