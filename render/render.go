@@ -43,7 +43,10 @@
 // data-occ-high-hz (Hz from point A), data-occ-valid ('1' or '0') and
 // data-occ-ssb (each occasion's SS/PBCH indices, comma-separated, "-" for
 // none), all space-separated; its paths are gl-prach-edge (valid) and
-// gl-prach-bad (not valid).
+// gl-prach-bad (not valid). The bands of Result.Overlaps are outlined in
+// <g class="gl-overlaps"> with data-pairs (each pair's partition indexes,
+// "a-b", space-separated): gl-overlap (errors) and gl-overlap-warn (a
+// downlink and an uplink partition).
 //
 // Options.Window fixes the axes, so that figures of two plans share their
 // scales (FitWindow and Window.Union make one that holds both), and
