@@ -252,6 +252,11 @@ func TestBrowserCompareOpenB(t *testing.T) {
 				t.Error("a field of B's form is not what the pointer reaches")
 			}
 
+			// "Edit B" beside B's figure brings B's form into view (at 390 px A's
+			// form comes first, one column).
+			tb.do("following Edit B", chromedp.Click(chromedp.CSS(`[data-testid=edit-b]`)))
+			tb.waitFor("B's form in view", `(() => { const r = document.getElementById('h-edit-b').getBoundingClientRect(); return r.top >= 0 && r.bottom <= innerHeight; })()`)
+
 			// The Open button on B's side.
 			tb.do("choosing the port plan for B", chromedp.SetUploadFiles(chromedp.CSS("#f-b-file"), []string{portFile}))
 			tb.do("pressing Open as B", chromedp.Click(chromedp.CSS(`[data-testid=open-b]`)))
