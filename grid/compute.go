@@ -26,6 +26,9 @@ type Result struct {
 	Fit        *Fit // the numerology fit, when the plan describes its environment
 	// Spectrum is how the carriers and partitions divide the channel.
 	Spectrum Spectrum
+	// Overlaps are the bands two partitions share, one per pair, in the
+	// order of the overlap findings (the figure outlines them).
+	Overlaps []Overlap
 	Findings []Finding
 	// Timing is the carrier's timing: N_TA,offset, the guard against the
 	// cell range, the BWP switch delays (timingplan.go).
@@ -271,10 +274,12 @@ func Compute(plan Plan) Result {
 		l := &res.Partitions[i]
 		l.PeakMbps = math.Round(l.PeakMbps*100) / 100
 	}
-	checkOverlaps(&fs, res.Partitions)
+	// The channel's absolute frequencies first: the overlap findings name
+	// the edges that clear them in MHz.
+	placeAbsolute(&fs, rng, &res.Channel, p.Carrier)
+	res.Overlaps = checkOverlaps(&fs, res.Partitions, res.Channel)
 	checkEdgeGuards(&fs, rng, bw, res.Channel, res.Partitions)
 	checkNumerologyGaps(&fs, p.NumerologyGapKHz, res.Partitions)
-	placeAbsolute(&fs, rng, &res.Channel, p.Carrier)
 	if rangeOK && (p.Carrier.Band != "" || res.Channel.Absolute) {
 		checkBand(&fs, rng, &res.Channel, &p.Carrier, p.Partitions, inUse, bwKnown)
 	}
@@ -778,13 +783,25 @@ func optInt(p *int) string {
 	return strconv.Itoa(*p)
 }
 
-func checkOverlaps(fs *findings, ls []Lattice) {
+// Overlap is the band two partitions share.
+type Overlap struct {
+	A, B      int // the partitions' indexes in the plan, A < B
+	Low, High Hz  // the shared band, from point A
+	// Error is true when both send in the same direction (an error
+	// finding); a downlink and an uplink partition may share spectrum on a
+	// TDD carrier (a warning).
+	Error bool
+}
+
+func checkOverlaps(fs *findings, ls []Lattice, ch Channel) []Overlap {
+	var out []Overlap
 	for i, a := range ls {
 		for _, b := range ls[i+1:] {
 			over := min(a.High, b.High) - max(a.Low, b.Low)
 			if over <= 0 {
 				continue
 			}
+			out = append(out, Overlap{A: a.Index, B: b.Index, Low: max(a.Low, b.Low), High: min(a.High, b.High), Error: a.Direction == b.Direction})
 			f := fmt.Sprintf("partitions[%d].startCrb", b.Index)
 			why := ""
 			if a.Numerology.SCSKHz() != b.Numerology.SCSKHz() && over < Hz(max(a.Numerology.SCSKHz(), b.Numerology.SCSKHz()))*1000 {
@@ -794,9 +811,10 @@ func checkOverlaps(fs *findings, ls []Lattice) {
 				fs.add(Warning, CodeOverlap, b.Name, f, "Partitions %q (%s) and %q (%s) share %s of spectrum%s; on a TDD carrier that is legal only if they never transmit at the same time.", a.Name, a.Direction, b.Name, b.Direction, fmtKHz(over), why)
 				continue
 			}
-			fs.add(Error, CodeOverlap, b.Name, f, "Partitions %q (%s to %s) and %q (%s to %s) overlap by %s%s; %s.", a.Name, fmtKHz(a.Low), fmtKHz(a.High), b.Name, fmtKHz(b.Low), fmtKHz(b.High), fmtKHz(over), why, clearOverlap(a, b))
+			fs.add(Error, CodeOverlap, b.Name, f, "Partitions %q (%s to %s) and %q (%s to %s) overlap by %s%s; %s.", a.Name, fmtKHz(a.Low), fmtKHz(a.High), b.Name, fmtKHz(b.Low), fmtKHz(b.High), fmtKHz(over), why, clearOverlap(a, b, ch))
 		}
 	}
+	return out
 }
 
 // clearOverlap says how to part two overlapping partitions: the first CRB
@@ -804,17 +822,30 @@ func checkOverlaps(fs *findings, ls []Lattice) {
 // the lower one may keep below the upper (issue 19). CRB k of spacing Δf
 // spans [12·k·Δf − Δf/2, 12·(k+1)·Δf − Δf/2) from point A, the outer edges
 // of its subcarriers (TS 38.211 4.4.4.3 puts subcarrier 0 of CRB 0 on
-// point A).
-func clearOverlap(a, b Lattice) string {
+// point A). When the channel has an absolute frequency, each advice also
+// names the edge it puts the partition at in MHz.
+func clearOverlap(a, b Lattice, ch Channel) string {
 	lower, upper := a, b
 	if b.Low < a.Low || (b.Low == a.Low && b.High < a.High) {
 		lower, upper = b, a
 	}
 	scsU, scsL := Hz(upper.Numerology.SCSKHz())*1000, Hz(lower.Numerology.SCSKHz())*1000
+	at := func(f Hz) string {
+		if !ch.Absolute {
+			return ""
+		}
+		return strconv.FormatFloat((ch.PointAHz+f).MHz(), 'f', -1, 64) + " MHz"
+	}
 	start := ceilDiv(lower.High+scsU/2, 12*scsU)
 	s := fmt.Sprintf("to clear it, start %q at CRB %d or above", upper.Name, start)
+	if e := at(12*start*scsU - scsU/2); e != "" {
+		s += " (its lower edge at " + e + " or higher)"
+	}
 	if keep := floorDiv(upper.Low+scsL/2, 12*scsL) - Hz(lower.StartCRB); keep > 0 {
 		s += fmt.Sprintf(", or shrink %q to %d PRBs or fewer", lower.Name, keep)
+		if e := at(12*(Hz(lower.StartCRB)+keep)*scsL - scsL/2); e != "" {
+			s += " (its upper edge at " + e + " or lower)"
+		}
 	}
 	return s
 }

@@ -232,6 +232,16 @@ func TestFindings(t *testing.T) {
 		// 180·m − 7.5 ≤ 4305 up to m = 23.
 		{"half-subcarrier overlap, how to clear", plan(40, part("a", 15, 0, 24), part("b", 30, 12, 10)), Error, CodeOverlap, "partitions[1].startCrb",
 			`start "b" at CRB 13 or above, or shrink "a" to 23 PRBs or fewer`},
+		// With a centre the advice names the edges in MHz, worked by hand:
+		// with offset 0 the centre 3750 MHz is subcarrier 0 of CRB 108
+		// (N_RB 216, TS 38.101-1 5.4.2.2), so point A is 3750 − 108·0.18 =
+		// 3730.56 MHz; CRB 30 starts at 3730.56 + 5.4 − 0.0075 and 20 PRBs
+		// end at 3730.56 + 3.6 − 0.0075 (outer edges of the subcarriers).
+		{"overlap, how to clear in MHz", withCarrier(plan(40, part("a", 15, 0, 30), part("b", 15, 20, 30)), func(c *CarrierPlan) {
+			c.CenterMHz = fptr(3750)
+			c.OffsetToCarrier = map[int]int{15: 0}
+		}), Error, CodeOverlap, "partitions[1].startCrb",
+			`start "b" at CRB 30 or above (its lower edge at 3735.9525 MHz or higher), or shrink "a" to 20 PRBs or fewer (its upper edge at 3734.1525 MHz or lower).`},
 		{"DL/UL overlap", plan(40, part("a", 15, 0, 30), with(part("b", 15, 20, 30), func(p *PartitionPlan) { p.Direction = "UL" })), Warning, CodeOverlap, "partitions[1].startCrb", "TDD"},
 		{"carrier beyond channel", withCarrier(plan(40, part("a", 15, 0, 10)), func(c *CarrierPlan) {
 			c.OffsetToCarrier = map[int]int{15: 0}

@@ -186,10 +186,11 @@ func drawPartition(b *builder, f frame, i int, l grid.Lattice, d detail, t *tddD
 }
 
 // nameLabel is a partition's name in the plot, and false where the
-// partition is too low to hold it.
+// partition is too low to hold it. Its size is set, not inherited, so that
+// measure gives the width other labels keep clear of.
 func nameLabel(f frame, l grid.Lattice) (label, bool) {
 	top, bottom := f.Y(l.High), f.Y(l.Low)
 	return label{class: "gl-name", x: float64(f.x + 5), y: float64(int(top) + 13),
 		runs: []run{{text: clean(shown(l.Name)), bold: true}, {text: fmt.Sprintf("%d kHz", l.Numerology.SCSKHz()), dx: 6}},
-		halo: true}, bottom-top >= 16
+		size: baseFontSize, halo: true}, bottom-top >= 16
 }

@@ -38,6 +38,12 @@ type look struct {
 
 	// CORESET#0's dashed outline.
 	coresetW float64
+
+	// The outline of a band two partitions share: errorInk where both send
+	// in the same direction (an error), warnInk dashed where a downlink
+	// and an uplink partition share it (legal on TDD if never at once).
+	errorInk, warnInk rgb
+	overlapW          float64
 }
 
 // partColours is the Okabe–Ito colour-blind-safe palette (Okabe and Ito,
@@ -79,6 +85,10 @@ var lightLook = look{
 
 	ssbFill: white, ssbFillA: 0.8, ssbLine: black, ssbW: 1.6,
 	coresetW: 1.4,
+	// The page's --error and --warning inks (static/app.css), so the
+	// outline reads like the finding it belongs to.
+	errorInk: rgb{0xb0, 0x2a, 0x20}, warnInk: rgb{0x9a, 0x5b, 0x00},
+	overlapW: 2.5,
 }
 
 // printLook is for documents: black and white patterns without tints,
@@ -107,6 +117,8 @@ var printLook = look{
 
 	ssbFill: white, ssbFillA: 0.85, ssbLine: black, ssbW: 2.2,
 	coresetW: 1.8,
+	errorInk: black, warnInk: black,
+	overlapW: 3,
 }
 
 func (lk *look) part(i int) rgb { return lk.parts[i%len(lk.parts)] }

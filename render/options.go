@@ -103,15 +103,16 @@ const (
 	LayerRaster                     // the band's synchronization raster: GSCN ticks on the frequency axis
 	LayerCoreset0                   // CORESET#0 and its Type0-PDCCH occasions, the initial BWPs on the rail
 	LayerPRACH                      // PRACH occasions, valid and not
+	LayerOverlap                    // the band two partitions share, outlined (grid.Result.Overlaps)
 	allLayers     Layer = 1<<iota - 1
 )
 
 // layerNames lists the layers in the order of their bits.
-var layerNames = []string{"lattice", "cp", "guards", "labels", "tdd", "ssb", "raster", "coreset0", "prach"}
+var layerNames = []string{"lattice", "cp", "guards", "labels", "tdd", "ssb", "raster", "coreset0", "prach", "overlap"}
 
 // layerTitles says what each layer draws, in words for a form's
 // checkboxes, in the order of layerNames.
-var layerTitles = []string{"lattice lines", "cyclic prefixes", "guardbands", "labels", "TDD directions", "SS/PBCH blocks", "synchronization raster", "CORESET#0 and initial BWPs", "random access occasions"}
+var layerTitles = []string{"lattice lines", "cyclic prefixes", "guardbands", "labels", "TDD directions", "SS/PBCH blocks", "synchronization raster", "CORESET#0 and initial BWPs", "random access occasions", "overlapping partitions"}
 
 // LayerTitles returns a few words for each layer, in the order of
 // LayerNames, so that a page lists every layer render has without keeping

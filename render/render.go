@@ -43,7 +43,10 @@
 // data-occ-high-hz (Hz from point A), data-occ-valid ('1' or '0') and
 // data-occ-ssb (each occasion's SS/PBCH indices, comma-separated, "-" for
 // none), all space-separated; its paths are gl-prach-edge (valid) and
-// gl-prach-bad (not valid).
+// gl-prach-bad (not valid). The bands of Result.Overlaps are outlined in
+// <g class="gl-overlaps"> with data-pairs (each pair's partition indexes,
+// "a-b", space-separated): gl-overlap (errors) and gl-overlap-warn (a
+// downlink and an uplink partition).
 //
 // Options.Window fixes the axes, so that figures of two plans share their
 // scales (FitWindow and Window.Union make one that holds both), and
@@ -354,6 +357,9 @@ func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDr
 	if blocks != nil {
 		drawSSB(b, blocks)
 	}
+	if b.shows(LayerOverlap) {
+		drawOverlaps(b, f, r.Overlaps)
+	}
 	if f.pastPlan() {
 		// The window runs on past the plan's span: nothing of the plan is there.
 		x := f.planRight()
@@ -393,16 +399,18 @@ func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDr
 	}
 	b.add(line("gl-frame", whole, lk.soft, 1, lk.frameW))
 	if b.shows(LayerLabels) {
+		// The partitions' names are drawn; the labels drawn after them
+		// keep clear of them and of each other.
 		var taken []labelBox
+		for _, l := range r.Partitions {
+			if name, ok := nameLabel(f, l); ok {
+				taken = append(taken, labelBox{name.x, name.y - 11, name.x + measure(&name), name.y + 3})
+			}
+		}
 		if blocks != nil {
-			taken = drawSSBLabels(b, blocks)
+			taken = append(taken, drawSSBLabels(b, blocks, taken)...)
 		}
 		if coreset != nil {
-			for _, l := range r.Partitions {
-				if name, ok := nameLabel(f, l); ok {
-					taken = append(taken, labelBox{name.x, name.y - 11, name.x + measure(&name), name.y + 3})
-				}
-			}
 			drawCoreset0Labels(b, coreset, taken)
 		}
 	}
@@ -815,6 +823,9 @@ func keyRows(r grid.Result, b *builder, blocks *ssbDrawing, coreset *coresetDraw
 	}
 	if raster != nil {
 		keys = append(keys, syncKeys(r.SyncRaster, raster)...)
+	}
+	if b.shows(LayerOverlap) {
+		keys = append(keys, overlapKeys(r.Overlaps, b)...)
 	}
 	return keys
 }

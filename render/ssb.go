@@ -88,20 +88,32 @@ func drawSSB(b *builder, d *ssbDrawing) {
 }
 
 // drawSSBLabels names the candidate indices of each group of blocks above
-// it, leaving out a label that would run into the one before. It returns
-// the labels' extents, for other labels to keep clear of.
-func drawSSBLabels(b *builder, d *ssbDrawing) []labelBox {
+// it — or below it where a label of taken (the partitions' names) is in
+// the way — leaving out a label that would run into the one before or that
+// has no free place. It returns the labels' extents, for other labels to
+// keep clear of.
+func drawSSBLabels(b *builder, d *ssbDrawing, taken []labelBox) []labelBox {
 	reach := -1e9
-	y := float64(int(d.top - 4))
+	above, below := float64(int(d.top-4)), float64(int(d.bottom+13))
 	var placed []labelBox
 	for _, g := range d.groups {
-		l := label{class: "gl-ssb-label", x: float64(int(g.x0 + 0.5)), y: y,
+		l := label{class: "gl-ssb-label", x: float64(int(g.x0 + 0.5)),
 			runs: []run{{text: "SSB " + indexList(g.indices), bold: true}}, size: 10, halo: true}
 		if l.x < reach+8 {
 			continue
 		}
-		reach = l.x + measure(&l)
-		placed = append(placed, labelBox{l.x, y - 10, reach, y + 3})
+		w := measure(&l)
+		box := func(y float64) labelBox { return labelBox{l.x, y - 10, l.x + w, y + 3} }
+		switch {
+		case !box(above).hitsAny(taken):
+			l.y = above
+		case !box(below).hitsAny(taken):
+			l.y = below
+		default:
+			continue // the key still lists every candidate shown
+		}
+		reach = l.x + w
+		placed = append(placed, box(l.y))
 		b.text(l)
 	}
 	return placed

@@ -799,6 +799,7 @@
     f.plot.classList.remove('gl-hovering');
     f.plot.querySelectorAll('.gl-part.gl-hot').forEach((g) => g.classList.remove('gl-hot'));
     mark(f, null);
+    dockReadout();
   }
 
   document.addEventListener('pointermove', (e) => {
@@ -815,10 +816,16 @@
     const p = toPlot(f, at.x, at.y);
     if (!p) {
       const i = rasterAt(f, at.x, at.y);
-      if (i !== null) showRaster(f, i);
+      if (i !== null) {
+        liftReadout();
+        showRaster(f, i);
+        floatReadout(at.x, at.y);
+      }
       return;
     }
+    liftReadout();
     show(f, cellAt(f, p.t, p.hz));
+    floatReadout(at.x, at.y);
   }
 
   document.addEventListener('pointerout', (e) => {
@@ -836,7 +843,12 @@
     if (!f || !cursor) return;
     const p = f.lattice.parts[cursor.part];
     const s = symbolAt(f.nums[cursor.part], cursor.k);
+    liftReadout();
     show(f, { part: cursor.part, k: cursor.k, crb: cursor.crb, t: s.start + s.length / 2, hz: crbEdge(p, cursor.crb) + 6 * p.scsHz });
+    if (f.mark) {
+      const r = f.mark.getBoundingClientRect();
+      floatReadout(r.right, r.bottom);
+    }
   }
 
   // byFrequency lists the partition indexes from the lowest up.
@@ -1137,4 +1149,134 @@
     box.remove();
     return ok;
   }
+
+  // ---------------------------------------------------------------------
+  // -- issue 19 (h19w): the readout beside the pointer --
+  //
+  // The readout sat under the figure, 300–450 px below the pointer. While
+  // the pointer (or the keyboard's mark) is on the figure it floats beside
+  // it, below and right of it, flipped to the other side where the
+  // viewport ends, never covering the cell read; its place under the
+  // figure is held, so that nothing below moves. It docks again when the
+  // pointer leaves the figure. pointer-events: none lets the pointer reach
+  // the figure under it.
+
+  const READOUT_GAP = 14; // px between the pointer and the readout
+  const VIEW_MARGIN = 6; // px kept free at the viewport's edges
+
+  // liftReadout takes the readout out of the page's flow, holding its
+  // place at the height it has docked; call it before the text changes.
+  function liftReadout() {
+    const out = byId('gl-readout');
+    if (out && !out.classList.contains('gl-float')) {
+      const cap = out.parentElement;
+      if (cap) cap.style.minHeight = cap.getBoundingClientRect().height + 'px';
+      // The figure's box paints on its own (contain: paint), which would
+      // clip the readout and make the box its containing block.
+      const box = out.closest('.gl-figure-box');
+      if (box) box.classList.add('gl-floating');
+      out.classList.add('gl-float');
+      out.style.left = '0px';
+      out.style.top = '0px';
+    }
+  }
+
+  // floatReadout puts the lifted readout beside the point (x, y) of the
+  // viewport.
+  function floatReadout(x, y) {
+    const out = byId('gl-readout');
+    if (!out || !out.classList.contains('gl-float')) return;
+    const w = out.offsetWidth;
+    const h = out.offsetHeight;
+    let left = x + READOUT_GAP;
+    if (left + w > innerWidth - VIEW_MARGIN) left = x - READOUT_GAP - w;
+    left = Math.max(VIEW_MARGIN, Math.min(left, innerWidth - VIEW_MARGIN - w));
+    let top = y + READOUT_GAP;
+    if (top + h > innerHeight - VIEW_MARGIN) top = y - READOUT_GAP - h;
+    top = Math.max(VIEW_MARGIN, Math.min(top, innerHeight - VIEW_MARGIN - h));
+    // Fixed to the viewport unless an ancestor says otherwise: measure
+    // where left and top are measured from.
+    const at = out.getBoundingClientRect();
+    const ox = at.left - (parseFloat(out.style.left) || 0);
+    const oy = at.top - (parseFloat(out.style.top) || 0);
+    out.style.left = left - ox + 'px';
+    out.style.top = top - oy + 'px';
+  }
+
+  function dockReadout() {
+    const out = byId('gl-readout');
+    if (!out || !out.classList.contains('gl-float')) return;
+    out.classList.remove('gl-float');
+    out.style.left = '';
+    out.style.top = '';
+    if (out.parentElement) out.parentElement.style.minHeight = '';
+    const box = out.closest('.gl-figure-box');
+    if (box) box.classList.remove('gl-floating');
+  }
+
+  // A scroll moves the figure under a fixed readout: dock it until the
+  // pointer moves again.
+  addEventListener('scroll', dockReadout, { passive: true });
+
+  // Opening a plan on one side of the comparison: a file dropped on a
+  // side (.gl-cmp-side with its form.gl-cmp-open) is posted to that form's
+  // action as its Open button would; a refusal shows the server's reason
+  // beside the side's file control.
+  function cmpSideOf(e) {
+    const side = e.target.closest && e.target.closest('.gl-cmp-side');
+    return side && side.querySelector('form.gl-cmp-open') ? side : null;
+  }
+
+  document.addEventListener('dragover', (e) => {
+    const side = cmpSideOf(e);
+    if (!side || !hasFiles(e)) return;
+    e.preventDefault();
+    e.dataTransfer.dropEffect = 'copy';
+    side.classList.add('gl-drop-here');
+  });
+
+  document.addEventListener('dragleave', (e) => {
+    const side = cmpSideOf(e);
+    if (side && !(e.relatedTarget && side.contains(e.relatedTarget))) side.classList.remove('gl-drop-here');
+  });
+
+  document.addEventListener('drop', (e) => {
+    const side = cmpSideOf(e);
+    if (!side || !hasFiles(e)) return;
+    e.preventDefault();
+    side.classList.remove('gl-drop-here');
+    const file = e.dataTransfer.files[0];
+    if (file) openOnSide(side.querySelector('form.gl-cmp-open'), file);
+  });
+
+  async function openOnSide(form, file) {
+    const body = new FormData();
+    body.append('plan', file, file.name);
+    setBusy(true);
+    let res;
+    try {
+      res = await fetch(form.getAttribute('action'), { method: 'POST', body });
+    } catch (err) {
+      setBusy(false);
+      trouble('The file could not be sent (' + err.message + '); try the Open control.');
+      return;
+    }
+    if (res.ok && res.redirected) {
+      location.assign(res.url);
+      return;
+    }
+    setBusy(false);
+    const input = form.querySelector('input[type=file]');
+    const page = new DOMParser().parseFromString(await res.text(), 'text/html');
+    const fresh = input && page.getElementById('n-' + input.id);
+    const cur = input && byId('n-' + input.id);
+    if (fresh && cur) {
+      cur.replaceWith(document.adoptNode(fresh));
+      input.focus();
+      byId('n-' + input.id).scrollIntoView({ block: 'nearest' });
+    } else {
+      trouble('The server could not open ' + file.name + ' (' + res.status + ').');
+    }
+  }
+  // -- end issue 19 (h19w) --
 })();

@@ -5,6 +5,7 @@ import (
 	"net/http"
 	"slices"
 
+	"gridloom/grid"
 	"gridloom/grid/planfile"
 	"gridloom/web/planform"
 )
@@ -54,6 +55,44 @@ func (s *server) compareOf(r *http.Request, c planform.Compare) (compareView, []
 	}
 	slices.Sort(styles)
 	return buildCompare(c, figs), slices.Compact(styles)
+}
+
+// compareOpen reads an uploaded plan file (field "plan", as /open takes
+// it) into one side of the comparison (side=a or b; the rest of the query
+// is the comparison it came from) and redirects to the comparison with it,
+// the other side kept as it was. On failure it shows that comparison with
+// the reason beside the side's file control, which the page script then
+// brings into view.
+func (s *server) compareOpen(w http.ResponseWriter, r *http.Request) error {
+	q := r.URL.Query()
+	side := q.Get("side")
+	i := slices.Index(planform.Sides[:], side)
+	if i < 0 {
+		return refusal("The form does not say which side to open the file on:", planform.Messages{"side": fmt.Sprintf("%q is not a side of the comparison; use a or b.", planform.ShortText(side))})
+	}
+	q.Del("side")
+	c, _ := planform.ReadCompare(q.Encode())
+	if len(q) == 0 {
+		f := planform.FormOf(s.cfg.Plan)
+		c, _ = planform.ReadCompare(planform.CompareQuery(f, planform.CopyOf(f), planform.FigureForm{}))
+	}
+	plan, _, status, reasons := readUpload(r)
+	if status == http.StatusOK {
+		opened := c
+		opened.Sides[i].Form = planform.FormOf(plan)
+		if query := opened.Query(); len(query) <= MaxQuery {
+			http.Redirect(w, r, "/compare?"+query, http.StatusSeeOther)
+			return nil
+		}
+		status = http.StatusRequestURITooLong
+		reasons = []string{fmt.Sprintf("%s is too large to compare: the comparison's link would be over %d bytes (32 KiB); open it in the planner, or trim it.", uploadName(r), MaxQuery)}
+	}
+	v, styles := s.compareOf(r, c)
+	for _, m := range reasons {
+		v.Sides[i].OpenNotes = append(v.Sides[i].OpenNotes, note{Severity: string(grid.Error), Text: m})
+	}
+	v.Focus = "f-" + side + "-file"
+	return writeHTML(w, r, status, comparePage(v), styles)
 }
 
 // compareFigure serves one side's figure (side=a or b) on the scales it

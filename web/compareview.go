@@ -62,6 +62,11 @@ type compareSide struct {
 	Placed, Total           int
 	Planner, SVG, PNG       string
 	Findings                []findingView
+	// Open is the side's file control (issue 19): its form posts a plan
+	// file to /compare/open for this side; OpenNotes say why the last file
+	// was refused.
+	Open      string
+	OpenNotes []note
 }
 
 // diffRow is one quantity of the totals: A, B and B − A.
@@ -126,6 +131,7 @@ func buildCompare(c planform.Compare, figs [2]drawn) compareView {
 			Planner: "/?" + st.Query(),
 			SVG:     "/compare/figure.svg?" + planform.JoinQuery("side="+side, q, "download=1"),
 			PNG:     "/compare/figure.png?" + planform.JoinQuery("side="+side, q, "download=1"),
+			Open:    "/compare/open?" + planform.JoinQuery("side="+side, q),
 		}
 		if sv.Name == "" {
 			sv.Name = "Untitled plan"

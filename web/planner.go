@@ -83,6 +83,13 @@ func (s *server) demo(w http.ResponseWriter, r *http.Request) error {
 	return nil
 }
 
+// newPlan redirects to the page of planform.NewPlan, an empty carrier to
+// start from.
+func (s *server) newPlan(w http.ResponseWriter, r *http.Request) error {
+	http.Redirect(w, r, "/?"+planform.FormOf(planform.NewPlan()).Query(), http.StatusSeeOther)
+	return nil
+}
+
 // open reads an uploaded plan file (field "plan": JSON, YAML, TS 38.331
 // value notation, or a figure saved by gridloom, whose metadata holds the
 // plan) and redirects to its page, keeping the figure options of the page

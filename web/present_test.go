@@ -255,7 +255,7 @@ func TestFigureOptionsLayers(t *testing.T) {
 		{"", ""},
 		{"fig.layers=none", "none"}, // every box unchecked
 		{"fig.layers=none&fig.layers=lattice&fig.layers=tdd", "lattice,tdd"}, // two checked
-		{"fig.layers=none&fig.layers=lattice&fig.layers=cp&fig.layers=guards&fig.layers=labels&fig.layers=tdd&fig.layers=ssb&fig.layers=raster&fig.layers=coreset0&fig.layers=prach", ""},
+		{"fig.layers=none&fig.layers=lattice&fig.layers=cp&fig.layers=guards&fig.layers=labels&fig.layers=tdd&fig.layers=ssb&fig.layers=raster&fig.layers=coreset0&fig.layers=prach&fig.layers=overlap", ""},
 		{"fig.layers=ssb,+TDD", "tdd,ssb"},
 		{"fig.layers=all", ""},
 		{"fig.layers=lattice,grid", "lattice,grid"}, // kept as typed, for its message
@@ -319,7 +319,7 @@ func TestFigureOptions(t *testing.T) {
 		{"&fig.width=99999", "fig.width", "640 to 4800"},
 		{"&fig.width=wide", "fig.width", "640 to 4800"},
 		{"&fig.theme=sepia", "fig.theme", "light or print"},
-		{"&fig.layers=lattice,grid", "fig.layers", "lattice, cp, guards, labels, tdd, ssb, raster, coreset0 and prach"},
+		{"&fig.layers=lattice,grid", "fig.layers", "lattice, cp, guards, labels, tdd, ssb, raster, coreset0, prach and overlap"},
 		{"&fig.caption=" + strings.Repeat("x", render.MaxCaption+1), "fig.caption", "at most 300"},
 	} {
 		for _, path := range []string{"/figure.svg?", "/figure.png?"} {

@@ -63,6 +63,7 @@ func (s *server) routes(r *chi.Mux) {
 		r.Get("/", page(s.planner))                                           // the planner; an empty query opens the startup plan
 		r.Get("/fragment", page(s.plannerFragment))                           // the planner's workspace alone, for live updates
 		r.Get("/demo/{name}", page(s.demo))                                   // redirect to a demo plan
+		r.Get("/new", page(s.newPlan))                                        // redirect to an empty carrier to start from (planform.NewPlan)
 		r.Get("/figure.svg", cached(s.figures, page(s.figureSVG)).ServeHTTP)  // the figure, with the plan in its metadata; download=1 sends it as a file
 		r.Get("/figure.png", cached(s.figures, heavy(s.figurePNG)).ServeHTTP) // the figure as a PNG image; download=1 sends it as a file
 		r.Get("/find/ssb", heavy(s.findSSBPage))                              // the SS/PBCH block's places on the sync raster, each a link applying it
@@ -70,6 +71,7 @@ func (s *server) routes(r *chi.Mux) {
 		r.Get("/walk", page(s.heavy.heavyWhen(printed, s.walk)))              // the plan step by step for a team: step=, view=projector or print
 		r.Get("/compare", heavy(s.compare))                                   // two plans side by side on shared scales, a. and b. keys
 		r.Get("/compare/fragment", heavy(s.compareFragment))                  // the comparison's workspace alone, for live updates
+		r.Post("/compare/open", heavy(s.compareOpen))                         // upload a plan file into one side (side=a or b) of the comparison in the query
 		r.Get("/compare/figure.svg", heavy(s.compareFigure("svg")))           // one side's figure on the shared scales: side=a or b
 		r.Get("/compare/figure.png", heavy(s.compareFigure("png")))           // the same as a PNG image
 		r.Get("/prach", heavy(s.prachFind))                                   // the PRACH configuration finder: every index that fits, each a link that applies it

@@ -86,7 +86,7 @@ func walkPage(v walkView) templ.Component {
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
-		templ_7745c5c3_Err = masthead(nil).Render(ctx, templ_7745c5c3_Buffer)
+		templ_7745c5c3_Err = masthead(nil, "Walkthrough: "+v.PlanTitle).Render(ctx, templ_7745c5c3_Buffer)
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}

@@ -10,7 +10,7 @@ import (
 func TestLayersMessage(t *testing.T) {
 	st := NewFigureState(FigureForm{Layers: "lattice, grid ,tdd"}, "")
 	msg := st.Msgs[KeyFigLayers]
-	for _, want := range []string{`Figure layers (fig.layers): "grid" is not a figure layer`, "lattice, cp, guards, labels, tdd, ssb, raster, coreset0 and prach", "all or none."} {
+	for _, want := range []string{`Figure layers (fig.layers): "grid" is not a figure layer`, "lattice, cp, guards, labels, tdd, ssb, raster, coreset0, prach and overlap", "all or none."} {
 		if !strings.Contains(msg, want) {
 			t.Errorf("message %q does not contain %q", msg, want)
 		}
