@@ -3,6 +3,7 @@ package render
 import (
 	"bytes"
 	"encoding/binary"
+	"errors"
 	"fmt"
 	"hash/crc32"
 	"image"
@@ -34,7 +35,7 @@ func FigurePNG(w io.Writer, r grid.Result, opt Options) error {
 	k := float64(d.outW) / float64(d.w) * float64(max(1, opt.PNGScale))
 	pw, ph := int(math.Round(float64(d.w)*k)), int(math.Round(float64(d.h)*k))
 	if pw*ph > MaxPNGPixels {
-		return fmt.Errorf("render: the PNG would be %d × %d px, more than %d pixels; give a smaller width, scale or dpi", pw, ph, MaxPNGPixels)
+		return fmt.Errorf("%w: it would be %d × %d px, more than %d pixels; give a smaller width, scale or dpi", ErrPNGTooLarge, pw, ph, MaxPNGPixels)
 	}
 	halo := 1
 	if k != 1 {
@@ -56,6 +57,10 @@ func FigurePNG(w io.Writer, r grid.Result, opt Options) error {
 	_, err = w.Write(out)
 	return err
 }
+
+// ErrPNGTooLarge is returned when the options ask for a PNG of more than
+// MaxPNGPixels: a request to refuse, not a failure of the renderer.
+var ErrPNGTooLarge = errors.New("render: the PNG is too large")
 
 // PixelsPerMetre is the pHYs chunk's resolution for dpi dots per inch,
 // rounded: 300 dpi is 300/0.0254 = 11811.02, so 11811 (PNG specification,
