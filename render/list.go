@@ -102,7 +102,7 @@ func (a anchor) String() string {
 type pattern struct {
 	id     string
 	tile   int
-	period float64 // px between repeats in a scaled doc (tile px stretched to it); 0 is tile
+	period float64 // px between repeats in a scaled doc when not whole (painter.tile); 0 is tile
 	shapes []shape
 }
 

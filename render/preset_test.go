@@ -315,30 +315,40 @@ func TestPrintLabelBack(t *testing.T) {
 
 // TestFigurePNGMatchesSVGScaled holds the PNG of a preset (the slide laid
 // out 640 px wide and written 1920, the A4 column 604 and 1208) against
-// rsvg-convert drawing the SVG at the same size, as
-// TestFigurePNGMatchesSVG does at one to one. At a zoom that is not whole
-// (A4 written 1200 px wide: 1200/604) the stretched pattern tiles were
-// measured at a mean of 1.5 levels (light) and 2.7 (print), past the
-// limits, so the presets' own widths are whole multiples.
+// rsvg-convert drawing the SVG at the same size, with the limits
+// TestFigurePNGMatchesSVG keeps at one to one. At a zoom that is not whole
+// (the A4 column at 300 dpi: 1890/604) a pattern repeats every 18.77 px;
+// the PNG draws its tile four times finer and averages it over each
+// pixel, rsvg-convert draws it its own way, and the hatching of the two
+// differs by under a pixel in phase: measured on the campus plan, a mean
+// of 1.1 levels (light) and 1.7 (print) with 0.7 % and 2.6 % of pixels far
+// off, all on hatch edges. There only the text and a looser mean are held.
 func TestFigurePNGMatchesSVGScaled(t *testing.T) {
 	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
-	for _, name := range []string{"slide", "a4"} {
-		a4, _ := ParsePreset(name)
+	for _, c := range []struct {
+		preset string
+		dpi    int
+		whole  bool
+	}{{"slide", 0, true}, {"a4", 0, true}, {"a4", 300, false}} {
+		p, _ := ParsePreset(c.preset)
 		for _, theme := range []Theme{ThemeLight, ThemePrint} {
-			opt := Options{Preset: *a4, Theme: theme}
+			opt := Options{Preset: *p, Theme: theme, DPI: c.dpi}
 			ref := rsvgPNG(t, figure(t, r, opt))
 			got := figurePNG(t, r, opt)
 			if got.Bounds() != ref.Bounds() {
-				t.Fatalf("%s: FigurePNG is %v, rsvg-convert %v", theme, got.Bounds(), ref.Bounds())
+				t.Fatalf("%s %s: FigurePNG is %v, rsvg-convert %v", c.preset, theme, got.Bounds(), ref.Bounds())
 			}
 			d, err := build(r, opt)
 			if err != nil {
 				t.Fatal(err)
 			}
 			v := comparePNG(toGrey(got), toGrey(ref), scaleDoc(d, float64(d.outW)/float64(d.w)))
-			t.Logf("%s: %v", theme, v)
-			if !v.ok() {
-				t.Errorf("%s %s: FigurePNG and rsvg-convert differ: %v", name, theme, v)
+			t.Logf("%s %d dpi %s: %v", c.preset, c.dpi, theme, v)
+			switch {
+			case c.whole && !v.ok():
+				t.Errorf("%s %s: FigurePNG and rsvg-convert differ: %v", c.preset, theme, v)
+			case !c.whole && (v.geomMean > 2.5 || v.worstInk > maxInkRatio):
+				t.Errorf("%s at %d dpi %s: FigurePNG and rsvg-convert differ past the looser limits: %v", c.preset, c.dpi, theme, v)
 			}
 		}
 	}

@@ -88,9 +88,11 @@ func withPHYs(p []byte, dpi int) []byte {
 }
 
 // scaleDoc is d drawn k times larger, for the PNG: every coordinate, width,
-// dash and font size times k, and each pattern's tile rounded to whole
-// pixels with its shapes scaled to fill it, and its period kept exact. Labels keep the whole-pixel
-// positions of the layout, times k.
+// dash and font size times k. Labels keep the whole-pixel positions of the
+// layout, times k. At a whole k a pattern's tile is k times its own; at
+// another k the pattern repeats every tile × k px, which is not a whole
+// number, so its tile is drawn patternSuper times finer still and the
+// painter averages it over each pixel's footprint (see painter.tile).
 func scaleDoc(d *doc, k float64) *doc {
 	out := *d
 	out.w, out.h = int(math.Round(float64(d.w)*k)), int(math.Round(float64(d.h)*k))
@@ -118,9 +120,12 @@ func scaleDoc(d *doc, k float64) *doc {
 	}
 	out.patterns = make([]pattern, len(d.patterns))
 	for i, p := range d.patterns {
-		tile := max(1, int(math.Round(float64(p.tile)*k)))
-		kt := float64(tile) / float64(p.tile)
-		q := pattern{id: p.id, tile: tile, period: float64(p.tile) * k, shapes: make([]shape, len(p.shapes))}
+		q := pattern{id: p.id, tile: int(math.Round(float64(p.tile) * k)), shapes: make([]shape, len(p.shapes))}
+		if k != math.Trunc(k) {
+			q.period = float64(p.tile) * k
+			q.tile = max(1, int(math.Round(q.period*patternSuper)))
+		}
+		kt := float64(q.tile) / float64(p.tile)
 		for j, s := range p.shapes {
 			q.shapes[j] = scaleShape(s, kt)
 		}
@@ -411,15 +416,15 @@ func (pa *painter) composite(dst *image.RGBA, at image.Point, m *image.Alpha, p 
 	case paintPattern:
 		tile := pa.tile(p.pattern)
 		t := tile.Rect.Dx()
-		// A scaled doc's pattern repeats every period px, which need not
-		// be whole: its tile, rasterised t px wide, is stretched to the
-		// period so that the pattern keeps its phase across the image.
+		// A pattern that repeats every period px, not a whole number, has
+		// a tile averaged over pixel footprints (painter.tile): pixel v
+		// takes the footprint that starts at its place in the period.
 		period := pa.d.patterns[p.pattern].period
 		wrap := func(v int) int {
 			if period == 0 {
 				return v % t
 			}
-			return min(t-1, int(math.Mod(float64(v)+0.5, period)*float64(t)/period))
+			return min(t-1, int(math.Mod(float64(v), period)*float64(t)/period))
 		}
 		for y := range h {
 			row := dst.PixOffset(at.X, at.Y+y)
@@ -455,7 +460,17 @@ func div255(v uint32) uint32 {
 	return (v + v>>8) >> 8
 }
 
-// tile rasterises pattern i once, clipped to its tile.
+// patternSuper is how much finer than the output a pattern whose period is
+// not a whole number of pixels is drawn: its phase is then kept to a
+// quarter pixel.
+const patternSuper = 4
+
+// tile rasterises pattern i once, clipped to its tile. A pattern with a
+// period (scaleDoc) is drawn patternSuper times finer than the output, and
+// each texel then replaced by the mean of the patternSuper × patternSuper
+// texels from it on, wrapping: one output pixel's footprint, so that
+// compositing reads one texel a pixel, anti-aliased as the SVG's viewer
+// draws the pattern. Averaging premultiplied RGBA is exact for coverage.
 func (pa *painter) tile(i int) *image.RGBA {
 	if pa.tiles[i] == nil {
 		p := pa.d.patterns[i]
@@ -463,9 +478,39 @@ func (pa *painter) tile(i int) *image.RGBA {
 		for k := range p.shapes {
 			pa.shape(img, &p.shapes[k])
 		}
+		if p.period != 0 {
+			img = footprints(img, int(math.Round(float64(p.tile)/p.period)))
+		}
 		pa.tiles[i] = img
 	}
 	return pa.tiles[i]
+}
+
+// footprints is the mean of every n × n block of the wrapping tile img,
+// stored at the block's first texel.
+func footprints(img *image.RGBA, n int) *image.RGBA {
+	t := img.Rect.Dx()
+	n = max(1, n)
+	out := image.NewRGBA(img.Rect)
+	for y := range t {
+		for x := range t {
+			var sum [4]int
+			for dy := range n {
+				row := ((y + dy) % t) * img.Stride
+				for dx := range n {
+					px := img.Pix[row+4*((x+dx)%t):]
+					for c := range 4 {
+						sum[c] += int(px[c])
+					}
+				}
+			}
+			o := out.PixOffset(x, y)
+			for c := range 4 {
+				out.Pix[o+c] = uint8((sum[c] + n*n/2) / (n * n))
+			}
+		}
+	}
+	return out
 }
 
 // glyph returns the outline of rune r at size, loading it on first use.
