@@ -660,7 +660,8 @@ func buildFigureBox(st planform.FigureState, planName string) figureView {
 		Theme:   text(planform.KeyFigTheme, "Theme", ff.Theme, "", "", "4"),
 		Caption: text(planform.KeyFigCaption, "Caption", ff.Caption, "", capHolder, "12"),
 		Hint: "These options shape the figure on the page, the SVG and PNG downloads, the walkthrough and the comparison. " +
-			"An empty caption is the plan's name; a single - draws none.",
+			"An empty caption is the plan's name; a single - draws none. " +
+			"A preset lays the figure out for an A4 column, a slide or a poster so that no text prints below its least size; PNG scale and dpi shape the PNG download.",
 		ShowCaption: true,
 	}
 	fv.Theme.Options = pick([]option{{Value: "light", Label: "light (screen)"}, {Value: "print", Label: "print (black and white)"}},
