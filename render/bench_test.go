@@ -62,3 +62,24 @@ func BenchmarkFigurePNG(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkFigurePNGPaper rasterises the heaviest plan for paper: the A4
+// column at 300 dpi (1890 px, a zoom of 1890/604 that averages its
+// patterns per pixel) and at twice the default width (PNGScale 2, a whole
+// zoom). The cost follows the pixels, not the lattice.
+func BenchmarkFigurePNGPaper(b *testing.B) {
+	r := compute(b, loadPlan(b, stressPlan))
+	a4, _ := ParsePreset("a4")
+	for name, opt := range map[string]Options{"a4-300dpi": {Preset: *a4, DPI: 300}, "scale2": {PNGScale: 2}} {
+		b.Run(name, func(b *testing.B) {
+			var buf bytes.Buffer
+			for b.Loop() {
+				buf.Reset()
+				if err := FigurePNG(&buf, r, opt); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(buf.Len()), "png-bytes")
+		})
+	}
+}

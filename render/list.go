@@ -12,7 +12,8 @@ import (
 // doc is one figure: its size, its text alternatives, the patterns its
 // shapes refer to and the items in paint order.
 type doc struct {
-	w, h        int
+	w, h        int // the layout, in px: the SVG's viewBox
+	outW, outH  int // the written size, in px: the SVG's width and height
 	ink         rgb // the text colour the labels inherit
 	title, desc string
 	plan        []byte // Options.Plan, stored in <metadata>
@@ -101,6 +102,7 @@ func (a anchor) String() string {
 type pattern struct {
 	id     string
 	tile   int
+	period float64 // px between repeats in a scaled doc when not whole (painter.tile); 0 is tile
 	shapes []shape
 }
 

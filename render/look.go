@@ -14,6 +14,10 @@ type look struct {
 	unusedDot           rgb
 	guard               rgb // guardband fill, when not hatched
 	guardHatch          bool
+	// labelBack sets the labels in the plot (those with a halo) on an
+	// opaque white box, so that hatching and lines never run through them
+	// on paper.
+	labelBack bool
 
 	// Line widths in px and opacities of the lattice lines.
 	bodyW, slotW, symW, rowW float64
@@ -102,6 +106,7 @@ var printLook = look{
 	outsideLines:  rgb{0x70, 0x70, 0x70},
 	unusedDot:     rgb{0x80, 0x80, 0x80},
 	guardHatch:    true,
+	labelBack:     true,
 
 	bodyW: 1.6, slotW: 1.6, symW: 0.9, rowW: 0.9,
 	slotA: 1, symA: 0.8, rowA: 0.7,

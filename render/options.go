@@ -2,6 +2,7 @@ package render
 
 import (
 	"fmt"
+	"math"
 	"strings"
 	"unicode/utf8"
 )
@@ -33,6 +34,70 @@ type Options struct {
 	// HTML page; "" or a lower-case letter followed by lower-case letters,
 	// digits and hyphens, at most MaxIDPrefix bytes.
 	IDPrefix string
+	// Preset lays the figure out for a printed or projected width with a
+	// least type size (see Preset); the zero Preset lays it out at Width.
+	Preset Preset
+	// TimeUnit is the time axis's unit, one for every tick; TimeAuto
+	// (the zero value) chooses it from the span.
+	TimeUnit TimeUnit
+	// PNGScale multiplies the PNG's pixels, 1 to MaxPNGScale; 0 is 1. The
+	// SVG does not use it.
+	PNGScale int
+	// DPI, when not 0, is written in the PNG's pHYs chunk (MinDPI to
+	// MaxDPI dots per inch), so that a document sets the image at that
+	// resolution; with a Preset and no Width, the figure is written as many
+	// px wide as the preset's printed width holds at DPI.
+	DPI int
+}
+
+// PNG resolution bounds.
+const (
+	MaxPNGScale = 4
+	MinDPI      = 72
+	MaxDPI      = 1200
+	// MaxPNGPixels bounds the PNG's width × height after PNGScale: 4 bytes
+	// a pixel while it is painted.
+	MaxPNGPixels = 40_000_000
+)
+
+// TimeUnit is the unit of the time axis.
+type TimeUnit uint8
+
+// Time units. TimeAuto takes µs for spans up to 2 ms and ms beyond, so a
+// slot-long view reads in µs and a frame in ms; either is kept for every
+// tick of the figure.
+const (
+	TimeAuto TimeUnit = iota
+	TimeUs
+	TimeMs
+	timeUnitCount
+)
+
+var timeUnitNames = [timeUnitCount]string{"auto", "us", "ms"}
+
+// String returns the unit's name as ParseTimeUnit reads it.
+func (u TimeUnit) String() string {
+	if u < timeUnitCount {
+		return timeUnitNames[u]
+	}
+	return fmt.Sprintf("TimeUnit(%d)", uint8(u))
+}
+
+// ParseTimeUnit reads auto, us (or µs) or ms; "" is auto.
+func ParseTimeUnit(s string) (TimeUnit, error) {
+	s = strings.TrimSpace(s)
+	switch {
+	case s == "":
+		return TimeAuto, nil
+	case s == "µs" || s == "μs":
+		return TimeUs, nil
+	}
+	for i, name := range timeUnitNames {
+		if strings.EqualFold(s, name) {
+			return TimeUnit(i), nil
+		}
+	}
+	return 0, fmt.Errorf("time unit %q is not a unit of the time axis; use auto, us or ms.", shownN(s, 40))
 }
 
 // Figure widths, in px.
@@ -186,14 +251,41 @@ func ParseLayers(s string) (Layers, error) {
 	return Layers{hidden: allLayers &^ shown}, nil
 }
 
-// check validates the options and returns the figure width.
+// check validates the options and returns the figure's written width.
 func (opt Options) check() (int, error) {
 	width := opt.Width
+	p := opt.Preset
+	if width == 0 && p.Name != "" {
+		width = p.Width
+		if opt.DPI != 0 {
+			width = int(math.Round(p.PrintedMM / 25.4 * float64(opt.DPI)))
+		}
+	}
 	if width == 0 {
 		width = DefaultWidth
 	}
 	if width < MinWidth || width > MaxWidth {
+		if opt.Width == 0 && opt.DPI != 0 {
+			return 0, fmt.Errorf("render: at %d dpi the %s preset's %g mm are %d px, outside %d to %d px; give at most %d dpi, or a width", opt.DPI, p.Name, p.PrintedMM, width, MinWidth, MaxWidth, int(float64(MaxWidth)/(p.PrintedMM/25.4)))
+		}
 		return 0, fmt.Errorf("render: the figure width is %d px; it must be 0 (the default, %d px) or from %d to %d px", opt.Width, DefaultWidth, MinWidth, MaxWidth)
+	}
+	if p.Name != "" {
+		if !(p.PrintedMM > 0 && p.MinPt > 0) || p.LayoutWidth() < minLayoutWidth || p.LayoutWidth() > MaxWidth {
+			return 0, fmt.Errorf("render: preset %q lays the figure out %d px wide; a printed width and least type size must give %d to %d layout px", p.Name, p.LayoutWidth(), minLayoutWidth, MaxWidth)
+		}
+		if p.PlotHeight < minPlotHeight || p.PlotHeight > maxPlotHeight {
+			return 0, fmt.Errorf("render: preset %q has a plot %d px high; it must be %d to %d px", p.Name, p.PlotHeight, minPlotHeight, maxPlotHeight)
+		}
+	}
+	if opt.TimeUnit >= timeUnitCount {
+		return 0, fmt.Errorf("render: time unit %s is not defined; use TimeAuto, TimeUs or TimeMs", opt.TimeUnit)
+	}
+	if opt.PNGScale < 0 || opt.PNGScale > MaxPNGScale {
+		return 0, fmt.Errorf("render: the PNG scale is %d; it must be 0 or 1 (none) to %d", opt.PNGScale, MaxPNGScale)
+	}
+	if opt.DPI != 0 && (opt.DPI < MinDPI || opt.DPI > MaxDPI) {
+		return 0, fmt.Errorf("render: %d dpi is outside %d to %d; give a resolution in that range, or 0 for none", opt.DPI, MinDPI, MaxDPI)
 	}
 	if opt.Theme >= themeCount {
 		return 0, fmt.Errorf("render: theme %s is not defined; use ThemeLight or ThemePrint", opt.Theme)

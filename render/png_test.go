@@ -267,7 +267,7 @@ func TestFigurePNGSensitivity(t *testing.T) {
 			}
 			less.items = append(less.items, it)
 		}
-		img, err := paintDoc(&less)
+		img, err := paintDoc(&less, 1)
 		if err != nil {
 			t.Fatal(err)
 		}

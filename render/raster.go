@@ -2,7 +2,10 @@ package render
 
 import (
 	"bytes"
+	"encoding/binary"
+	"errors"
 	"fmt"
+	"hash/crc32"
 	"image"
 	"image/draw"
 	"image/png"
@@ -17,17 +20,29 @@ import (
 	"gridloom/grid"
 )
 
-// FigurePNG draws r as a PNG image of the same layout as Figure's SVG, one
-// pixel per SVG unit. It rasterises the display list in pure Go with
-// golang.org/x/image/vector and sets text in the Go fonts. Patterns are
-// drawn exactly as tiles; text halos are approximated by growing the
-// glyphs' coverage. The PNG carries no plan.
+// FigurePNG draws r as a PNG image of the same layout as Figure's SVG, as
+// many pixels as the SVG's width and height (one per SVG unit without a
+// Preset) times Options.PNGScale. It rasterises the display list in pure
+// Go with golang.org/x/image/vector and sets text in the Go fonts.
+// Patterns are drawn exactly as tiles; text halos are approximated by
+// growing the glyphs' coverage. With Options.DPI the PNG's pHYs chunk
+// gives that resolution. The PNG carries no plan.
 func FigurePNG(w io.Writer, r grid.Result, opt Options) error {
 	d, err := build(r, opt)
 	if err != nil {
 		return err
 	}
-	img, err := paintDoc(d)
+	k := float64(d.outW) / float64(d.w) * float64(max(1, opt.PNGScale))
+	pw, ph := int(math.Round(float64(d.w)*k)), int(math.Round(float64(d.h)*k))
+	if pw*ph > MaxPNGPixels {
+		return fmt.Errorf("%w: it would be %d × %d px, more than %d pixels; give a smaller width, scale or dpi", ErrPNGTooLarge, pw, ph, MaxPNGPixels)
+	}
+	halo := 1
+	if k != 1 {
+		d = scaleDoc(d, k)
+		halo = max(1, int(math.Round(k)))
+	}
+	img, err := paintDoc(d, halo)
 	if err != nil {
 		return err
 	}
@@ -35,8 +50,110 @@ func FigurePNG(w io.Writer, r grid.Result, opt Options) error {
 	if err := (&png.Encoder{CompressionLevel: png.BestSpeed}).Encode(&buf, img); err != nil {
 		return fmt.Errorf("render: encoding the PNG: %w", err)
 	}
-	_, err = w.Write(buf.Bytes())
+	out := buf.Bytes()
+	if opt.DPI != 0 {
+		out = withPHYs(out, opt.DPI)
+	}
+	_, err = w.Write(out)
 	return err
+}
+
+// ErrPNGTooLarge is returned when the options ask for a PNG of more than
+// MaxPNGPixels: a request to refuse, not a failure of the renderer.
+var ErrPNGTooLarge = errors.New("render: the PNG is too large")
+
+// PixelsPerMetre is the pHYs chunk's resolution for dpi dots per inch,
+// rounded: 300 dpi is 300/0.0254 = 11811.02, so 11811 (PNG specification,
+// 11.3.5.3 pHYs, whose unit is the metre).
+func PixelsPerMetre(dpi int) uint32 { return uint32(math.Round(float64(dpi) / 0.0254)) }
+
+// withPHYs puts a pHYs chunk saying dpi right after the IHDR chunk of the
+// PNG p, where the PNG specification (5.6, chunk ordering) wants it before
+// the IDAT chunks: 8 bytes of signature, then IHDR's length, type, 13
+// bytes of data and CRC.
+func withPHYs(p []byte, dpi int) []byte {
+	const afterIHDR = 8 + 4 + 4 + 13 + 4
+	ppm := PixelsPerMetre(dpi)
+	var chunk [4 + 4 + 9 + 4]byte
+	binary.BigEndian.PutUint32(chunk[0:], 9)
+	copy(chunk[4:], "pHYs")
+	binary.BigEndian.PutUint32(chunk[8:], ppm)
+	binary.BigEndian.PutUint32(chunk[12:], ppm)
+	chunk[16] = 1 // the unit is the metre
+	binary.BigEndian.PutUint32(chunk[17:], crc32.ChecksumIEEE(chunk[4:17]))
+	out := make([]byte, 0, len(p)+len(chunk))
+	out = append(out, p[:afterIHDR]...)
+	out = append(out, chunk[:]...)
+	return append(out, p[afterIHDR:]...)
+}
+
+// scaleDoc is d drawn k times larger, for the PNG: every coordinate, width,
+// dash and font size times k. Labels keep the whole-pixel positions of the
+// layout, times k. At a whole k a pattern's tile is k times its own; at
+// another k the pattern repeats every tile × k px, which is not a whole
+// number, so its tile is drawn patternSuper times finer still and the
+// painter averages it over each pixel's footprint (see painter.tile).
+func scaleDoc(d *doc, k float64) *doc {
+	out := *d
+	out.w, out.h = int(math.Round(float64(d.w)*k)), int(math.Round(float64(d.h)*k))
+	scalePath := func(p pathData, k float64) pathData {
+		q := pathData{cmds: make([]pathCmd, len(p.cmds)), segs: p.segs}
+		for i, c := range p.cmds {
+			q.cmds[i] = pathCmd{c.op, pt{c.p.x * k, c.p.y * k}}
+		}
+		return q
+	}
+	scaleShape := func(s shape, k float64) shape {
+		s.d = scalePath(s.d, k)
+		s.strokeW *= k
+		if s.dash != nil {
+			dash := make([]float64, len(s.dash))
+			for i, v := range s.dash {
+				dash[i] = v * k
+			}
+			s.dash = dash
+		}
+		if s.circle != nil {
+			s.circle = &circle{s.circle.cx * k, s.circle.cy * k, s.circle.r * k}
+		}
+		return s
+	}
+	out.patterns = make([]pattern, len(d.patterns))
+	for i, p := range d.patterns {
+		q := pattern{id: p.id, tile: int(math.Round(float64(p.tile) * k)), shapes: make([]shape, len(p.shapes))}
+		if k != math.Trunc(k) {
+			q.period = float64(p.tile) * k
+			q.tile = max(1, int(math.Round(q.period*patternSuper)))
+		}
+		kt := float64(q.tile) / float64(p.tile)
+		for j, s := range p.shapes {
+			q.shapes[j] = scaleShape(s, kt)
+		}
+		out.patterns[i] = q
+	}
+	out.items = make([]item, len(d.items))
+	for i, it := range d.items {
+		switch it := it.(type) {
+		case *shape:
+			s := scaleShape(*it, k)
+			out.items[i] = &s
+		case *label:
+			l := *it
+			x, y := it.pos()
+			l.x, l.y, l.size = float64(x)*k, float64(y)*k, it.size*k
+			if len(it.runs) > 0 {
+				l.runs = make([]run, len(it.runs))
+				for j, r := range it.runs {
+					r.dx *= k
+					l.runs[j] = r
+				}
+			}
+			out.items[i] = &l
+		default:
+			out.items[i] = it
+		}
+	}
+	return &out
 }
 
 // painter rasterises a doc; it is used by one goroutine.
@@ -49,6 +166,7 @@ type painter struct {
 	part   []byte        // one group's coverage, for rasterMax
 	tiles  []*image.RGBA // per pattern, made on first use
 	glyphs map[glyphKey]*glyph
+	halo   int // growMask passes for a halo
 }
 
 type glyphKey struct {
@@ -65,13 +183,14 @@ type glyph struct {
 	segs    []oseg
 }
 
-// paintDoc rasterises d onto white.
-func paintDoc(d *doc) (*image.RGBA, error) {
+// paintDoc rasterises d onto white; halo is how many times a halo grows
+// the glyphs' coverage by haloGrow px (the scale of a scaled doc).
+func paintDoc(d *doc, halo int) (*image.RGBA, error) {
 	fs, err := loadFaces()
 	if err != nil {
 		return nil, fmt.Errorf("render: loading the Go fonts: %w", err)
 	}
-	pa := &painter{d: d, fs: fs, tiles: make([]*image.RGBA, len(d.patterns)), glyphs: map[glyphKey]*glyph{}}
+	pa := &painter{d: d, fs: fs, tiles: make([]*image.RGBA, len(d.patterns)), glyphs: map[glyphKey]*glyph{}, halo: halo}
 	img := image.NewRGBA(image.Rect(0, 0, d.w, d.h))
 	draw.Draw(img, img.Bounds(), image.White, image.Point{}, draw.Src)
 	for _, it := range d.items {
@@ -120,7 +239,7 @@ func (pa *painter) fill(dst *image.RGBA, o *outline, p paint, grow bool) {
 	}
 	pad := 1
 	if grow {
-		pad = 3
+		pad = 1 + 2*pa.halo
 	}
 	r := image.Rect(int(math.Floor(o.min.x))-pad, int(math.Floor(o.min.y))-pad,
 		int(math.Ceil(o.max.x))+pad, int(math.Ceil(o.max.y))+pad).Intersect(dst.Bounds())
@@ -142,7 +261,9 @@ func (pa *painter) fill(dst *image.RGBA, o *outline, p paint, grow bool) {
 		}
 	}
 	if grow {
-		mask = growMask(mask)
+		for range pa.halo {
+			mask = growMask(mask)
+		}
 	}
 	pa.composite(dst, r.Min, mask, p)
 }
@@ -295,14 +416,24 @@ func (pa *painter) composite(dst *image.RGBA, at image.Point, m *image.Alpha, p 
 	case paintPattern:
 		tile := pa.tile(p.pattern)
 		t := tile.Rect.Dx()
+		// A pattern that repeats every period px, not a whole number, has
+		// a tile averaged over pixel footprints (painter.tile): pixel v
+		// takes the footprint that starts at its place in the period.
+		period := pa.d.patterns[p.pattern].period
+		wrap := func(v int) int {
+			if period == 0 {
+				return v % t
+			}
+			return min(t-1, int(math.Mod(float64(v), period)*float64(t)/period))
+		}
 		for y := range h {
 			row := dst.PixOffset(at.X, at.Y+y)
-			trow := ((at.Y + y) % t) * tile.Stride
+			trow := wrap(at.Y+y) * tile.Stride
 			for x, mv := range m.Pix[y*m.Stride : y*m.Stride+w] {
 				if mv == 0 {
 					continue
 				}
-				ti := trow + 4*((at.X+x)%t)
+				ti := trow + 4*wrap(at.X+x)
 				src := tile.Pix[ti : ti+4 : ti+4]
 				if src[3] == 0 {
 					continue
@@ -329,7 +460,17 @@ func div255(v uint32) uint32 {
 	return (v + v>>8) >> 8
 }
 
-// tile rasterises pattern i once, clipped to its tile.
+// patternSuper is how much finer than the output a pattern whose period is
+// not a whole number of pixels is drawn: its phase is then kept to a
+// quarter pixel.
+const patternSuper = 4
+
+// tile rasterises pattern i once, clipped to its tile. A pattern with a
+// period (scaleDoc) is drawn patternSuper times finer than the output, and
+// each texel then replaced by the mean of the patternSuper × patternSuper
+// texels from it on, wrapping: one output pixel's footprint, so that
+// compositing reads one texel a pixel, anti-aliased as the SVG's viewer
+// draws the pattern. Averaging premultiplied RGBA is exact for coverage.
 func (pa *painter) tile(i int) *image.RGBA {
 	if pa.tiles[i] == nil {
 		p := pa.d.patterns[i]
@@ -337,9 +478,39 @@ func (pa *painter) tile(i int) *image.RGBA {
 		for k := range p.shapes {
 			pa.shape(img, &p.shapes[k])
 		}
+		if p.period != 0 {
+			img = footprints(img, int(math.Round(float64(p.tile)/p.period)))
+		}
 		pa.tiles[i] = img
 	}
 	return pa.tiles[i]
+}
+
+// footprints is the mean of every n × n block of the wrapping tile img,
+// stored at the block's first texel.
+func footprints(img *image.RGBA, n int) *image.RGBA {
+	t := img.Rect.Dx()
+	n = max(1, n)
+	out := image.NewRGBA(img.Rect)
+	for y := range t {
+		for x := range t {
+			var sum [4]int
+			for dy := range n {
+				row := ((y + dy) % t) * img.Stride
+				for dx := range n {
+					px := img.Pix[row+4*((x+dx)%t):]
+					for c := range 4 {
+						sum[c] += int(px[c])
+					}
+				}
+			}
+			o := out.PixOffset(x, y)
+			for c := range 4 {
+				out.Pix[o+c] = uint8((sum[c] + n*n/2) / (n * n))
+			}
+		}
+	}
+	return out
 }
 
 // glyph returns the outline of rune r at size, loading it on first use.

@@ -20,7 +20,8 @@
 // frequency: the group with id "gl-plot" (and class "gl-plot") carries
 // data-x, data-y, data-w and data-h (px), data-span-tc (time 0 at x, span
 // at x+w) and data-low-hz and data-high-hz (frequency from point A at y+h
-// and at y), and, when the channel has an absolute frequency,
+// and at y), data-time-unit (the time axis's unit, "us" or "ms", for a
+// readout to keep) and, when the channel has an absolute frequency,
 // data-point-a-hz. Partition i of Result.Partitions is drawn inside
 // <g class="gl-part" data-index="i">, and its legend row inside
 // <g class="gl-legend-part" data-index="i">; every other mark has a class
@@ -65,6 +66,7 @@ import (
 	"cmp"
 	"fmt"
 	"io"
+	"math"
 	"slices"
 	"strings"
 
@@ -76,6 +78,8 @@ const (
 	marginLeft    = 92  // frequency tick labels and axis title
 	marginTop     = 48  // alignment-mark heading and carrier rail labels
 	plotHeight    = 460 // frequency axis
+	minPlotHeight = 160 // a preset's least and greatest plot height
+	maxPlotHeight = 2000
 	axisBand      = 58  // time tick labels and axis title below the plot
 	railGap       = 10  // plot to carrier rail
 	railStep      = 20  // one rail column per carrier
@@ -153,7 +157,29 @@ func (b *builder) text(l label) {
 	if l.fill == (rgb{}) {
 		l.fill = b.lk.text
 	}
+	if l.halo && b.lk.labelBack && !l.rotate {
+		b.add(shape{class: "gl-label-back", d: labelBackBox(&l), fill: solid(white)})
+	}
 	b.d.items = append(b.d.items, &l)
+}
+
+// labelBackBox is the box a label's glyphs take, with a pixel and a half
+// around them: the text's measured width placed by its anchor, from the
+// ascent (0.8 of the size above the baseline) to the descent (0.25 below).
+func labelBackBox(l *label) pathData {
+	x, y := l.pos()
+	w := measure(l)
+	x0 := float64(x)
+	switch l.anchor {
+	case anchorMiddle:
+		x0 -= w / 2
+	case anchorEnd:
+		x0 -= w
+	}
+	const pad = 1.5
+	return pathOf(func(p *pathData) {
+		p.rect(x0-pad, float64(y)-0.8*l.size-pad, x0+w+pad, float64(y)+0.25*l.size+pad)
+	})
 }
 
 // pattern returns the paint of the pattern named id, defining it with
@@ -191,9 +217,15 @@ func build(r grid.Result, opt Options) (*doc, error) {
 		return nil, err
 	}
 	lk := opt.Theme.look()
-	b := &builder{d: &doc{w: width, plan: opt.Plan, idPrefix: opt.IDPrefix}, lk: lk, layers: opt.Layers, pats: map[string]int{}, fromA: opt.FromPointA}
+	written := width
+	plotH := plotHeight
+	if p := opt.Preset; p.Name != "" {
+		width, plotH = p.LayoutWidth(), p.PlotHeight
+	}
+	b := &builder{d: &doc{w: width, outW: written, plan: opt.Plan, idPrefix: opt.IDPrefix}, lk: lk, layers: opt.Layers, pats: map[string]int{}, fromA: opt.FromPointA}
 
-	f := plotFrameIn(r, width, win)
+	f := plotFrameIn(r, width, plotH, win)
+	f.timeUnit = opt.TimeUnit
 	details := make([]detail, len(r.Partitions))
 	for i, l := range r.Partitions {
 		details[i] = chooseDetail(l, f)
@@ -265,6 +297,7 @@ func build(r grid.Result, opt Options) (*doc, error) {
 
 	d := b.d
 	d.h = height
+	d.outH = int(math.Round(float64(height) * float64(written) / float64(width)))
 	d.ink = lk.text
 	title := r.Plan.Name
 	if strings.TrimSpace(title) == "" {
@@ -293,13 +326,15 @@ func build(r grid.Result, opt Options) (*doc, error) {
 
 // plotFrame places the plot area of the default figure: the window fitted
 // to the plan.
-func plotFrame(r grid.Result, width int) frame { return plotFrameIn(r, width, FitWindow(r)) }
+func plotFrame(r grid.Result, width int) frame {
+	return plotFrameIn(r, width, plotHeight, FitWindow(r))
+}
 
 // plotFrameIn places the plot area, room for win.Rails carrier rails beside
 // it, and its axes' ranges: the window resolved by Options.window.
-func plotFrameIn(r grid.Result, width int, win Window) frame {
+func plotFrameIn(r grid.Result, width, plotH int, win Window) frame {
 	right := railGap + win.Rails*railStep + notesGap + notesWidth
-	return frame{x: marginLeft, y: marginTop, w: width - marginLeft - right, h: plotHeight,
+	return frame{x: marginLeft, y: marginTop, w: width - marginLeft - right, h: plotH,
 		span: win.Span, low: win.Low, high: win.High, planSpan: planSpan(r), rails: win.Rails}
 }
 
@@ -311,6 +346,7 @@ func drawPlot(b *builder, f frame, r grid.Result, details []detail, tdds []tddDr
 		{"data-w", fmt.Sprint(f.w)}, {"data-h", fmt.Sprint(f.h)},
 		{"data-span-tc", fmt.Sprint(f.span)}, {"data-low-hz", fmt.Sprint(f.low)},
 		{"data-high-hz", fmt.Sprint(f.high)},
+		{"data-time-unit", timeUnitAttr(f)},
 	}
 	if r.Channel.Absolute {
 		data = append(data, attr{"data-point-a-hz", fmt.Sprint(r.Channel.PointAHz)})
@@ -428,11 +464,8 @@ func drawAxes(b *builder, f frame, ch grid.Channel, rasterRoom bool) {
 		b.text(label{x: x, y: y, runs: []run{{text: text}}, size: 10, anchor: a})
 	}
 
-	// Time: µs up to 2 ms, ms beyond; ticks at least 70 px apart.
-	unit, unitTc := "ms", float64(grid.TcPerSubframe)
-	if f.span <= 2*grid.TcPerSubframe {
-		unit, unitTc = "µs", float64(grid.TcPerSubframe)/1000
-	}
+	// Time: one unit for every tick (timeUnit); ticks at least 70 px apart.
+	unit, unitTc := timeUnit(f.timeUnit, f.span)
 	spanU := float64(f.span) / unitTc
 	step := niceStep(70 / (float64(f.w) / spanU))
 	for _, v := range ticks(0, spanU, step) {
@@ -479,6 +512,25 @@ func drawAxes(b *builder, f frame, ch grid.Channel, rasterRoom bool) {
 		b.text(label{x: float64(f.x + 13), y: float64(f.y - 23), runs: []run{{text: "0.5 ms alignment marks (dashed): every numerology starts a symbol together here"}}})
 	}
 	b.end()
+}
+
+// timeUnit resolves the time axis's unit for a span: its name and how many
+// Tc it holds. TimeAuto takes µs up to 2 ms and ms beyond, as TimeUnit's
+// comment says.
+func timeUnit(tu TimeUnit, span grid.Tc) (string, float64) {
+	if tu == TimeUs || tu == TimeAuto && span <= 2*grid.TcPerSubframe {
+		return "µs", float64(grid.TcPerSubframe) / 1000
+	}
+	return "ms", float64(grid.TcPerSubframe)
+}
+
+// timeUnitAttr is the time axis's unit as gl-plot's data-time-unit
+// publishes it for a readout: "us" or "ms".
+func timeUnitAttr(f frame) string {
+	if u, _ := timeUnit(f.timeUnit, f.span); u == "ms" {
+		return "ms"
+	}
+	return "us"
 }
 
 // note is one line of text beside the rail, pointing at a frequency.

@@ -18,6 +18,7 @@ type frame struct {
 	low, high  grid.Hz // relative to point A
 	planSpan   grid.Tc // the plan's span, at most span; the rest is past it
 	rails      int     // carrier rails beside the plot
+	timeUnit   TimeUnit
 }
 
 // pastPlan reports whether the plot runs on past the plan's span.

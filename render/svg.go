@@ -12,7 +12,7 @@ import (
 // the package's constants; text goes through svgo's escaping functions.
 func writeSVG(buf *bytes.Buffer, d *doc) {
 	s := svg.New(buf)
-	s.Start(d.w, d.h, fmt.Sprintf(`viewBox="0 0 %d %d"`, d.w, d.h), `role="img"`,
+	s.Start(d.outW, d.outH, fmt.Sprintf(`viewBox="0 0 %d %d"`, d.w, d.h), `role="img"`,
 		`aria-labelledby="`+d.id("gl-title")+`"`, `aria-describedby="`+d.id("gl-desc")+`"`)
 	textElement(buf, s, "title", d.id("gl-title"), d.title)
 	textElement(buf, s, "desc", d.id("gl-desc"), d.desc)

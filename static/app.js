@@ -684,6 +684,16 @@
   }
 
   const fmtUs = (tc) => (tc / TC_PER_US).toFixed(3);
+
+  // --- Time unit of the readout (issue 19, paper and rooms) ---
+  // fmtT writes a time in the figure's own time-axis unit, which gl-plot
+  // publishes as data-time-unit ("us" or "ms"; render.TimeUnit), so the
+  // readout and every tick of one figure use one unit. Both keep the
+  // nanosecond: 3 decimals of µs, 6 of ms.
+  const fmtT = (f, tc) => (f.plot.getAttribute('data-time-unit') === 'ms'
+    ? (tc / (1000 * TC_PER_US)).toFixed(6) + ' ms'
+    : fmtUs(tc) + ' µs');
+  // --- end time unit ---
   const fmtKHz = (hz) => (hz / 1000).toFixed(1);
   const fmtMHz = (hz) => (hz / 1e6).toFixed(4);
   const DIRS = { D: 'downlink', U: 'uplink', F: 'flexible' };
@@ -696,7 +706,7 @@
     f.plot.classList.toggle('gl-hovering', cell.part >= 0);
     const abs = (hz) => (f.lattice.pointAHz !== null ? ' (' + fmtMHz(f.lattice.pointAHz + hz) + ' MHz)' : '');
     if (cell.part < 0) {
-      out.textContent = 'No partition at ' + fmtKHz(cell.hz) + ' kHz from point A' + abs(cell.hz) + ', ' + fmtUs(cell.t) + ' µs into the span.';
+      out.textContent = 'No partition at ' + fmtKHz(cell.hz) + ' kHz from point A' + abs(cell.hz) + ', ' + fmtT(f, cell.t) + ' into the span.';
       setData(out, {});
       mark(f, null);
       return;
@@ -709,7 +719,7 @@
     const bits = [
       p.name + ' · ' + p.scsHz / 1000 + ' kHz' + (p.extended ? ' extended CP' : ''),
       'slot ' + s.slot + ', symbol ' + s.symbol,
-      'starts ' + fmtUs(s.start) + ' µs, CP ' + fmtUs(s.cp) + ' µs',
+      'starts ' + fmtT(f, s.start) + ', CP ' + fmtT(f, s.cp),
       'CRB ' + cell.crb + ' (PRB ' + (cell.crb - p.startCrb) + ')',
       fmtKHz(cell.hz) + ' kHz from point A' + abs(cell.hz),
     ];
@@ -721,7 +731,7 @@
       const j = c.start.findIndex((s, i) => cell.t >= s && cell.t < c.end[i]);
       if (j >= 0) {
         const same = c.ssb.filter((_, i) => c.start[i] === c.start[j]);
-        bits.push('CORESET#0 occasion for SSB ' + same.join(', ') + ': CRBs ' + c.startCrb + '–' + (c.startCrb + c.nrb - 1) + ' of ' + c.scsKHz + ' kHz, ' + c.symbols + ' symbols from ' + fmtUs(c.start[j]) + ' µs');
+        bits.push('CORESET#0 occasion for SSB ' + same.join(', ') + ': CRBs ' + c.startCrb + '–' + (c.startCrb + c.nrb - 1) + ' of ' + c.scsKHz + ' kHz, ' + c.symbols + ' symbols from ' + fmtT(f, c.start[j]));
       }
     }
     const ro = prachAt(f, cell.t, cell.hz);

@@ -560,7 +560,12 @@ func TestBrowserReadout(t *testing.T) {
 				t.Errorf("%s %s symbol %d: readout %s = %q, want %q (grid SymbolAt)", c.plan, l.Name, k, key, ro[key], w)
 			}
 		}
+		// The readout keeps the time axis's unit (issue 19): µs to the ns
+		// on a span up to 2 ms, ms to the ns beyond.
 		us := fmt.Sprintf("starts %.3f µs, CP %.3f µs", wantSym.Start.Micros(), wantSym.CP.Micros())
+		if eval[string](tb, `document.getElementById('gl-plot').dataset.timeUnit`) == "ms" {
+			us = fmt.Sprintf("starts %.6f ms, CP %.6f ms", wantSym.Start.Micros()/1000, wantSym.CP.Micros()/1000)
+		}
 		if !strings.Contains(ro["text"], us) || !strings.Contains(ro["text"], fmt.Sprintf("slot %d, symbol %d", wantSym.Slot, wantSym.Symbol)) {
 			t.Errorf("%s %s: readout %q, want it to say %q", c.plan, l.Name, ro["text"], us)
 		}
@@ -569,8 +574,23 @@ func TestBrowserReadout(t *testing.T) {
 		}
 	}
 
-	// The keyboard: focus the figure, then step through symbols and partitions.
+	// fig.timeUnit=ms on the 2 ms stadium plan: the axis and the readout
+	// both in ms (issue 19).
 	res := grid.Compute(plans["stadium.yaml"])
+	tb.open(srv.URL + "/?" + planform.FormOf(plans["stadium.yaml"]).Query() + "&fig.timeUnit=ms")
+	tb.do("watching the pointer", chromedp.Evaluate[chromedp.Void](`document.addEventListener('pointermove', e => { window.glPointer = [e.clientX, e.clientY]; }, true);
+		document.getElementById('gl-figure').scrollIntoView({block: 'center'})`))
+	s0 := res.Partitions[0].Numerology.SymbolAt(2)
+	tb.pointAt(s0.Start+s0.Length/2, (res.Partitions[0].Low+res.Partitions[0].High)/2)
+	tb.waitFor("the readout in ms", `document.getElementById('gl-readout').dataset.k === '2'`)
+	text := eval[string](tb, `document.getElementById('gl-readout').textContent`)
+	axis := eval[string](tb, `document.querySelector('#gl-figure .gl-axes').textContent`)
+	if want := fmt.Sprintf("starts %.6f ms", s0.Start.Micros()/1000); !strings.Contains(text, want) || strings.Contains(text, "µs") || !strings.Contains(axis, "time (ms)") {
+		t.Errorf("fig.timeUnit=ms: readout %q (want %q and no µs), axis %q", text, want, axis)
+	}
+
+	// The keyboard: focus the figure, then step through symbols and partitions.
+	tb.open(srv.URL + "/?" + planform.FormOf(plans["stadium.yaml"]).Query())
 	tb.do("focusing the figure", chromedp.Focus(chromedp.ID("gl-figure")))
 	lowest := res.Partitions[0] // gates, at the bottom of the channel
 	tb.waitFor("the readout at the first symbol", fmt.Sprintf(`document.getElementById('gl-readout').dataset.name === %q && document.getElementById('gl-readout').dataset.k === '0'`, lowest.Name))

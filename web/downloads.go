@@ -1,10 +1,13 @@
 package web
 
 import (
+	"errors"
 	"io"
 	"net/http"
+	"strings"
 
 	"gridloom/grid/planfile"
+	"gridloom/render"
 	"gridloom/web/planform"
 )
 
@@ -71,6 +74,9 @@ func (s *server) figurePNG(w http.ResponseWriter, r *http.Request) error {
 		return nil
 	}
 	png, err := drawFigure(s.cfg.PNG, st.Result, st.Fig.Opt)
+	if errors.Is(err, render.ErrPNGTooLarge) {
+		return &problem{status: http.StatusUnprocessableEntity, text: "The PNG cannot be drawn that large (" + strings.TrimPrefix(err.Error(), render.ErrPNGTooLarge.Error()+": ") + ")."}
+	}
 	if err != nil {
 		return internal("figure", err)
 	}

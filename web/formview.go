@@ -624,6 +624,8 @@ type figureView struct {
 	Width   control
 	Theme   control
 	Caption control
+	// Paper and rooms (issue 19): preset, time unit, PNG scale and dpi.
+	Preset, TimeUnit, Scale, DPI control
 	// Layers is one checkbox per layer, or, when the typed list does not
 	// parse, LayersText: a text input holding it as typed, so nothing is
 	// lost and the user can correct it.
@@ -665,7 +667,8 @@ func buildFigureBox(st planform.FigureState, planName string) figureView {
 		Theme:   text(planform.KeyFigTheme, "Theme", ff.Theme, "", "", "4"),
 		Caption: text(planform.KeyFigCaption, "Caption", ff.Caption, "", capHolder, "12"),
 		Hint: "These options shape the figure on the page, the SVG and PNG downloads, the walkthrough and the comparison. " +
-			"An empty caption is the plan's name; a single - draws none.",
+			"An empty caption is the plan's name; a single - draws none. " +
+			"A preset lays the figure out for an A4 column, a slide or a poster so that no text prints below its least size; PNG scale and dpi shape the PNG download.",
 		ShowCaption: true,
 	}
 	fv.Theme.Options = pick([]option{{Value: "light", Label: "light (screen)"}, {Value: "print", Label: "print (black and white)"}},
@@ -680,8 +683,25 @@ func buildFigureBox(st planform.FigureState, planName string) figureView {
 				Label: titles[i], Checked: st.Opt.Layers.Shows(render.Layer(1 << i))})
 		}
 	}
+	paperControls(&fv, ff, text)
 	fv.Open = ff != planform.FigureForm{} || len(st.Msgs) > 0
 	return fv
+}
+
+// paperControls fills the figure box's controls for paper and rooms: the
+// preset and time unit as lists, the PNG's scale and dpi as numbers.
+func paperControls(fv *figureView, ff planform.FigureForm, text func(key, label, value, mode, placeholder, size string) control) {
+	fv.Preset = text(planform.KeyFigPreset, "Preset", ff.Preset, "", "", "4")
+	presets := []option{{Value: "", Label: "none (width as set)"}}
+	for _, p := range render.Presets() {
+		presets = append(presets, option{Value: p.Name, Label: p.Title})
+	}
+	fv.Preset.Options = pick(presets, strings.ToLower(strings.TrimSpace(ff.Preset)), func(string) string { return "not a preset" })
+	fv.TimeUnit = text(planform.KeyFigTimeUnit, "Time unit", ff.TimeUnit, "", "", "4")
+	fv.TimeUnit.Options = pick([]option{{Value: "", Label: "auto (µs to 2 ms)"}, {Value: "us", Label: "µs"}, {Value: "ms", Label: "ms"}},
+		strings.ToLower(strings.TrimSpace(ff.TimeUnit)), func(string) string { return "not a unit" })
+	fv.Scale = text(planform.KeyFigScale, "PNG scale (×)", ff.Scale, "numeric", "1", "2")
+	fv.DPI = text(planform.KeyFigDPI, "PNG dpi", ff.DPI, "numeric", "none", "4")
 }
 
 // summary is the box's closed line: what it holds, or what is set.
@@ -701,11 +721,23 @@ func (fv figureView) summary() string {
 	if fv.ShowCaption && fv.Caption.Value != "" {
 		set = append(set, "own caption")
 	}
+	if v := strings.TrimSpace(fv.Preset.Value); v != "" {
+		set = append(set, v+" preset")
+	}
+	if v := strings.TrimSpace(fv.TimeUnit.Value); v != "" {
+		set = append(set, "time in "+v)
+	}
+	if v := strings.TrimSpace(fv.Scale.Value); v != "" {
+		set = append(set, "PNG ×"+v)
+	}
+	if v := strings.TrimSpace(fv.DPI.Value); v != "" {
+		set = append(set, v+" dpi")
+	}
 	if len(set) == 0 {
 		if fv.ShowCaption {
-			return "width, theme, layers, caption"
+			return "width, theme, layers, caption, paper"
 		}
-		return "width, theme, layers"
+		return "width, theme, layers, paper"
 	}
 	return strings.Join(set, ", ")
 }

@@ -192,8 +192,21 @@ func describeFigure(opt render.Options) string {
 	w := opt.Width
 	if w == 0 {
 		w = render.DefaultWidth
+		if opt.Preset.Name != "" {
+			w = opt.Preset.Width
+		}
 	}
-	return fmt.Sprintf("%d px, %s theme, layers %s", w, opt.Theme, opt.Layers)
+	out := fmt.Sprintf("%d px, %s theme, layers %s", w, opt.Theme, opt.Layers)
+	if opt.Preset.Name != "" {
+		out += fmt.Sprintf(", %s preset (text at least %g pt)", opt.Preset.Name, opt.Preset.MinPt)
+	}
+	if opt.PNGScale > 1 {
+		out += fmt.Sprintf(", PNG ×%d", opt.PNGScale)
+	}
+	if opt.DPI != 0 {
+		out += fmt.Sprintf(", PNG %d dpi", opt.DPI)
+	}
+	return out
 }
 
 // Quantities of a partition as the tables show them.

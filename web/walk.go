@@ -22,7 +22,7 @@ func (s *server) walk(w http.ResponseWriter, r *http.Request) error {
 	v := buildWalk(st, r.URL.Query())
 	var styles []string
 	draw := func(prefix string) string {
-		svg, css, failed := s.inlineFigure(r, st.Result, walkFigureOptions(st, prefix))
+		svg, css, failed := s.inlineFigure(r, st.Result, walkFigureOptions(st, prefix, v.View))
 		if failed != "" {
 			v.FigureErr = failed
 		}

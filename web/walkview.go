@@ -168,9 +168,27 @@ func optKey(k, v string) string {
 
 // walkFigureOptions are the options of the walkthrough's figures: the
 // page's, without the caption (the page names each step), with the ids
-// prefixed so that the print layout's figures do not clash.
-func walkFigureOptions(st planform.State, prefix string) render.Options {
+// prefixed so that the print layout's figures do not clash. The projector
+// draws with projectorPreset unless the link names a preset.
+func walkFigureOptions(st planform.State, prefix, view string) render.Options {
 	opt := st.Fig.Opt
 	opt.Caption, opt.IDPrefix = "", prefix
+	if view == viewProjector && opt.Preset.Name == "" {
+		opt.Preset = projectorPreset()
+	}
 	return opt
+}
+
+// projectorPreset is the projector's own layout: the slide preset's 640
+// px, whose type is about twice what the page's 1200 px layout shows on
+// the same screen (issue 19 found 5 px text at 1024×768), with a plot 200
+// px high, so that plot, axes and legend (some 700 px for a demo plan)
+// fit a screen's height beside the narration.
+func projectorPreset() render.Preset {
+	p, err := render.ParsePreset("slide")
+	if err != nil || p == nil {
+		return render.Preset{}
+	}
+	p.PlotHeight = 200
+	return *p
 }

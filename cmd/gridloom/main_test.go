@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"context"
+	"encoding/binary"
 	"encoding/json"
 	"errors"
 	"flag"
@@ -162,6 +163,12 @@ func TestCheckExitCodes(t *testing.T) {
 		{"unknown theme", "", []string{"render", "-theme", "dark", "x.yaml"}, 2, "light or print"},
 		{"unknown layer", "", []string{"render", "-layers", "grid", "x.yaml"}, 2, "lattice"},
 		{"width out of range", "", []string{"render", "-width", "100", "../../grid/demo/campus.yaml"}, 2, "640"},
+		{"unknown preset", "", []string{"render", "-preset", "letter", "x.yaml"}, 2, "a4, slide, poster"},
+		{"unknown time unit", "", []string{"render", "-timeunit", "s", "x.yaml"}, 2, "auto, us or ms"},
+		{"scale out of range", "", []string{"render", "-format", "png", "-scale", "8", "x.yaml"}, 2, "1 to 4"},
+		{"dpi out of range", "", []string{"render", "-format", "png", "-dpi", "20", "x.yaml"}, 2, "72 to 1200"},
+		// 800 mm at 300 dpi is 9449 px, past 4800; 4800 px hold 152 dpi.
+		{"poster at 300 dpi", "", []string{"render", "-format", "png", "-preset", "poster", "-dpi", "300", "-o", os.DevNull, "../../grid/demo/campus.yaml"}, 2, "152 dpi"},
 		{"ssb table", "", []string{"ssb", "-band", "n78", "../../grid/demo/campus.yaml"}, 0, "8016    3744.480                649632              56    16"},
 		{"ssb unknown band", "", []string{"ssb", "-band", "n80", "../../grid/demo/campus.yaml"}, 2, "no SS raster entries"},
 		{"ssb wrong band spacing", "", []string{"ssb", "-band", "n1", "../../grid/demo/campus.yaml"}, 2, "no 30 kHz SS/PBCH blocks"},
@@ -304,5 +311,23 @@ func TestRenderFigureFormats(t *testing.T) {
 	png, _ := os.ReadFile(pngPath)
 	if !bytes.HasPrefix(png, []byte("\x89PNG\r\n\x1a\n")) {
 		t.Errorf("-format png wrote %d bytes that are not a PNG", len(png))
+	}
+
+	// A preset and a time unit reach the SVG; scale and dpi the PNG.
+	out, errOut, code := runCLI(t, "", "render", "-preset", "a4", "-timeunit", "ms", src)
+	if code != 0 || !strings.Contains(out, `viewBox="0 0 604 `) || !strings.Contains(out, "time (ms)") {
+		t.Errorf("-preset a4 -timeunit ms: exit %d, %s; the SVG lacks the 604 px layout or the ms axis", code, errOut)
+	}
+	if _, errOut, code := runCLI(t, "", "render", "-format", "png", "-preset", "a4", "-dpi", "300", "-scale", "1", "-o", pngPath, src); code != 0 {
+		t.Fatalf("-dpi 300: exit %d: %s", code, errOut)
+	}
+	png, _ = os.ReadFile(pngPath)
+	// pHYs follows IHDR: 8 + 25 bytes in, length 9, 11811 px/m each way
+	// (300 / 0.0254, PNG specification 11.3.5.3), unit 1 (metre).
+	if len(png) < 33+21 || string(png[37:41]) != "pHYs" || binary.BigEndian.Uint32(png[41:]) != 11811 || png[49] != 1 {
+		t.Errorf("-dpi 300 wrote no pHYs of 11811 px/m after IHDR")
+	}
+	if w := binary.BigEndian.Uint32(png[16:]); w != 1890 {
+		t.Errorf("-preset a4 -dpi 300: %d px wide, want 160/25.4×300 = 1890", w)
 	}
 }

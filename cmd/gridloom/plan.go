@@ -227,6 +227,10 @@ func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 	theme := fs.String("theme", "light", "figure `theme`: light, or print (greyscale-safe)")
 	layers := fs.String("layers", "all", "figure `layers` to show, a comma list of "+strings.Join(render.LayerNames(), ", ")+", or all or none")
 	caption := fs.String("caption", "", "a caption `line` under the figure; empty for the plan's name, - for none")
+	preset := fs.String("preset", "", "lay the figure out for `paper`: "+strings.Join(render.PresetNames(), ", ")+" (a least type size at the printed width), or none")
+	timeUnit := fs.String("timeunit", "auto", "the time axis's `unit`: auto (µs up to 2 ms, ms beyond), us or ms")
+	scale := fs.Int("scale", 1, fmt.Sprintf("PNG pixels per figure px, 1 to %d", render.MaxPNGScale))
+	dpi := fs.Int("dpi", 0, fmt.Sprintf("PNG resolution in dots per inch for its pHYs chunk, %d to %d (0 for none); with -preset and no -width it also sets the width", render.MinDPI, render.MaxDPI))
 	pos, err := parseInterspersed(fs, args)
 	if err != nil {
 		return err
@@ -243,6 +247,22 @@ func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 	if opt.Layers, err = render.ParseLayers(*layers); err != nil {
 		return &exitError{code: exitBadInput, msg: "-" + err.Error()}
 	}
+	if pr, err := render.ParsePreset(*preset); err != nil {
+		return &exitError{code: exitBadInput, msg: "-" + err.Error()}
+	} else if pr != nil {
+		opt.Preset = *pr
+	}
+	if opt.TimeUnit, err = render.ParseTimeUnit(*timeUnit); err != nil {
+		return &exitError{code: exitBadInput, msg: "-timeunit: " + err.Error()}
+	}
+	if *scale < 1 || *scale > render.MaxPNGScale {
+		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-scale %d is outside 1 to %d", *scale, render.MaxPNGScale)}
+	}
+	opt.PNGScale = *scale
+	if *dpi != 0 && (*dpi < render.MinDPI || *dpi > render.MaxDPI) {
+		return &exitError{code: exitBadInput, msg: fmt.Sprintf("-dpi %d is outside %d to %d; give 0 for none", *dpi, render.MinDPI, render.MaxDPI)}
+	}
+	opt.DPI = *dpi
 	p, _, err := readPlanArg(ctx, fs, pos, stdin, stderr)
 	if err != nil {
 		return err

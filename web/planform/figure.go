@@ -1,6 +1,7 @@
 package planform
 
 import (
+	"math"
 	"net/url"
 	"slices"
 	"strconv"
@@ -19,10 +20,15 @@ const (
 	KeyFigTheme   = "fig.theme"
 	KeyFigLayers  = "fig.layers"
 	KeyFigCaption = "fig.caption"
+	// The keys for paper and rooms (issue 19).
+	KeyFigPreset   = "fig.preset"
+	KeyFigTimeUnit = "fig.timeUnit"
+	KeyFigScale    = "fig.scale"
+	KeyFigDPI      = "fig.dpi"
 )
 
 // FigKeys lists the figure keys in query order.
-var FigKeys = []string{KeyFigWidth, KeyFigTheme, KeyFigLayers, KeyFigCaption}
+var FigKeys = []string{KeyFigWidth, KeyFigTheme, KeyFigLayers, KeyFigCaption, KeyFigPreset, KeyFigTimeUnit, KeyFigScale, KeyFigDPI}
 
 // noCaption, typed as the caption, draws the figure without one.
 const noCaption = "-"
@@ -35,6 +41,14 @@ const noCaption = "-"
 //	fig.layers   the layers shown, comma-separated (lattice, cp, guards,
 //	             labels, tdd, ssb), or none; empty shows them all
 //	fig.caption  the caption line; empty is the plan's name, "-" none
+//	fig.preset   a4, slide or poster: the layout for a printed width with
+//	             a least type size (render.Preset); empty or none is none
+//	fig.timeUnit the time axis's unit, auto, us or ms; empty is auto
+//	fig.scale    the PNG's pixels per figure px, 1 to render.MaxPNGScale;
+//	             empty is 1
+//	fig.dpi      the PNG's resolution in its pHYs chunk, render.MinDPI to
+//	             render.MaxDPI; with a preset and no width it sets the
+//	             width too; empty is none
 //
 // fig.layers may be repeated: the values are joined, and a value "none"
 // beside layer names is dropped. The form's layer checkboxes use this: a
@@ -42,6 +56,7 @@ const noCaption = "-"
 // unchecking them all is heard rather than read as "all".
 type FigureForm struct {
 	Width, Theme, Layers, Caption string
+	Preset, TimeUnit, Scale, DPI  string
 }
 
 // ParseFigureForm reads the figure keys of a query.
@@ -51,6 +66,11 @@ func ParseFigureForm(v url.Values) FigureForm {
 		Theme:   v.Get(KeyFigTheme),
 		Layers:  layersValue(v[KeyFigLayers]),
 		Caption: v.Get(KeyFigCaption),
+
+		Preset:   v.Get(KeyFigPreset),
+		TimeUnit: v.Get(KeyFigTimeUnit),
+		Scale:    v.Get(KeyFigScale),
+		DPI:      v.Get(KeyFigDPI),
 	}
 }
 
@@ -85,7 +105,7 @@ func layersValue(vals []string) string {
 
 // Query writes the figure keys that have a value, in a fixed order.
 func (ff FigureForm) Query() string {
-	v := []string{ff.Width, ff.Theme, ff.Layers, ff.Caption}
+	v := []string{ff.Width, ff.Theme, ff.Layers, ff.Caption, ff.Preset, ff.TimeUnit, ff.Scale, ff.DPI}
 	var parts []string
 	for i, k := range FigKeys {
 		if v[i] != "" {
@@ -98,7 +118,7 @@ func (ff FigureForm) Query() string {
 // FigureState is a FigureForm with what it means for the renderer.
 type FigureState struct {
 	Form FigureForm
-	Opt  render.Options // width, theme, layers and caption
+	Opt  render.Options // width, theme, layers, caption, preset, time unit, PNG scale and dpi
 	Msgs Messages       // by query key
 }
 
@@ -136,7 +156,51 @@ func NewFigureState(ff FigureForm, planName string) FigureState {
 	default:
 		st.Opt.Caption = ff.Caption
 	}
+	if p, err := render.ParsePreset(ff.Preset); err != nil {
+		st.Msgs.Add(KeyFigPreset, "Preset (fig.preset): %q is not a preset; use %s, or none.", ShortText(ff.Preset), joinAnd(render.PresetNames()))
+	} else if p != nil {
+		st.Opt.Preset = *p
+	}
+	if u, err := render.ParseTimeUnit(ff.TimeUnit); err != nil {
+		st.Msgs.Add(KeyFigTimeUnit, "Time unit (fig.timeUnit): %q is not a unit of the time axis; use auto, us or ms.", ShortText(ff.TimeUnit))
+	} else {
+		st.Opt.TimeUnit = u
+	}
+	if n, ok := st.whole(KeyFigScale, "PNG scale (fig.scale)", ff.Scale, 1, render.MaxPNGScale, "1"); ok {
+		st.Opt.PNGScale = n
+	}
+	if n, ok := st.whole(KeyFigDPI, "PNG resolution (fig.dpi)", ff.DPI, render.MinDPI, render.MaxDPI, "none"); ok {
+		st.Opt.DPI = n
+	}
+	if st.Opt.Preset.Name != "" && st.Opt.Width == 0 && st.Opt.DPI != 0 {
+		// The preset's printed width at the dpi must be a width render draws.
+		if px := int(math.Round(st.Opt.Preset.PrintedMM / 25.4 * float64(st.Opt.DPI))); px > render.MaxWidth || px < render.MinWidth {
+			most := int(float64(render.MaxWidth) / (st.Opt.Preset.PrintedMM / 25.4))
+			st.Msgs.Add(KeyFigDPI, "PNG resolution (fig.dpi): at %d dpi the %s preset's %g mm are %d px, outside %d to %d px; give %d to %d dpi, or a width.",
+				st.Opt.DPI, st.Opt.Preset.Name, st.Opt.Preset.PrintedMM, px, render.MinWidth, render.MaxWidth, max(render.MinDPI, int(math.Ceil(float64(render.MinWidth)/(st.Opt.Preset.PrintedMM/25.4)))), most)
+			st.Opt.DPI = 0
+		}
+	}
 	return st
+}
+
+// whole reads a whole number from lo to hi typed for key, adding a message
+// naming the field when it is not one; empty is not ok and no message.
+func (st *FigureState) whole(key, field, typed string, lo, hi int, empty string) (int, bool) {
+	t := strings.TrimSpace(typed)
+	if t == "" {
+		return 0, false
+	}
+	n, err := strconv.Atoi(t)
+	switch {
+	case err != nil:
+		st.Msgs.Add(key, "%s: %q is not a whole number; give %d to %d, or nothing for %s.", field, ShortText(typed), lo, hi, empty)
+	case n < lo || n > hi:
+		st.Msgs.Add(key, "%s: %d is outside %d to %d; give a number in that range, or nothing for %s.", field, n, lo, hi, empty)
+	default:
+		return n, true
+	}
+	return 0, false
 }
 
 // badLayer is the first item of a layer list that names no layer.
