@@ -1161,7 +1161,7 @@
   }
 
   // ---------------------------------------------------------------------
-  // -- issue 19 (h19w): the readout beside the pointer --
+  // --- The readout beside the pointer (issue 19) ---
   //
   // The readout sat under the figure, 300–450 px below the pointer. While
   // the pointer (or the keyboard's mark) is on the figure it floats beside
@@ -1288,5 +1288,5 @@
       trouble('The server could not open ' + file.name + ' (' + res.status + ').');
     }
   }
-  // -- end issue 19 (h19w) --
+  // --- end of the readout beside the pointer ---
 })();
