@@ -3,8 +3,11 @@ package web
 import (
 	"bytes"
 	"container/list"
+	"crypto/sha256"
+	"encoding/hex"
 	"net/http"
 	"strconv"
+	"strings"
 	"sync"
 )
 
@@ -18,6 +21,7 @@ import (
 // them; the least recently sent go first.
 type responseCache struct {
 	maxEntries, maxBytes int
+	pace                 *pacer // shared by the large answers; nil sends at once
 
 	mu      sync.Mutex
 	size    int                      // bytes held, plain and gzip
@@ -75,7 +79,7 @@ func cached(c *responseCache, next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		key := r.URL.Path + "?" + r.URL.RawQuery // two routes may share a cache
 		if e, ok := c.get(key); ok {
-			e.send(w, r)
+			e.sendPaced(w, r, c.pace)
 			return
 		}
 		if r.Method == http.MethodHead { // no body to keep: the handler skips it
@@ -92,6 +96,8 @@ func cached(c *responseCache, next http.Handler) http.Handler {
 		}
 		rec.header.Del("Content-Length")
 		rec.header.Del("Vary")
+		rec.header.Set("Etag", etagOf(rec.body.Bytes()))
+		rec.header.Set("Cache-Control", "no-cache")
 		e := &cachedResponse{query: key, header: rec.header, body: rec.body.Bytes()}
 		if isCompressible(rec.header.Get("Content-Type")) {
 			var gz bytes.Buffer
@@ -100,14 +106,27 @@ func cached(c *responseCache, next http.Handler) http.Handler {
 			}
 		}
 		c.put(e)
-		e.send(w, r)
+		e.sendPaced(w, r, c.pace)
 	})
 }
 
 // send writes the kept answer, gzip-compressed when it has a gzip form and
 // the client takes it, by the same reading of Accept-Encoding as send.
 func (e *cachedResponse) send(w http.ResponseWriter, r *http.Request) {
+	e.sendPaced(w, r, nil)
+}
+
+// sendPaced is send with the body written through p. A request that
+// names the answer's ETag in If-None-Match (a browser that holds it) gets
+// 304 and no body.
+func (e *cachedResponse) sendPaced(w http.ResponseWriter, r *http.Request, p *pacer) {
 	h := w.Header()
+	if tag := e.header.Get("Etag"); tag != "" && matchesETag(r.Header.Get("If-None-Match"), tag) {
+		h.Set("Etag", tag)
+		h.Set("Cache-Control", e.header.Get("Cache-Control"))
+		w.WriteHeader(http.StatusNotModified)
+		return
+	}
 	for k, v := range e.header {
 		h[k] = v
 	}
@@ -121,7 +140,28 @@ func (e *cachedResponse) send(w http.ResponseWriter, r *http.Request) {
 	}
 	h.Set("Content-Length", strconv.Itoa(len(body)))
 	w.WriteHeader(http.StatusOK)
-	_, _ = w.Write(body)
+	if r.Method != http.MethodHead {
+		_ = p.write(r.Context(), w, body)
+	}
+}
+
+// etagOf is the ETag of a kept answer: the first 8 bytes of its SHA-256.
+// The plain and the gzip form share it, as they are the same figure.
+func etagOf(body []byte) string {
+	sum := sha256.Sum256(body)
+	return `"` + hex.EncodeToString(sum[:8]) + `"`
+}
+
+// matchesETag tells whether an If-None-Match header names tag, by the weak
+// comparison RFC 9110 section 13.1.2 asks for ("*" matches any).
+func matchesETag(header, tag string) bool {
+	for t := range strings.SplitSeq(header, ",") {
+		t = strings.TrimPrefix(strings.TrimSpace(t), "W/")
+		if t == "*" || t == tag {
+			return true
+		}
+	}
+	return false
 }
 
 // recorder holds an answer in memory.

@@ -54,6 +54,10 @@ type Config struct {
 	// HeavyWait is how long a heavy request waits for a slot before a 503;
 	// 0 means one second.
 	HeavyWait time.Duration
+	// PaceRate is the rate, in bytes per second, that the large figures
+	// sent from the cache share (see pacer); 0 means 128 MiB/s and a
+	// negative rate sends them unpaced.
+	PaceRate int
 	// Addr is the address the app listens on; its host name is one the
 	// app answers to (see AllowHosts).
 	Addr string
