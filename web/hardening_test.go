@@ -888,6 +888,56 @@ func TestPNGFiguresAreCached(t *testing.T) {
 	}
 }
 
+// Another site's page cannot have the app draw for it: a cross-site or
+// same-site load that is not a navigation (an <img>, a fetch) is refused
+// before any work, while a link opened from anywhere, the app's own loads
+// and clients that are not browsers are answered. Fetch Metadata (W3C
+// Working Draft), the Sec-Fetch-Site and Sec-Fetch-Mode values.
+func TestCrossSiteLoadsRefused(t *testing.T) {
+	var pngs atomic.Int64
+	cfg := testConfig(t)
+	cfg.PNG = func(w io.Writer, r grid.Result, opt render.Options) error {
+		pngs.Add(1)
+		_, err := w.Write([]byte("\x89PNG\r\n\x1a\nstand-in"))
+		return err
+	}
+	srv, _ := newTestServer(t, cfg)
+	q := campusQuery(t)
+	for _, c := range []struct {
+		site, mode, dest string
+		want             int
+	}{
+		{"cross-site", "no-cors", "image", http.StatusForbidden}, // <img> on another site
+		{"cross-site", "cors", "empty", http.StatusForbidden},    // fetch() from another site
+		{"same-site", "no-cors", "image", http.StatusForbidden},  // another port of the same host name
+		{"cross-site", "navigate", "document", http.StatusOK},    // a shared link followed
+		{"same-origin", "no-cors", "image", http.StatusOK},       // the app's own page
+		{"none", "navigate", "document", http.StatusOK},          // typed in the address bar
+		{"", "", "", http.StatusOK},                              // curl, scripts
+	} {
+		for _, path := range []string{"/figure.png?" + q + "&fig.width=4800", "/symbols.csv?" + q, "/?" + q, "/static/app.css"} {
+			for _, method := range []string{http.MethodGet, http.MethodHead} {
+				req, _ := http.NewRequest(method, srv.URL+path, nil)
+				for k, v := range map[string]string{"Sec-Fetch-Site": c.site, "Sec-Fetch-Mode": c.mode, "Sec-Fetch-Dest": c.dest} {
+					if v != "" {
+						req.Header.Set(k, v)
+					}
+				}
+				r := do(t, req)
+				if r.StatusCode != c.want {
+					t.Errorf("%s %.14s… Sec-Fetch-Site %q, Mode %q: %d, want %d", method, path, c.site, c.mode, r.StatusCode, c.want)
+				}
+				if c.want == http.StatusForbidden && method == http.MethodGet {
+					wantContains(t, c.site+" "+path, r.body, "was asked for by another site's page")
+				}
+			}
+		}
+	}
+	if pngs.Load() != 1 {
+		t.Errorf("the PNG was drawn %d times, want once (the refused loads draw nothing)", pngs.Load())
+	}
+}
+
 // A kept figure carries an ETag; a browser that names it in If-None-Match
 // (as it does when it reloads an image it holds) gets 304 and no body, in
 // either encoding; another tag gets the figure. RFC 9110 sections 8.8.3
