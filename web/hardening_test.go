@@ -19,6 +19,7 @@ import (
 	"net/url"
 	"os"
 	"regexp"
+	"runtime"
 	"strings"
 	"sync"
 	"sync/atomic"
@@ -830,6 +831,18 @@ func TestHeavyWorkIsAdmitted(t *testing.T) {
 	wantStatus(t, get(t, srv, "/symbols.csv?"+q), http.StatusOK)
 	if strings.Contains(logs.String(), "level=ERROR") {
 		t.Errorf("a 503 of admission logged as an error:\n%s", logs)
+	}
+}
+
+// The heavy slots leave one processor to the light routes, and there is
+// always one (measured: DEVELOPERS.md, "Bounded under load").
+func TestHeavySlotsLeaveAProcessor(t *testing.T) {
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(0))
+	for procs, want := range map[int]int{1: 1, 2: 1, 4: 3, 16: 15} {
+		runtime.GOMAXPROCS(procs)
+		if got := defaultHeavySlots(); got != want {
+			t.Errorf("GOMAXPROCS %d: %d heavy slots, want %d", procs, got, want)
+		}
 	}
 }
 

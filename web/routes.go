@@ -4,7 +4,6 @@ import (
 	"cmp"
 	"log/slog"
 	"net/http"
-	"runtime"
 
 	"gridloom/render"
 
@@ -29,7 +28,7 @@ func NewServer(logger *slog.Logger, cfg Config) http.Handler {
 		figures.pace = newPacer(cmp.Or(cfg.PaceRate, defaultPaceRate))
 	}
 	s := &server{logger: logger, cfg: cfg, figures: figures, assets: newAssets(),
-		heavy: newAdmission(cmp.Or(cfg.HeavySlots, runtime.GOMAXPROCS(0)), cmp.Or(cfg.HeavyWait, defaultHeavyWait))}
+		heavy: newAdmission(cmp.Or(cfg.HeavySlots, defaultHeavySlots()), cmp.Or(cfg.HeavyWait, defaultHeavyWait))}
 	r := chi.NewRouter()
 	s.routes(r)
 	return r

@@ -49,7 +49,7 @@ type Config struct {
 	SymbolCSV func(w io.Writer, r grid.Result) error
 	// HeavySlots is how many heavy answers (PNG figures, symbol tables,
 	// the API, comparisons, printed walkthroughs) are worked on at once;
-	// 0 means runtime.GOMAXPROCS(0). See admission.
+	// 0 means runtime.GOMAXPROCS(0) − 1, at least 1. See admission.
 	HeavySlots int
 	// HeavyWait is how long a heavy request waits for a slot before a 503;
 	// 0 means one second.
