@@ -27,6 +27,40 @@ type responseCache struct {
 	size    int                      // bytes held, plain and gzip
 	order   *list.List               // of *cachedResponse, most recent first
 	entries map[string]*list.Element // by query
+	flights map[string]*flight       // answers being made, by query
+}
+
+// flight is an answer being made for a query that others asked for too:
+// they wait for it rather than each drawing the same figure (64 clients
+// asking at once for the 4800 px PNG of the largest plan drew it over and
+// over, one a slot, until the first was kept, and the rest got 503).
+type flight struct {
+	done    chan struct{}   // closed when the answer is made
+	e       *cachedResponse // the answer, nil when it was not a 200
+	waiters int             // requests that joined it, under the cache's mu
+}
+
+// join returns the flight of key and whether the caller leads it (makes
+// the answer and lands the flight).
+func (c *responseCache) join(key string) (*flight, bool) {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if f, ok := c.flights[key]; ok {
+		f.waiters++
+		return f, false
+	}
+	f := &flight{done: make(chan struct{})}
+	c.flights[key] = f
+	return f, true
+}
+
+// land ends the flight of key with its answer e (nil if none to share).
+func (c *responseCache) land(key string, f *flight, e *cachedResponse) {
+	c.mu.Lock()
+	delete(c.flights, key)
+	c.mu.Unlock()
+	f.e = e
+	close(f.done)
 }
 
 type cachedResponse struct {
@@ -39,7 +73,7 @@ type cachedResponse struct {
 func (c *cachedResponse) size() int { return len(c.query) + len(c.body) + len(c.gz) }
 
 func newResponseCache(maxEntries, maxBytes int) *responseCache {
-	return &responseCache{maxEntries: maxEntries, maxBytes: maxBytes, order: list.New(), entries: map[string]*list.Element{}}
+	return &responseCache{maxEntries: maxEntries, maxBytes: maxBytes, order: list.New(), entries: map[string]*list.Element{}, flights: map[string]*flight{}}
 }
 
 func (c *responseCache) get(query string) (*cachedResponse, bool) {
@@ -74,7 +108,9 @@ func (c *responseCache) put(r *cachedResponse) {
 
 // cached answers from c when it can and otherwise lets next answer,
 // keeping a 200 answer for the next request of the same query. next is
-// asked for the plain answer; the cache compresses it once.
+// asked for the plain answer; the cache compresses it once. Requests for
+// a query whose answer is being made wait for it; when it is not a 200
+// (a refusal, a 503, a client that left) each asks next for its own.
 func cached(c *responseCache, next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		key := r.URL.Path + "?" + r.URL.RawQuery // two routes may share a cache
@@ -85,6 +121,26 @@ func cached(c *responseCache, next http.Handler) http.Handler {
 		if r.Method == http.MethodHead { // no body to keep: the handler skips it
 			next.ServeHTTP(w, r)
 			return
+		}
+		f, lead := c.join(key)
+		if !lead {
+			select {
+			case <-f.done:
+				if f.e != nil {
+					f.e.sendPaced(w, r, c.pace)
+					return
+				}
+			case <-r.Context().Done():
+				return // gone while waiting: nothing to send, nothing made
+			}
+			f = nil
+		}
+		if f != nil {
+			defer func() { // unless landed below: no 200, or next panicked
+				if f != nil {
+					c.land(key, f, nil)
+				}
+			}()
 		}
 		plain := r.Clone(r.Context())
 		plain.Header.Del("Accept-Encoding")
@@ -106,6 +162,10 @@ func cached(c *responseCache, next http.Handler) http.Handler {
 			}
 		}
 		c.put(e)
+		if f != nil {
+			c.land(key, f, e)
+			f = nil
+		}
 		e.sendPaced(w, r, c.pace)
 	})
 }
