@@ -3,8 +3,11 @@ package web
 import (
 	"bytes"
 	"container/list"
+	"crypto/sha256"
+	"encoding/hex"
 	"net/http"
 	"strconv"
+	"strings"
 	"sync"
 )
 
@@ -18,11 +21,46 @@ import (
 // them; the least recently sent go first.
 type responseCache struct {
 	maxEntries, maxBytes int
+	pace                 *pacer // shared by the large answers; nil sends at once
 
 	mu      sync.Mutex
 	size    int                      // bytes held, plain and gzip
 	order   *list.List               // of *cachedResponse, most recent first
 	entries map[string]*list.Element // by query
+	flights map[string]*flight       // answers being made, by query
+}
+
+// flight is an answer being made for a query that others asked for too:
+// they wait for it rather than each drawing the same figure (64 clients
+// asking at once for the 4800 px PNG of the largest plan drew it over and
+// over, one a slot, until the first was kept, and the rest got 503).
+type flight struct {
+	done    chan struct{}   // closed when the answer is made
+	e       *cachedResponse // the answer, nil when it was not a 200
+	waiters int             // requests that joined it, under the cache's mu
+}
+
+// join returns the flight of key and whether the caller leads it (makes
+// the answer and lands the flight).
+func (c *responseCache) join(key string) (*flight, bool) {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if f, ok := c.flights[key]; ok {
+		f.waiters++
+		return f, false
+	}
+	f := &flight{done: make(chan struct{})}
+	c.flights[key] = f
+	return f, true
+}
+
+// land ends the flight of key with its answer e (nil if none to share).
+func (c *responseCache) land(key string, f *flight, e *cachedResponse) {
+	c.mu.Lock()
+	delete(c.flights, key)
+	c.mu.Unlock()
+	f.e = e
+	close(f.done)
 }
 
 type cachedResponse struct {
@@ -35,7 +73,7 @@ type cachedResponse struct {
 func (c *cachedResponse) size() int { return len(c.query) + len(c.body) + len(c.gz) }
 
 func newResponseCache(maxEntries, maxBytes int) *responseCache {
-	return &responseCache{maxEntries: maxEntries, maxBytes: maxBytes, order: list.New(), entries: map[string]*list.Element{}}
+	return &responseCache{maxEntries: maxEntries, maxBytes: maxBytes, order: list.New(), entries: map[string]*list.Element{}, flights: map[string]*flight{}}
 }
 
 func (c *responseCache) get(query string) (*cachedResponse, bool) {
@@ -70,17 +108,39 @@ func (c *responseCache) put(r *cachedResponse) {
 
 // cached answers from c when it can and otherwise lets next answer,
 // keeping a 200 answer for the next request of the same query. next is
-// asked for the plain answer; the cache compresses it once.
+// asked for the plain answer; the cache compresses it once. Requests for
+// a query whose answer is being made wait for it; when it is not a 200
+// (a refusal, a 503, a client that left) each asks next for its own.
 func cached(c *responseCache, next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		key := r.URL.Path + "?" + r.URL.RawQuery // two routes may share a cache
 		if e, ok := c.get(key); ok {
-			e.send(w, r)
+			e.sendPaced(w, r, c.pace)
 			return
 		}
 		if r.Method == http.MethodHead { // no body to keep: the handler skips it
 			next.ServeHTTP(w, r)
 			return
+		}
+		f, lead := c.join(key)
+		if !lead {
+			select {
+			case <-f.done:
+				if f.e != nil {
+					f.e.sendPaced(w, r, c.pace)
+					return
+				}
+			case <-r.Context().Done():
+				return // gone while waiting: nothing to send, nothing made
+			}
+			f = nil
+		}
+		if f != nil {
+			defer func() { // unless landed below: no 200, or next panicked
+				if f != nil {
+					c.land(key, f, nil)
+				}
+			}()
 		}
 		plain := r.Clone(r.Context())
 		plain.Header.Del("Accept-Encoding")
@@ -92,6 +152,8 @@ func cached(c *responseCache, next http.Handler) http.Handler {
 		}
 		rec.header.Del("Content-Length")
 		rec.header.Del("Vary")
+		rec.header.Set("Etag", etagOf(rec.body.Bytes()))
+		rec.header.Set("Cache-Control", "no-cache")
 		e := &cachedResponse{query: key, header: rec.header, body: rec.body.Bytes()}
 		if isCompressible(rec.header.Get("Content-Type")) {
 			var gz bytes.Buffer
@@ -100,14 +162,31 @@ func cached(c *responseCache, next http.Handler) http.Handler {
 			}
 		}
 		c.put(e)
-		e.send(w, r)
+		if f != nil {
+			c.land(key, f, e)
+			f = nil
+		}
+		e.sendPaced(w, r, c.pace)
 	})
 }
 
 // send writes the kept answer, gzip-compressed when it has a gzip form and
 // the client takes it, by the same reading of Accept-Encoding as send.
 func (e *cachedResponse) send(w http.ResponseWriter, r *http.Request) {
+	e.sendPaced(w, r, nil)
+}
+
+// sendPaced is send with the body written through p. A request that
+// names the answer's ETag in If-None-Match (a browser that holds it) gets
+// 304 and no body.
+func (e *cachedResponse) sendPaced(w http.ResponseWriter, r *http.Request, p *pacer) {
 	h := w.Header()
+	if tag := e.header.Get("Etag"); tag != "" && matchesETag(r.Header.Get("If-None-Match"), tag) {
+		h.Set("Etag", tag)
+		h.Set("Cache-Control", e.header.Get("Cache-Control"))
+		w.WriteHeader(http.StatusNotModified)
+		return
+	}
 	for k, v := range e.header {
 		h[k] = v
 	}
@@ -121,7 +200,28 @@ func (e *cachedResponse) send(w http.ResponseWriter, r *http.Request) {
 	}
 	h.Set("Content-Length", strconv.Itoa(len(body)))
 	w.WriteHeader(http.StatusOK)
-	_, _ = w.Write(body)
+	if r.Method != http.MethodHead {
+		_ = p.write(r.Context(), w, body)
+	}
+}
+
+// etagOf is the ETag of a kept answer: the first 8 bytes of its SHA-256.
+// The plain and the gzip form share it, as they are the same figure.
+func etagOf(body []byte) string {
+	sum := sha256.Sum256(body)
+	return `"` + hex.EncodeToString(sum[:8]) + `"`
+}
+
+// matchesETag tells whether an If-None-Match header names tag, by the weak
+// comparison RFC 9110 section 13.1.2 asks for ("*" matches any).
+func matchesETag(header, tag string) bool {
+	for t := range strings.SplitSeq(header, ",") {
+		t = strings.TrimPrefix(strings.TrimSpace(t), "W/")
+		if t == "*" || t == tag {
+			return true
+		}
+	}
+	return false
 }
 
 // recorder holds an answer in memory.

@@ -7,7 +7,11 @@ import (
 	"io"
 	"net/http"
 	"net/http/httptest"
+	"runtime"
+	"sync"
+	"sync/atomic"
 	"testing"
+	"time"
 )
 
 // A figure asked for again is the same answer, from the cache, in either
@@ -91,6 +95,75 @@ func TestFigureCache(t *testing.T) {
 		r.Header.Set("Accept-Encoding", ae.header)
 		if got := acceptsGzip(r); got != ae.want {
 			t.Errorf("acceptsGzip(%q) = %v, want %v", ae.header, got, ae.want)
+		}
+	}
+}
+
+// Requests for a figure being drawn wait for it instead of drawing it
+// again, and get the same answer; when the first answer is not a 200,
+// each of them is answered on its own.
+func TestFigureCacheDrawsOnce(t *testing.T) {
+	var draws atomic.Int32
+	release := make(chan struct{})
+	status := http.StatusOK
+	next := http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		code := http.StatusOK // what the waiters get when they ask on their own
+		if draws.Add(1) == 1 {
+			code = status
+			<-release
+		}
+		w.Header().Set("Content-Type", "image/png")
+		w.WriteHeader(code)
+		_, _ = io.WriteString(w, "png of "+r.URL.RawQuery)
+	})
+	for _, first := range []int{http.StatusOK, http.StatusServiceUnavailable} {
+		draws.Store(0)
+		release = make(chan struct{})
+		status = first
+		c := newResponseCache(4, 1<<20)
+		h := cached(c, next)
+		const n = 6
+		codes := make(chan int, n)
+		var wg sync.WaitGroup
+		for range n {
+			wg.Go(func() {
+				w := httptest.NewRecorder()
+				h.ServeHTTP(w, httptest.NewRequest(http.MethodGet, "/figure.png?a=1", nil))
+				if w.Code == http.StatusOK && w.Body.String() != "png of a=1" {
+					t.Errorf("a waiter got %q", w.Body.String())
+				}
+				codes <- w.Code
+			})
+		}
+		for give := time.Now().Add(10 * time.Second); ; { // until one draws and the others wait for it
+			c.mu.Lock()
+			f := c.flights["/figure.png?a=1"]
+			joined := f != nil && f.waiters == n-1
+			c.mu.Unlock()
+			if joined {
+				break
+			}
+			if time.Now().After(give) {
+				close(release)
+				t.Fatalf("first answer %d: after 10 s, %d draws and not %d requests waiting for the one drawing", first, draws.Load(), n-1)
+			}
+			runtime.Gosched()
+		}
+		close(release)
+		wg.Wait()
+		close(codes)
+		ok := 0
+		for code := range codes {
+			if code == http.StatusOK {
+				ok++
+			}
+		}
+		wantDraws, wantOK := int32(1), n
+		if first != http.StatusOK {
+			wantDraws, wantOK = n, n-1 // the first keeps its 503; each waiter draws its own
+		}
+		if draws.Load() != wantDraws || ok != wantOK {
+			t.Errorf("first answer %d: %d draws and %d answers of 200 for %d requests, want %d and %d", first, draws.Load(), ok, n, wantDraws, wantOK)
 		}
 	}
 }

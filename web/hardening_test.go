@@ -19,6 +19,7 @@ import (
 	"net/url"
 	"os"
 	"regexp"
+	"runtime"
 	"strings"
 	"sync"
 	"sync/atomic"
@@ -833,6 +834,18 @@ func TestHeavyWorkIsAdmitted(t *testing.T) {
 	}
 }
 
+// The heavy slots leave one processor to the light routes, and there is
+// always one (measured: DEVELOPERS.md, "Bounded under load").
+func TestHeavySlotsLeaveAProcessor(t *testing.T) {
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(0))
+	for procs, want := range map[int]int{1: 1, 2: 1, 4: 3, 16: 15} {
+		runtime.GOMAXPROCS(procs)
+		if got := defaultHeavySlots(); got != want {
+			t.Errorf("GOMAXPROCS %d: %d heavy slots, want %d", procs, got, want)
+		}
+	}
+}
+
 // HEAD answers with the headers and builds no body: the figure is not
 // drawn nor the symbol table written.
 func TestHeadBuildsNoBody(t *testing.T) {
@@ -885,6 +898,157 @@ func TestPNGFiguresAreCached(t *testing.T) {
 	svg := get(t, srv, "/figure.svg?"+q)
 	if svg.Header.Get("Content-Type") != "image/svg+xml" || !strings.Contains(svg.body, "<svg") {
 		t.Errorf("the SVG of a query whose PNG is cached: %q, %.40q", svg.Header.Get("Content-Type"), svg.body)
+	}
+}
+
+// Another site's page cannot have the app draw for it: a cross-site or
+// same-site load that is not a navigation (an <img>, a fetch) is refused
+// before any work, while a link opened from anywhere, the app's own loads
+// and clients that are not browsers are answered. Fetch Metadata (W3C
+// Working Draft), the Sec-Fetch-Site and Sec-Fetch-Mode values.
+func TestCrossSiteLoadsRefused(t *testing.T) {
+	var pngs atomic.Int64
+	cfg := testConfig(t)
+	cfg.PNG = func(w io.Writer, r grid.Result, opt render.Options) error {
+		pngs.Add(1)
+		_, err := w.Write([]byte("\x89PNG\r\n\x1a\nstand-in"))
+		return err
+	}
+	srv, _ := newTestServer(t, cfg)
+	q := campusQuery(t)
+	for _, c := range []struct {
+		site, mode, dest string
+		want             int
+	}{
+		{"cross-site", "no-cors", "image", http.StatusForbidden}, // <img> on another site
+		{"cross-site", "cors", "empty", http.StatusForbidden},    // fetch() from another site
+		{"same-site", "no-cors", "image", http.StatusForbidden},  // another port of the same host name
+		{"cross-site", "navigate", "document", http.StatusOK},    // a shared link followed
+		{"same-origin", "no-cors", "image", http.StatusOK},       // the app's own page
+		{"none", "navigate", "document", http.StatusOK},          // typed in the address bar
+		{"", "", "", http.StatusOK},                              // curl, scripts
+	} {
+		for _, path := range []string{"/figure.png?" + q + "&fig.width=4800", "/symbols.csv?" + q, "/?" + q, "/static/app.css"} {
+			for _, method := range []string{http.MethodGet, http.MethodHead} {
+				req, _ := http.NewRequest(method, srv.URL+path, nil)
+				for k, v := range map[string]string{"Sec-Fetch-Site": c.site, "Sec-Fetch-Mode": c.mode, "Sec-Fetch-Dest": c.dest} {
+					if v != "" {
+						req.Header.Set(k, v)
+					}
+				}
+				r := do(t, req)
+				if r.StatusCode != c.want {
+					t.Errorf("%s %.14s… Sec-Fetch-Site %q, Mode %q: %d, want %d", method, path, c.site, c.mode, r.StatusCode, c.want)
+				}
+				if c.want == http.StatusForbidden && method == http.MethodGet {
+					wantContains(t, c.site+" "+path, r.body, "was asked for by another site's page")
+				}
+			}
+		}
+	}
+	if pngs.Load() != 1 {
+		t.Errorf("the PNG was drawn %d times, want once (the refused loads draw nothing)", pngs.Load())
+	}
+}
+
+// A kept figure carries an ETag; a browser that names it in If-None-Match
+// (as it does when it reloads an image it holds) gets 304 and no body, in
+// either encoding; another tag gets the figure. RFC 9110 sections 8.8.3
+// and 13.1.2 (weak comparison, "*").
+func TestFiguresRevalidate(t *testing.T) {
+	var pngs atomic.Int64
+	cfg := testConfig(t)
+	cfg.PNG = func(w io.Writer, r grid.Result, opt render.Options) error {
+		pngs.Add(1)
+		_, err := w.Write([]byte("\x89PNG\r\n\x1a\nstand-in"))
+		return err
+	}
+	srv, _ := newTestServer(t, cfg)
+	q := campusQuery(t)
+	for _, path := range []string{"/figure.png?" + q, "/figure.svg?" + q} {
+		first := get(t, srv, path)
+		wantStatus(t, first, http.StatusOK)
+		tag := first.Header.Get("Etag")
+		if !regexp.MustCompile(`^"[0-9a-f]{16}"$`).MatchString(tag) || first.Header.Get("Cache-Control") != "no-cache" {
+			t.Fatalf("%.12s…: Etag %q, Cache-Control %q; want a quoted hash and no-cache", path, tag, first.Header.Get("Cache-Control"))
+		}
+		for _, c := range []struct {
+			match, encoding string
+			want            int
+		}{
+			{tag, "", http.StatusNotModified},
+			{tag, "gzip", http.StatusNotModified},
+			{`"other", W/` + tag, "gzip", http.StatusNotModified},
+			{"*", "", http.StatusNotModified},
+			{`"0123456789abcdef"`, "", http.StatusOK},
+			{strings.Trim(tag, `"`), "", http.StatusOK}, // unquoted: not the tag
+		} {
+			req, _ := http.NewRequest(http.MethodGet, srv.URL+path, nil)
+			req.Header.Set("If-None-Match", c.match)
+			req.Header.Set("Accept-Encoding", c.encoding)
+			r := do(t, req)
+			if r.StatusCode != c.want {
+				t.Errorf("%.12s… If-None-Match %s, Accept-Encoding %q: status %d, want %d", path, c.match, c.encoding, r.StatusCode, c.want)
+			}
+			if c.want == http.StatusNotModified && (r.body != "" || r.Header.Get("Etag") != tag) {
+				t.Errorf("%.12s… 304: body %d bytes, Etag %q; want none and %s", path, len(r.body), r.Header.Get("Etag"), tag)
+			}
+		}
+	}
+	if pngs.Load() != 1 {
+		t.Errorf("the PNG was drawn %d times, want once: a revalidation is answered from the cache", pngs.Load())
+	}
+}
+
+// The pacer books bytes on one shared line: an idle line lets paceBurst
+// bytes leave at once, then each writer waits its bytes' time at the rate,
+// in the order they asked, and idle time earns no more than the burst.
+func TestPacerSharesTheRate(t *testing.T) {
+	clock := time.Unix(1e9, 0)
+	p := newPacer(1 << 20) // 1 MiB/s: paceBurst (1 MiB) is one second
+	p.now = func() time.Time { return clock }
+	for i, c := range []struct {
+		advance time.Duration
+		n       int
+		want    time.Duration
+	}{
+		{0, paceBurst, 0},                                  // the burst leaves at once
+		{0, 1 << 20, time.Second},                          // then 1 MiB waits 1 s
+		{0, 512 << 10, 1500 * time.Millisecond},            // and the next writer behind it
+		{time.Second, 64 << 10, 562500 * time.Microsecond}, // 1.5625 s booked, 1 s gone
+		{time.Minute, paceBurst, 0},                        // idle: the burst again,
+		{0, 64 << 10, 62500 * time.Microsecond},            // but no more (64 KiB at 1 MiB/s)
+	} {
+		clock = clock.Add(c.advance)
+		if got := p.reserve(c.n); got != c.want {
+			t.Errorf("step %d: %d bytes after %s wait %s, want %s", i, c.n, c.advance, got, c.want)
+		}
+	}
+}
+
+// A large kept answer is written whole through the pacer, and stops at
+// its next chunk once the client has gone; a small one is never held.
+func TestPacedWrite(t *testing.T) {
+	body := bytes.Repeat([]byte("0123456789abcdef"), 3<<20/16) // 3 MiB
+	var out bytes.Buffer
+	if err := newPacer(1<<40).write(context.Background(), &out, body); err != nil || !bytes.Equal(out.Bytes(), body) {
+		t.Errorf("paced write: %v, %d bytes of %d, equal %v", err, out.Len(), len(body), bytes.Equal(out.Bytes(), body))
+	}
+	gone, cancel := context.WithCancel(context.Background())
+	cancel()
+	clock := time.Unix(1e9, 0)
+	p := newPacer(1 << 20)
+	p.now = func() time.Time { return clock } // frozen: only the burst may leave
+	out.Reset()
+	err := p.write(gone, &out, body)
+	// The burst is 16 chunks of 64 KiB; the 17th must wait 62.5 ms.
+	if !errors.Is(err, context.Canceled) || out.Len() != paceBurst {
+		t.Errorf("client gone: %v after %d bytes, want context.Canceled after %d", err, out.Len(), paceBurst)
+	}
+	out.Reset()
+	small := body[:paceOver]
+	if err := p.write(gone, &out, small); err != nil || out.Len() != len(small) {
+		t.Errorf("an answer of paceOver bytes: %v after %d bytes; want it sent whole at once", err, out.Len())
 	}
 }
 

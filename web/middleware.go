@@ -187,7 +187,15 @@ func truncate(s string, n int) string {
 // when a browser says it comes from another site, by Sec-Fetch-Site or,
 // in older browsers, Origin: without it any web page could post a plan
 // to the app (a form or a text/plain fetch needs no permission). Requests
-// without those headers (curl, scripts) pass; so do GET and HEAD.
+// without those headers (curl, scripts) pass.
+//
+// A GET or HEAD passes too when it opens a page (a link followed from
+// anywhere is how plans are shared), but not when another site's page
+// loads it as a part of itself, an <img> of the widest PNG say: the
+// answer's Cross-Origin-Resource-Policy would keep that page from using
+// it, yet the server would have drawn it. Fetch Metadata (W3C): such a
+// load says Sec-Fetch-Site cross-site or same-site and a Sec-Fetch-Mode
+// other than navigate.
 func (s *server) sameOrigin(style errorStyle) func(http.Handler) http.Handler {
 	check := http.NewCrossOriginProtection()
 	return func(next http.Handler) http.Handler {
@@ -195,6 +203,11 @@ func (s *server) sameOrigin(style errorStyle) func(http.Handler) http.Handler {
 			if err := check.Check(r); err != nil {
 				s.answer(w, r, style, &problem{status: http.StatusForbidden,
 					text: fmt.Sprintf("%s %s came from another site's page; gridloom takes plans only from its own pages and from programs that are not browsers.", r.Method, r.URL.Path)})
+				return
+			}
+			if site := r.Header.Get("Sec-Fetch-Site"); (site == "cross-site" || site == "same-site") && r.Header.Get("Sec-Fetch-Mode") != "navigate" {
+				s.answer(w, r, style, &problem{status: http.StatusForbidden,
+					text: fmt.Sprintf("%s %s was asked for by another site's page; gridloom answers its own pages, links opened from anywhere and programs that are not browsers.", r.Method, r.URL.Path)})
 				return
 			}
 			next.ServeHTTP(w, r)

@@ -4,7 +4,6 @@ import (
 	"cmp"
 	"log/slog"
 	"net/http"
-	"runtime"
 
 	"gridloom/render"
 
@@ -24,8 +23,12 @@ func NewServer(logger *slog.Logger, cfg Config) http.Handler {
 	if cfg.SymbolCSV == nil {
 		cfg.SymbolCSV = render.SymbolCSV
 	}
-	s := &server{logger: logger, cfg: cfg, figures: newResponseCache(maxCachedFigures, maxCachedBytes), assets: newAssets(),
-		heavy: newAdmission(cmp.Or(cfg.HeavySlots, runtime.GOMAXPROCS(0)), cmp.Or(cfg.HeavyWait, defaultHeavyWait))}
+	figures := newResponseCache(maxCachedFigures, maxCachedBytes)
+	if cfg.PaceRate >= 0 {
+		figures.pace = newPacer(cmp.Or(cfg.PaceRate, defaultPaceRate))
+	}
+	s := &server{logger: logger, cfg: cfg, figures: figures, assets: newAssets(),
+		heavy: newAdmission(cmp.Or(cfg.HeavySlots, defaultHeavySlots()), cmp.Or(cfg.HeavyWait, defaultHeavyWait))}
 	r := chi.NewRouter()
 	s.routes(r)
 	return r

@@ -49,11 +49,15 @@ type Config struct {
 	SymbolCSV func(w io.Writer, r grid.Result) error
 	// HeavySlots is how many heavy answers (PNG figures, symbol tables,
 	// the API, comparisons, printed walkthroughs) are worked on at once;
-	// 0 means runtime.GOMAXPROCS(0). See admission.
+	// 0 means runtime.GOMAXPROCS(0) − 1, at least 1. See admission.
 	HeavySlots int
 	// HeavyWait is how long a heavy request waits for a slot before a 503;
 	// 0 means one second.
 	HeavyWait time.Duration
+	// PaceRate is the rate, in bytes per second, that the large figures
+	// sent from the cache share (see pacer); 0 means 128 MiB/s and a
+	// negative rate sends them unpaced.
+	PaceRate int
 	// Addr is the address the app listens on; its host name is one the
 	// app answers to (see AllowHosts).
 	Addr string
