@@ -91,12 +91,14 @@ type Occasion struct {
 
 // MIB holds the MIB fields a plan implies, by their TS 38.331 names.
 // kSsbMsb is the PBCH payload bit that carries k_SSB's fifth bit in FR1.
+// SubCarrierSpacingCommon is null where the field gives no spacing
+// (grid.CommonIsSpacing): in FR2-2 and on a shared spectrum FR1 band.
 type MIB struct {
-	SubCarrierSpacingCommon string `json:"subCarrierSpacingCommon"`
-	SSBSubcarrierOffset     int    `json:"ssbSubcarrierOffset"`
-	KSSBMsb                 int    `json:"kSsbMsb"`
-	DMRSTypeAPosition       string `json:"dmrsTypeAPosition"`
-	PDCCHConfigSIB1         int    `json:"pdcchConfigSIB1"`
+	SubCarrierSpacingCommon *string `json:"subCarrierSpacingCommon"`
+	SSBSubcarrierOffset     int     `json:"ssbSubcarrierOffset"`
+	KSSBMsb                 int     `json:"kSsbMsb"`
+	DMRSTypeAPosition       string  `json:"dmrsTypeAPosition"`
+	PDCCHConfigSIB1         int     `json:"pdcchConfigSIB1"`
 }
 
 // InitialBWP is an initial BWP of a Document; source says where it came
@@ -472,9 +474,12 @@ func initialAccess(ia *grid.InitialAccess, ch grid.Channel) *InitialAccess {
 			OffsetRB: c.OffsetRB, SCSKHz: c.SCSKHz, StartCRB: c.StartCRB, LowKHz: c.Low.KHz(), HighKHz: c.High.KHz()},
 		SearchSpace0: SearchSpace0{Index: ia.SearchSpaceZero, Table: ia.OccasionTable, WindowMs: ia.WindowMs,
 			Occasions: make([]Occasion, len(ia.Occasions))},
-		MIB: MIB{SubCarrierSpacingCommon: ia.MIB.SubCarrierSpacingCommon, SSBSubcarrierOffset: ia.MIB.SSBSubcarrierOffset,
+		MIB: MIB{SSBSubcarrierOffset: ia.MIB.SSBSubcarrierOffset,
 			KSSBMsb: ia.MIB.KSSBMsb, DMRSTypeAPosition: ia.MIB.DMRSTypeAPosition, PDCCHConfigSIB1: ia.MIB.PDCCHConfigSIB1},
 		InitialDownlinkBWP: initialBWP(ia.InitialDL),
+	}
+	if scc := ia.MIB.SubCarrierSpacingCommon; scc != "" {
+		out.MIB.SubCarrierSpacingCommon = ptr(scc)
 	}
 	if ch.Absolute {
 		out.CORESET0.LowMHz = ptr(ch.Abs(c.Low).MHz())

@@ -280,3 +280,34 @@ func TestOverlaps(t *testing.T) {
 		t.Errorf("a plan without overlaps: want \"overlaps\":[] in %s", excerpt(b, bytes.Index(b, []byte(`"overlaps"`))))
 	}
 }
+
+// subCarrierSpacingCommon keeps its name in the document and is null where
+// the field gives no spacing. TS 38.331 MIB field description
+// (testdata/reference/rrc/ts38331-mib-fields.txt): "For operation with
+// shared spectrum channel access in FR1 ... the subcarrier spacing for
+// SIB1, Msg.2/4 and MsgB ... is same as that for the corresponding SSB";
+// n46 is such a band. On n78 30 kHz is scs30or120 (FR1).
+func TestMIBCommonSpacing(t *testing.T) {
+	at := func(v int) *int { return &v }
+	for _, c := range []struct {
+		band   string
+		centre float64
+		want   string
+	}{{"n78", 3750, `"subCarrierSpacingCommon":"scs30or120"`}, {"n46", 5505, `"subCarrierSpacingCommon":null`}} {
+		p := grid.Plan{Name: c.band, Carrier: grid.CarrierPlan{Band: c.band, BandwidthMHz: 40, CenterMHz: &c.centre},
+			SSB:           &grid.SSBPlan{SCSKHz: 30, OffsetToPointA: 60},
+			Partitions:    []grid.PartitionPlan{{Name: "all", SCSKHz: 30, StartCRB: at(0), SizePRB: 106}},
+			InitialAccess: &grid.InitialAccessPlan{}}
+		doc := Build(grid.Compute(p), false)
+		if doc.InitialAccess == nil {
+			t.Fatalf("%s: no initial access: %v", c.band, doc.Findings)
+		}
+		b, err := json.Marshal(doc.InitialAccess.MIB)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Contains(b, []byte(c.want)) {
+			t.Errorf("%s: mib %s, want %s", c.band, b, c.want)
+		}
+	}
+}
