@@ -357,6 +357,8 @@ func diffTotals(a, b planform.State) []diffRow {
 			return r.PRACH.Range.Limit / 1000
 		}
 		text("PRACH configuration", prach(ra), prach(rb))
+		text("PRACH association period", associationMs(ra.PRACH), associationMs(rb.PRACH))
+		text("PRACH association pattern period", patternMs(ra.PRACH), patternMs(rb.PRACH))
 		num("Valid PRACH occasions per 10 ms", per10(ra), per10(rb), 2)
 		num("PRACH cell range km", km(ra), km(rb), 2)
 	}
