@@ -124,7 +124,12 @@ type Type0Occasion struct {
 
 // MIBFields are the MIB fields the plan implies, by their TS 38.331 names.
 type MIBFields struct {
-	SubCarrierSpacingCommon string // "scs15or60" or "scs30or120"
+	// SubCarrierSpacingCommon is "scs15or60" or "scs30or120" where the
+	// field gives a spacing (CommonIsSpacing), and "" where it does not;
+	// CommonNote then says what SIB1 uses instead and what the bit carries
+	// (CommonNoSpacing).
+	SubCarrierSpacingCommon string
+	CommonNote              string
 	// SSBSubcarrierOffset is ssb-SubcarrierOffset, k_SSB's four least
 	// significant bits; KSSBMsb is k_SSB's fifth bit, which FR1 carries in
 	// the PBCH payload bit ā_{A+5} (TS 38.212 7.1.1); always 0 in FR2.
@@ -132,6 +137,50 @@ type MIBFields struct {
 	KSSBMsb             int
 	DMRSTypeAPosition   string // "pos2" or "pos3"
 	PDCCHConfigSIB1     int    // 8 bits: controlResourceSetZero·16 + searchSpaceZero
+}
+
+// CommonIsSpacing reports whether the MIB's subCarrierSpacingCommon gives
+// the spacing of SIB1, Msg.2/4 and paging on a carrier of range rng in the
+// operating band bandName: in FR1 and FR2-1, but not in FR2-2 nor on an FR1
+// band operated with shared spectrum channel access (band.SharedSpectrum:
+// n46, n96, n102). TS 38.331 Release 17, MIB field description
+// (testdata/reference/rrc/ts38331-mib-fields.txt): "For operation with
+// shared spectrum channel access in FR1 (see 37.213) and for operation in
+// FR2-2, the subcarrier spacing for SIB1, Msg.2/4 and MsgB for initial
+// access, paging and broadcast SI-messages is same as that for the
+// corresponding SSB. For operation with shared spectrum channel access,
+// this field instead is used for deriving the QCL relation between SS/PBCH
+// blocks as specified in TS 38.213 [13], clause 4.1". This is the one rule
+// the report, the views and grid/rrc follow.
+func CommonIsSpacing(rng Range, bandName string) bool {
+	return rng != FR2_2 && !(rng == FR1 && band.SharedSpectrum(bandName))
+}
+
+// CommonIsSpacing reports whether the MIB's subCarrierSpacingCommon gives a
+// spacing on r's channel: its range and the band it is checked against
+// (Channel.Band, whose shared spectrum also picks CORESET#0's Tables 13-1A
+// and 13-4A).
+func (r Result) CommonIsSpacing() bool {
+	return CommonIsSpacing(r.Channel.Range, r.Channel.Band)
+}
+
+// CommonNoSpacing says, where subCarrierSpacingCommon gives no spacing
+// (CommonIsSpacing), what SIB1, Msg.2/4 and paging use instead (the
+// ssbKHz of the SS/PBCH block) and what the bit carries, as a clause for
+// a sentence; "" where it gives a spacing. FR2-2 is operated with shared
+// spectrum channel access too, so the bit gives the QCL relation there as
+// well.
+func CommonNoSpacing(rng Range, bandName string, ssbKHz int) string {
+	if CommonIsSpacing(rng, bandName) {
+		return ""
+	}
+	where := "in FR2-2"
+	qcl := "with shared spectrum channel access it gives the QCL relation between SS/PBCH blocks instead"
+	if rng == FR1 {
+		where = "with shared spectrum channel access (band " + bandName + ")"
+		qcl = "the field, with the least significant bit of ssb-SubcarrierOffset, gives the QCL relation between SS/PBCH blocks instead"
+	}
+	return fmt.Sprintf("%s, SIB1, Msg.2/4 and paging use the SS/PBCH block's spacing, %d kHz, and %s (TS 38.331 MIB, TS 38.213 4.1), which the plan does not hold", where, ssbKHz, qcl)
 }
 
 // InitialBWP is an initial BWP placed: PRBs [StartCRB, StartCRB+SizePRB)
@@ -319,11 +368,15 @@ func checkInitialAccess(fs *findings, rng Range, ia *InitialAccessPlan, sp *SSBP
 	}
 
 	// The MIB: every value below was range-checked above.
-	scc, _ := coreset0.SubCarrierSpacingCommonFor(fr, common)
 	low4, msb, _ := coreset0.SubcarrierOffsetBits(fr, kSSB)
 	pdcch, _ := coreset0.PDCCHConfigSIB1(ia.ControlResourceSetZero, ia.SearchSpaceZero)
-	out.MIB = MIBFields{SubCarrierSpacingCommon: scc.String(), SSBSubcarrierOffset: int(low4),
-		DMRSTypeAPosition: dmrs.String(), PDCCHConfigSIB1: int(pdcch)}
+	out.MIB = MIBFields{SSBSubcarrierOffset: int(low4), DMRSTypeAPosition: dmrs.String(), PDCCHConfigSIB1: int(pdcch)}
+	if res.CommonIsSpacing() {
+		scc, _ := coreset0.SubCarrierSpacingCommonFor(fr, common)
+		out.MIB.SubCarrierSpacingCommon = scc.String()
+	} else {
+		out.MIB.CommonNote = CommonNoSpacing(rng, res.Channel.Band, ssbKHz)
+	}
 	if msb {
 		out.MIB.KSSBMsb = 1
 	}

@@ -1,6 +1,7 @@
 package grid
 
 import (
+	"os"
 	"slices"
 	"strings"
 	"testing"
@@ -504,5 +505,76 @@ func TestFindInitialAccessIgnoresThePlansPosition(t *testing.T) {
 	got, err := FindInitialAccess(bad, "")
 	if err != nil || len(got.Options) != len(want.Options) || got.Positions != want.Positions {
 		t.Errorf("with a wrong GSCN: %v, %d rows at %d positions; without: %d at %d", err, len(got.Options), got.Positions, len(want.Options), want.Positions)
+	}
+}
+
+// subCarrierSpacingCommon gives a spacing only where TS 38.331's MIB field
+// description (Release 17; testdata/reference/rrc/ts38331-mib-fields.txt)
+// says it does: "If the UE acquires this MIB on an FR1 carrier frequency,
+// the value scs15or60 corresponds to 15 kHz and the value scs30or120
+// corresponds to 30 kHz. If the UE acquires this MIB on an FR2 carrier
+// frequency, the value scs15or60 corresponds to 60 kHz and the value
+// scs30or120 corresponds to 120 kHz. For operation with shared spectrum
+// channel access in FR1 (see 37.213 [48]) and for operation in FR2-2, the
+// subcarrier spacing for SIB1, Msg.2/4 and MsgB for initial access, paging
+// and broadcast SI-messages is same as that for the corresponding SSB. For
+// operation with shared spectrum channel access, this field instead is
+// used for deriving the QCL relation between SS/PBCH blocks". The shared
+// spectrum FR1 bands are n46, n96 and n102 (TS 38.101-1 Table 5.2-1, from
+// memory). Initial access then leaves the MIB value empty and says why.
+func TestSubCarrierSpacingCommonFollowsTheFieldDescription(t *testing.T) {
+	ref, err := os.ReadFile("../testdata/reference/rrc/ts38331-mib-fields.txt")
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := strings.Join(strings.Fields(string(ref)), " ")
+	for _, sentence := range []string{
+		"For operation with shared spectrum channel access in FR1 (see 37.213 [48]) and for operation in FR2-2, the subcarrier spacing for SIB1, Msg.2/4 and MsgB for initial access, paging and broadcast SI-messages is same as that for the corresponding SSB.",
+		"For operation with shared spectrum channel access, this field instead is used for deriving the QCL relation between SS/PBCH blocks",
+	} {
+		if !strings.Contains(text, sentence) {
+			t.Fatalf("the reference no longer holds the sentence this test follows: %q", sentence)
+		}
+	}
+	for _, c := range []struct {
+		rng  Range
+		band string
+		want bool
+	}{
+		{FR1, "", true}, {FR1, "n78", true}, {FR1, "n79", true},
+		{FR1, "n46", false}, {FR1, "n96", false}, {FR1, "n102", false},
+		{FR2_1, "", true}, {FR2_1, "n257", true},
+		{FR2_2, "", false}, {FR2_2, "n263", false},
+	} {
+		if got := CommonIsSpacing(c.rng, c.band); got != c.want {
+			t.Errorf("%s band %q: CommonIsSpacing %v, want %v", c.rng, c.band, got, c.want)
+		}
+		why := CommonNoSpacing(c.rng, c.band, 30)
+		if (why == "") != c.want || (!c.want && (!strings.Contains(why, "SS/PBCH block's spacing, 30 kHz") || !strings.Contains(why, "QCL relation"))) {
+			t.Errorf("%s band %q: CommonNoSpacing %q", c.rng, c.band, why)
+		}
+	}
+
+	// Initial access on n78 sends scs30or120 for 30 kHz (FR1); on n46 the
+	// same plan has no value, and the note names the block's 30 kHz.
+	for _, c := range []struct {
+		band   string
+		centre float64
+		value  string
+	}{{"n78", 3750, "scs30or120"}, {"n46", 5505, ""}} {
+		p := iaFR1(0, 0)
+		p.Carrier.Band = c.band
+		p.Carrier.CenterMHz = &c.centre
+		r := Compute(p)
+		if r.InitialAccess == nil {
+			t.Fatalf("%s: no initial access: %v", c.band, iaFindings(r, Error))
+		}
+		m := r.InitialAccess.MIB
+		if m.SubCarrierSpacingCommon != c.value || (c.value == "") != (m.CommonNote != "") || r.CommonIsSpacing() != (c.value != "") {
+			t.Errorf("%s: subCarrierSpacingCommon %q, note %q; want %q", c.band, m.SubCarrierSpacingCommon, m.CommonNote, c.value)
+		}
+		if c.value == "" && !strings.Contains(m.CommonNote, "band n46") {
+			t.Errorf("%s: the note %q does not name the band", c.band, m.CommonNote)
+		}
 	}
 }

@@ -48,6 +48,9 @@ type Options struct {
 	// resolution; with a Preset and no Width, the figure is written as many
 	// px wide as the preset's printed width holds at DPI.
 	DPI int
+	// CrossLink marks a comparison's cross-link conflicts over the plot
+	// (crosslink.go); the zero value marks none.
+	CrossLink CrossLinkMarks
 }
 
 // PNG resolution bounds.
@@ -286,6 +289,9 @@ func (opt Options) check() (int, error) {
 	}
 	if opt.DPI != 0 && (opt.DPI < MinDPI || opt.DPI > MaxDPI) {
 		return 0, fmt.Errorf("render: %d dpi is outside %d to %d; give a resolution in that range, or 0 for none", opt.DPI, MinDPI, MaxDPI)
+	}
+	if err := opt.CrossLink.check(); err != nil {
+		return 0, err
 	}
 	if opt.Theme >= themeCount {
 		return 0, fmt.Errorf("render: theme %s is not defined; use ThemeLight or ThemePrint", opt.Theme)

@@ -47,7 +47,9 @@
 // gl-prach-bad (not valid). The bands of Result.Overlaps are outlined in
 // <g class="gl-overlaps"> with data-pairs (each pair's partition indexes,
 // "a-b", space-separated): gl-overlap (errors) and gl-overlap-warn (a
-// downlink and an uplink partition).
+// downlink and an uplink partition). A comparison's cross-link conflicts
+// (Options.CrossLink) are <g class="gl-xl-marks"> with data-start-tc and
+// data-end-tc, one path gl-xl-mark over the plot, drawn over all else.
 //
 // Options.Window fixes the axes, so that figures of two plans share their
 // scales (FitWindow and Window.Union make one that holds both), and
@@ -314,6 +316,7 @@ func build(r grid.Result, opt Options) (*doc, error) {
 	}
 	drawRail(b, f, r)
 	drawLegend(b, r, rows, keys, width, legendTop, keyW, partsH, keyBelow)
+	drawCrossLink(b, f, opt.CrossLink) // over everything, as a comparison's marks
 	if len(caption) > 0 {
 		b.open(group{class: "gl-caption", fontSize: captionSize})
 		for i, text := range caption {

@@ -118,7 +118,7 @@ func initialFacts(ia grid.InitialAccess) (coreset, mib, bwps []fact) {
 	}
 	m := ia.MIB
 	mib = []fact{
-		{"subCarrierSpacingCommon", m.SubCarrierSpacingCommon},
+		{"subCarrierSpacingCommon", commonText(m)},
 		{"ssb-SubcarrierOffset", fmt.Sprintf("%d (k_SSB's fifth bit %d)", m.SSBSubcarrierOffset, m.KSSBMsb)},
 		{"dmrs-TypeA-Position", m.DMRSTypeAPosition},
 		{"pdcch-ConfigSIB1", fmt.Sprintf("%08b (%d: controlResourceSetZero %d, searchSpaceZero %d)", m.PDCCHConfigSIB1, m.PDCCHConfigSIB1, c.Index, ia.SearchSpaceZero)},
@@ -128,6 +128,16 @@ func initialFacts(ia grid.InitialAccess) (coreset, mib, bwps []fact) {
 		bwps = append(bwps, fact{"Initial uplink BWP", bwpText(*ia.InitialUL)})
 	}
 	return coreset, mib, bwps
+}
+
+// commonText is subCarrierSpacingCommon as the cell view gives it: the
+// value, or where it gives no spacing what SIB1 uses instead (grid's
+// CommonNote).
+func commonText(m grid.MIBFields) string {
+	if m.SubCarrierSpacingCommon != "" {
+		return m.SubCarrierSpacingCommon
+	}
+	return "no spacing: " + m.CommonNote
 }
 
 // occasionSummary says how many Type0-PDCCH occasions the window holds and

@@ -7,6 +7,7 @@ import (
 
 	"gridloom/grid"
 	"gridloom/grid/planfile"
+	"gridloom/render"
 	"gridloom/web/planform"
 )
 
@@ -46,15 +47,17 @@ func (s *server) compareFragment(w http.ResponseWriter, r *http.Request) error {
 func (s *server) compareOf(r *http.Request, c planform.Compare) (compareView, []string) {
 	var figs [2]drawn
 	var styles []string
+	cross := crossLinkOf(c) // computed once: both figures mark it, the view lists it
 	for i, side := range planform.Sides {
 		opt := c.SideOptions(i)
 		opt.Caption, opt.IDPrefix = "", side+"-" // the page names each side
+		opt.CrossLink = render.CrossLinkMarks{Link: cross.x, SideB: i == 1}
 		svg, st, failed := s.inlineFigure(r, c.Sides[i].Result, opt)
 		figs[i] = drawn{SVG: svg, Failed: failed}
 		styles = append(styles, st...)
 	}
 	slices.Sort(styles)
-	return buildCompare(c, figs), slices.Compact(styles)
+	return buildCompare(c, cross, figs), slices.Compact(styles)
 }
 
 // compareOpen reads an uploaded plan file (field "plan", as /open takes

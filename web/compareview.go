@@ -110,14 +110,15 @@ type findingGroup struct {
 	Items         []findingView
 }
 
-// buildCompare makes the comparison's view; figs are the two figures drawn
-// for the page, on their shared scales.
-func buildCompare(c planform.Compare, figs [2]drawn) compareView {
+// buildCompare makes the comparison's view; cross is its cross-link view
+// and figs are the two figures drawn for the page, on their shared scales,
+// with cross's conflicts marked.
+func buildCompare(c planform.Compare, cross crossLinkView, figs [2]drawn) compareView {
 	q := c.Query()
 	v := compareView{Query: q, Status: statusOf(c.Invalid()),
 		Scale: scaleNote(c.Sides[0].Result, c.Sides[1].Result),
 		Swap:  "/compare?" + c.SwapQuery(),
-		Cross: crossLinkOf(c), // computed once; markConflicts draws it on both figures
+		Cross: cross,
 	}
 	if c.LinkErr != "" {
 		v.Notes = []note{{Severity: string(grid.Error), Text: c.LinkErr}}
@@ -127,7 +128,7 @@ func buildCompare(c planform.Compare, figs [2]drawn) compareView {
 		st := c.Sides[i]
 		sv := compareSide{Key: side, Label: strings.ToUpper(side), Name: strings.TrimSpace(st.Plan.Name),
 			Placed: len(st.Result.Partitions), Total: len(st.Plan.Partitions),
-			Figure: markConflicts(figs[i].SVG, v.Cross, i), FigureErr: figs[i].Failed,
+			Figure: figs[i].SVG, FigureErr: figs[i].Failed,
 			Planner: "/?" + st.Query(),
 			SVG:     "/compare/figure.svg?" + planform.JoinQuery("side="+side, q, "download=1"),
 			PNG:     "/compare/figure.png?" + planform.JoinQuery("side="+side, q, "download=1"),
@@ -356,6 +357,8 @@ func diffTotals(a, b planform.State) []diffRow {
 			return r.PRACH.Range.Limit / 1000
 		}
 		text("PRACH configuration", prach(ra), prach(rb))
+		text("PRACH association period", associationMs(ra.PRACH), associationMs(rb.PRACH))
+		text("PRACH association pattern period", patternMs(ra.PRACH), patternMs(rb.PRACH))
 		num("Valid PRACH occasions per 10 ms", per10(ra), per10(rb), 2)
 		num("PRACH cell range km", km(ra), km(rb), 2)
 	}

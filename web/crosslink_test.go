@@ -40,12 +40,20 @@ func TestCompareCrossLink(t *testing.T) {
 	if strings.Contains(r.body, `data-testid="crosslink-empty"`) {
 		t.Error("the offset comparison says the patterns are aligned")
 	}
-	// Both figures mark them over their plot (x 92, width 876 for the 5 ms
-	// span): on A's time [0, 1) ms at x 92, width 876/5 = 175.2; on B's time,
-	// 1 ms earlier, the same interval wraps to [4, 5) ms, x 92 + 4·175.2.
+	// Both figures mark them over their plot (x 92 to 968, y 48 to 508 for
+	// the 5 ms span of 9 830 400 Tc, 175.2 px a millisecond), drawn by
+	// render from the engine's list. On A's time the first conflict is
+	// [0, 1) ms, x 92 to 267.2; the second [3857.292, 4714.583) µs is
+	// [7 583 744, 9 269 248) Tc (3 ms = 5 898 240 Tc, then ten 15 kHz
+	// symbols of 140 288 Tc and two of 141 312, TS 38.211 5.3.1), x
+	// 92 + 876·7 583 744/9 830 400 = 767.8 to 918. On B's time, 1 ms
+	// (1 966 080 Tc) earlier, the first wraps to [4, 5) ms, x 792.8 to 968,
+	// and the second is [5 617 664, 7 303 168) Tc, x 592.6 to 742.8.
 	wantContains(t, "marks", r.body, `data-testid="crosslink-marks"`,
-		`<rect x="92.00" y="48.00" width="175.20" height="460.00" fill="#b02a20"`,
-		`<rect x="792.80" y="48.00" width="175.20" height="460.00" fill="#b02a20"`)
+		`data-start-tc="0 7583744" data-end-tc="1966080 9269248"`,
+		`<path d="M92 48H267.2V508H92ZM767.8 48H918V508H767.8Z" class="gl-xl-mark" fill="#b02a20" fill-opacity="0.16"`,
+		`data-start-tc="7864320 5617664" data-end-tc="9830400 7303168"`,
+		`<path d="M792.8 48H968V508H792.8ZM592.6 48H742.8V508H592.6Z" class="gl-xl-mark" fill="#b02a20" fill-opacity="0.16"`)
 	if n := strings.Count(r.body, `data-testid="crosslink-marks"`); n != 2 {
 		t.Errorf("%d figures carry conflict marks, want 2", n)
 	}

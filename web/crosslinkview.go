@@ -1,10 +1,7 @@
 package web
 
 import (
-	"fmt"
-	"regexp"
 	"strconv"
-	"strings"
 
 	"gridloom/grid"
 	"gridloom/web/planform"
@@ -13,8 +10,9 @@ import (
 // The comparison's synchronised TDD (issue 17): both plans on absolute
 // time with B's frame offset, the cross-link conflicts between them, their
 // total per 10 ms, and a strip that marks them along one cycle. Built from
-// planform.Compare.CrossLink, computed once per page: compareview.go calls
-// crossLinkOf and hands its view to markConflicts for both figures.
+// planform.Compare.CrossLink, computed once per page: compare.go calls
+// crossLinkOf, hands its list to render (render.CrossLinkMarks), which
+// marks it on both figures, and its view to buildCompare.
 
 // stripWidth is the width of the conflict strip's viewBox.
 const stripWidth = 1000
@@ -29,8 +27,8 @@ type crossLinkView struct {
 	PerTenMs       string // µs per 10 ms
 	Ticks          []stripTick
 
-	// x is the computed list, which markConflicts draws on the figures;
-	// nil when there is none.
+	// x is the computed list, which render marks on the figures; nil when
+	// there is none.
 	x *grid.CrossLink
 }
 
@@ -77,52 +75,4 @@ func crossLinkOf(c planform.Compare) crossLinkView {
 		v.Ticks = append(v.Ticks, stripTick{X: num(pos(ms)), Label: strconv.Itoa(int(ms / grid.TcPerSubframe))})
 	}
 	return v
-}
-
-var plotGroupAttrs = regexp.MustCompile(`<g id="[ab]-gl-plot"[^>]* data-x="([0-9.]+)" data-y="([0-9.]+)" data-w="([0-9.]+)" data-h="([0-9.]+)" data-span-tc="([0-9]+)"`)
-
-// markConflicts draws the cross-link conflicts of v on side i's figure (0 for
-// A, 1 for B) as translucent bands over its plot, across its whole time
-// span: on A's time as listed, on B's shifted back by the frame offset.
-// The figure is returned unchanged when it has no plot geometry or there
-// is nothing to mark. The downloads keep the plain figure.
-func markConflicts(svg string, v crossLinkView, side int) string {
-	x := v.x
-	if x == nil || len(x.Conflicts) == 0 {
-		return svg
-	}
-	end := strings.LastIndex(svg, "</svg>")
-	m := plotGroupAttrs.FindStringSubmatch(svg)
-	if end < 0 || m == nil {
-		return svg
-	}
-	var g [4]float64
-	for k := range g {
-		g[k], _ = strconv.ParseFloat(m[k+1], 64)
-	}
-	span, _ := strconv.ParseInt(m[5], 10, 64)
-	if span <= 0 || x.Cycle <= 0 {
-		return svg
-	}
-	shift := grid.Tc(0)
-	if side == 1 {
-		shift = x.Offset
-	}
-	num := func(f float64) string { return strconv.FormatFloat(f, 'f', 2, 64) }
-	var b strings.Builder
-	b.WriteString(`<g class="gl-xl-marks" pointer-events="none" data-testid="crosslink-marks">`)
-	for _, k := range x.Conflicts {
-		// The conflict repeats every cycle; on B's time it starts shift earlier.
-		s := ((k.Start-shift)%x.Cycle + x.Cycle) % x.Cycle
-		for t := s - x.Cycle; t < grid.Tc(span); t += x.Cycle {
-			lo, hi := max(t, 0), min(t+(k.End-k.Start), grid.Tc(span))
-			if lo >= hi {
-				continue
-			}
-			fmt.Fprintf(&b, `<rect x="%s" y="%s" width="%s" height="%s" fill="#b02a20" fill-opacity="0.16"><title>cross-link conflict: A %s, B %s</title></rect>`,
-				num(g[0]+g[2]*float64(lo)/float64(span)), num(g[1]), num(g[2]*float64(hi-lo)/float64(span)), num(g[3]), dirWord(k.A), dirWord(k.B))
-		}
-	}
-	b.WriteString(`</g>`)
-	return svg[:end] + b.String() + svg[end:]
 }

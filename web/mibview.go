@@ -133,8 +133,8 @@ func mibFacts(res grid.Result, c planform.MIBChoice) []string {
 	if res.InitialAccess == nil {
 		facts = append(facts, "pdcch-ConfigSIB1 is 0 and dmrs-TypeA-Position pos2 here because the plan has no initial access block; set CORESET#0 and the search space zero to encode yours.")
 	}
-	if !rrc.CommonIsSpacing(res) {
-		facts = append(facts, "subCarrierSpacingCommon is scs15or60 here: in FR2-2 and with shared spectrum channel access it gives no spacing (SIB1 uses the SS/PBCH block's) and, with shared spectrum, the QCL relation between SS/PBCH blocks, which the plan does not hold (TS 38.331 MIB).")
+	if why := grid.CommonNoSpacing(res.Channel.Range, res.Channel.Band, res.SSB.Numerology.SCSKHz()); why != "" {
+		facts = append(facts, "subCarrierSpacingCommon is scs15or60 here, for it gives no spacing: "+why+".")
 	}
 	return facts
 }

@@ -44,9 +44,9 @@ func prachOf(res grid.Result, query string) *prachView {
 			valid++
 		}
 	}
-	assoc := "none: the blocks cannot be mapped within 160 ms (TS 38.213 Table 8.1-1)"
-	if p.AssociationPeriodFrames > 0 {
-		assoc = strconv.Itoa(10*p.AssociationPeriodFrames) + " ms"
+	assoc := associationMs(p)
+	if p.AssociationPeriodFrames == 0 {
+		assoc += ": the blocks cannot be mapped within 160 ms (TS 38.213 Table 8.1-1)"
 	}
 	v := &prachView{
 		Index: strconv.Itoa(p.ConfigurationIndex), Format: p.Format, Table: "TS 38.211 Table " + p.Table,
@@ -111,14 +111,40 @@ func spanOf(p *grid.PRACH, spanMs int, query string) (text, href, link string) {
 // patternOf writes the association pattern period and, when it is longer
 // than the association period, why.
 func patternOf(p *grid.PRACH) string {
-	if p.AssociationPatternPeriodFrames == 0 {
-		return "none: no association period"
-	}
-	s := strconv.Itoa(10*p.AssociationPatternPeriodFrames) + " ms"
-	if p.PatternNote != "" {
+	s := patternMs(p)
+	switch {
+	case p.AssociationPatternPeriodFrames == 0:
+		s += ": no association period"
+	case p.PatternNote != "":
 		s += ": " + p.PatternNote
 	}
 	return s
+}
+
+// associationMs and patternMs write the association period (TS 38.213
+// Table 8.1-1) and the association pattern period (TS 38.213 8.1) in ms,
+// "none" without one or without a prach block; the Random access table,
+// the walkthrough and the comparison all say them so.
+func associationMs(p *grid.PRACH) string {
+	if p == nil {
+		return "none"
+	}
+	return framesMs(p.AssociationPeriodFrames)
+}
+
+func patternMs(p *grid.PRACH) string {
+	if p == nil {
+		return "none"
+	}
+	return framesMs(p.AssociationPatternPeriodFrames)
+}
+
+// framesMs is a number of 10 ms frames in ms, "none" for 0.
+func framesMs(frames int) string {
+	if frames == 0 {
+		return "none"
+	}
+	return strconv.Itoa(10*frames) + " ms"
 }
 
 // rangeBinds names the limit that sets the cell range: the smallest of the

@@ -168,6 +168,68 @@ func TestPRACHWalkAndCompare(t *testing.T) {
 	}
 }
 
+// TestPRACHAssociationInWalkAndCompare: the random access step and the
+// comparison give the association period and the association pattern
+// period as the Random access table does. dddsu.yaml maps its four blocks
+// over 2 frames (20 ms, TS 38.213 Table 8.1-1) and, slot 19 being valid
+// with blocks or without, repeats the mapping every 20 ms too (TS 38.213
+// 8.1). Without its TDD pattern and with index 167 (B4 in every slot) one
+// frame maps them (10 ms), but the blocks come every 20 ms and the frames
+// without them validate 2 more occasions, so the pattern period is
+// lcm(1, 2) frames, 20 ms (both worked in grid's
+// TestPRACHAssociationPatternPeriod).
+func TestPRACHAssociationInWalkAndCompare(t *testing.T) {
+	_, p := prachPlanFile(t)
+	q := p.Clone()
+	q.TDD = nil
+	q.PRACH.ConfigurationIndex = 167
+	for _, c := range []struct {
+		name  string
+		plan  grid.Plan
+		wants []string
+	}{
+		{"dddsu", p, []string{"association period of 20 ms (TS 38.213 Table 8.1-1)", "association pattern period, 20 ms (TS 38.213 8.1)."}},
+		{"index 167", q, []string{"association period of 10 ms (TS 38.213 Table 8.1-1)", "association pattern period, 20 ms (TS 38.213 8.1): the SS/PBCH blocks come every 20 ms, and in the frames without them 2 more occasion"}},
+	} {
+		steps := Walkthrough(grid.Compute(c.plan))
+		i := slices.IndexFunc(steps, func(s WalkStep) bool { return s.Key == "prach" })
+		if i < 0 {
+			t.Fatalf("%s: no prach step", c.name)
+		}
+		text := strings.Join(steps[i].Narration, " ")
+		for _, want := range c.wants {
+			if !strings.Contains(text, want) {
+				t.Errorf("%s: the step does not say %q: %s", c.name, want, text)
+			}
+		}
+	}
+
+	none := p.Clone()
+	none.PRACH = nil
+	state := func(p grid.Plan) planform.State { return planform.NewState(planform.FormOf(p), nil) }
+	for _, c := range []struct {
+		name           string
+		b              grid.Plan
+		assoc, patt    string
+		changedAssoc   bool
+		changedPattern bool
+	}{
+		{"index 167", q, "10 ms", "20 ms", true, false},
+		{"no prach", none, "none", "none", true, true},
+	} {
+		rows := map[string]diffRow{}
+		for _, r := range diffTotals(state(p), state(c.b)) {
+			rows[r.Label] = r
+		}
+		if r := rows["PRACH association period"]; r.A != "20 ms" || r.B != c.assoc || r.Changed != c.changedAssoc {
+			t.Errorf("%s: association period row %+v, want 20 ms against %s", c.name, r, c.assoc)
+		}
+		if r := rows["PRACH association pattern period"]; r.A != "20 ms" || r.B != c.patt || r.Changed != c.changedPattern {
+			t.Errorf("%s: association pattern period row %+v, want 20 ms against %s", c.name, r, c.patt)
+		}
+	}
+}
+
 var (
 	prachSectionFind = regexp.MustCompile(`<a href="([^"]*)" data-testid="find-g-prach"`)
 	prachFindingFind = regexp.MustCompile(`<a class="gl-goto" href="([^"]*)" data-testid="finding-find"`)

@@ -321,6 +321,16 @@ func prachStep(res grid.Result) WalkStep {
 		p.ConfigurationIndex, p.Table, p.Format, num(float64(p.SCSHz)/1000), p.NRBRA, p.PUSCHSCSKHz, p.FDM))
 	s.Narration = append(s.Narration, fmt.Sprintf("%d of the %d occasions listed are valid (TS 38.213 8.1): %s valid per 10 ms. The invalid ones are drawn dotted and crossed.",
 		valid, len(p.Occasions), num(p.ValidPer10ms)))
+	if p.AssociationPeriodFrames > 0 {
+		line := fmt.Sprintf("The SS/PBCH blocks are mapped to the valid occasions over an association period of %s (TS 38.213 Table 8.1-1), and that mapping repeats every association pattern period, %s (TS 38.213 8.1)",
+			associationMs(p), patternMs(p))
+		if p.PatternNote != "" {
+			line += ": " + p.PatternNote
+		}
+		s.Narration = append(s.Narration, line+".")
+	} else {
+		s.Narration = append(s.Narration, "No association period of TS 38.213 Table 8.1-1 maps every SS/PBCH block within 160 ms, so there is no association pattern period either (TS 38.213 8.1).")
+	}
 	s.Narration = append(s.Narration, fmt.Sprintf("The preamble allows a cell of %s km, set by %s.", num(float64(int(p.Range.Limit/10+0.5))/100), rangeBinds(p)))
 	return s
 }

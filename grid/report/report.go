@@ -19,15 +19,18 @@ import (
 
 // Document is the JSON document of one grid.Result, as Build makes it.
 type Document struct {
-	Spec       string         `json:"spec"` // the 3GPP release followed, grid.Spec
-	Plan       grid.Plan      `json:"plan"`
-	Channel    Channel        `json:"channel"`
-	Carriers   []Carrier      `json:"carriers"`
-	Partitions []Partition    `json:"partitions"`
-	TDD        *TDD           `json:"tdd,omitempty"`
-	SSB        *SSB           `json:"ssb,omitempty"`
-	Fit        *grid.Fit      `json:"fit,omitempty"`
-	Findings   []grid.Finding `json:"findings"`
+	Spec       string      `json:"spec"` // the 3GPP release followed, grid.Spec
+	Plan       grid.Plan   `json:"plan"`
+	Channel    Channel     `json:"channel"`
+	Carriers   []Carrier   `json:"carriers"`
+	Partitions []Partition `json:"partitions"`
+	// Overlaps are the bands two partitions share, one per pair, in the
+	// order of the overlap findings; an empty list when none do.
+	Overlaps []Overlap      `json:"overlaps"`
+	TDD      *TDD           `json:"tdd,omitempty"`
+	SSB      *SSB           `json:"ssb,omitempty"`
+	Fit      *grid.Fit      `json:"fit,omitempty"`
+	Findings []grid.Finding `json:"findings"`
 	// Timing is the carrier's timing (timing.go); Advice the numerology
 	// advice, present when the plan describes its environment.
 	Timing *Timing      `json:"timing,omitempty"`
@@ -88,12 +91,14 @@ type Occasion struct {
 
 // MIB holds the MIB fields a plan implies, by their TS 38.331 names.
 // kSsbMsb is the PBCH payload bit that carries k_SSB's fifth bit in FR1.
+// SubCarrierSpacingCommon is null where the field gives no spacing
+// (grid.CommonIsSpacing): in FR2-2 and on a shared spectrum FR1 band.
 type MIB struct {
-	SubCarrierSpacingCommon string `json:"subCarrierSpacingCommon"`
-	SSBSubcarrierOffset     int    `json:"ssbSubcarrierOffset"`
-	KSSBMsb                 int    `json:"kSsbMsb"`
-	DMRSTypeAPosition       string `json:"dmrsTypeAPosition"`
-	PDCCHConfigSIB1         int    `json:"pdcchConfigSIB1"`
+	SubCarrierSpacingCommon *string `json:"subCarrierSpacingCommon"`
+	SSBSubcarrierOffset     int     `json:"ssbSubcarrierOffset"`
+	KSSBMsb                 int     `json:"kSsbMsb"`
+	DMRSTypeAPosition       string  `json:"dmrsTypeAPosition"`
+	PDCCHConfigSIB1         int     `json:"pdcchConfigSIB1"`
 }
 
 // InitialBWP is an initial BWP of a Document; source says where it came
@@ -236,6 +241,23 @@ type Partition struct {
 	Timing *PartitionTiming `json:"timing,omitempty"`
 }
 
+// Overlap is the band two partitions share (grid.Overlap). Partitions
+// names the two, PartitionIndexes gives their places in the plan (the
+// lower first), and Severity is that of the overlap finding: error when
+// both send in the same direction, warning for a downlink and an uplink
+// partition, which a TDD carrier may keep apart in time. The band is
+// relative to point A; LowMHz and HighMHz are present when the plan ties
+// the channel to a frequency.
+type Overlap struct {
+	PartitionIndexes [2]int        `json:"partitionIndexes"`
+	Partitions       [2]string     `json:"partitions"`
+	LowKHz           float64       `json:"lowKHz"`
+	HighKHz          float64       `json:"highKHz"`
+	LowMHz           *float64      `json:"lowMHz,omitempty"`
+	HighMHz          *float64      `json:"highMHz,omitempty"`
+	Severity         grid.Severity `json:"severity"`
+}
+
 // Build returns the document of r. With symbols false the per-symbol lists
 // are left empty, for callers that want the summary only.
 func Build(r grid.Result, symbols bool) Document {
@@ -247,6 +269,7 @@ func Build(r grid.Result, symbols bool) Document {
 			LowKHz: ch.Low.KHz(), HighKHz: ch.High.KHz(), CenterKHz: ch.Center.KHz(), UsePercent: ch.UsePercent},
 		Carriers:   []Carrier{},
 		Partitions: []Partition{},
+		Overlaps:   []Overlap{},
 		Findings:   r.Findings,
 	}
 	if out.Findings == nil {
@@ -302,6 +325,18 @@ func Build(r grid.Result, symbols bool) Document {
 		jp.Timing = partitionTiming(l.Timing, r.TDD != nil)
 		out.Partitions = append(out.Partitions, jp)
 	}
+	for _, o := range r.Overlaps {
+		jo := Overlap{PartitionIndexes: [2]int{o.A, o.B}, LowKHz: o.Low.KHz(), HighKHz: o.High.KHz(), Severity: grid.Warning}
+		jo.Partitions = [2]string{partitionName(r.Partitions, o.A), partitionName(r.Partitions, o.B)}
+		if o.Error {
+			jo.Severity = grid.Error
+		}
+		if ch.Absolute {
+			jo.LowMHz = ptr(ch.Abs(o.Low).MHz())
+			jo.HighMHz = ptr(ch.Abs(o.High).MHz())
+		}
+		out.Overlaps = append(out.Overlaps, jo)
+	}
 	out.Timing = planTiming(r.Timing)
 	out.Advice = r.Advice
 	if s := r.SSB; s != nil {
@@ -333,6 +368,16 @@ func Build(r grid.Result, symbols bool) Document {
 		out.TDD = &TDD{ReferenceSCSKHz: t.Reference.SCSKHz(), PeriodMs: float64(t.Period) / float64(grid.TcPerSubframe), Slots: t.SlotString()}
 	}
 	return out
+}
+
+// partitionName is the name of the partition at index i of the plan.
+func partitionName(ls []grid.Lattice, i int) string {
+	for _, l := range ls {
+		if l.Index == i {
+			return l.Name
+		}
+	}
+	return ""
 }
 
 // symbolAt is the k-th symbol of partition l as the document lists it.
@@ -429,9 +474,12 @@ func initialAccess(ia *grid.InitialAccess, ch grid.Channel) *InitialAccess {
 			OffsetRB: c.OffsetRB, SCSKHz: c.SCSKHz, StartCRB: c.StartCRB, LowKHz: c.Low.KHz(), HighKHz: c.High.KHz()},
 		SearchSpace0: SearchSpace0{Index: ia.SearchSpaceZero, Table: ia.OccasionTable, WindowMs: ia.WindowMs,
 			Occasions: make([]Occasion, len(ia.Occasions))},
-		MIB: MIB{SubCarrierSpacingCommon: ia.MIB.SubCarrierSpacingCommon, SSBSubcarrierOffset: ia.MIB.SSBSubcarrierOffset,
+		MIB: MIB{SSBSubcarrierOffset: ia.MIB.SSBSubcarrierOffset,
 			KSSBMsb: ia.MIB.KSSBMsb, DMRSTypeAPosition: ia.MIB.DMRSTypeAPosition, PDCCHConfigSIB1: ia.MIB.PDCCHConfigSIB1},
 		InitialDownlinkBWP: initialBWP(ia.InitialDL),
+	}
+	if scc := ia.MIB.SubCarrierSpacingCommon; scc != "" {
+		out.MIB.SubCarrierSpacingCommon = ptr(scc)
 	}
 	if ch.Absolute {
 		out.CORESET0.LowMHz = ptr(ch.Abs(c.Low).MHz())

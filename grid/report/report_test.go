@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/json"
 	"errors"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -217,4 +218,96 @@ type failAfter struct{ writes int }
 func (f *failAfter) Write(p []byte) (int, error) {
 	f.writes++
 	return 0, errors.New("client gone")
+}
+
+// The bands two partitions share reach the document as "overlaps", each
+// naming the two partitions, their indexes, the band from point A and the
+// severity of its finding. 15 kHz CRB k spans [180·k − 7.5, 180·(k+1) − 7.5)
+// kHz from point A (TS 38.211 4.4.4.3): downlink a holds CRBs 0–29 and b
+// 20–49, so they share [3592.5, 5392.5) kHz, an error; uplink c holds
+// CRBs 40–59 and shares [7192.5, 8992.5) kHz with b, a warning (TDD may
+// keep them apart in time); a and c do not touch.
+func TestOverlaps(t *testing.T) {
+	at := func(v int) *int { return &v }
+	fc := 3750.0 // n78, TS 38.101-1 Table 5.2-1
+	p := grid.Plan{Name: "overlaps", Carrier: grid.CarrierPlan{Band: "n78", BandwidthMHz: 40, CenterMHz: &fc},
+		Partitions: []grid.PartitionPlan{
+			{Name: "a", SCSKHz: 15, StartCRB: at(0), SizePRB: 30},
+			{Name: "b", SCSKHz: 15, StartCRB: at(20), SizePRB: 30},
+			{Name: "c", SCSKHz: 15, StartCRB: at(40), SizePRB: 20, Direction: "UL"}}}
+	doc := Build(grid.Compute(p), false)
+	want := []Overlap{
+		{PartitionIndexes: [2]int{0, 1}, Partitions: [2]string{"a", "b"}, LowKHz: 3592.5, HighKHz: 5392.5, Severity: grid.Error},
+		{PartitionIndexes: [2]int{1, 2}, Partitions: [2]string{"b", "c"}, LowKHz: 7192.5, HighKHz: 8992.5, Severity: grid.Warning},
+	}
+	if len(doc.Overlaps) != len(want) {
+		t.Fatalf("overlaps %+v, want %+v", doc.Overlaps, want)
+	}
+	for i, w := range want {
+		o := doc.Overlaps[i]
+		if o.PartitionIndexes != w.PartitionIndexes || o.Partitions != w.Partitions || o.LowKHz != w.LowKHz || o.HighKHz != w.HighKHz || o.Severity != w.Severity {
+			t.Errorf("overlap %d: %+v, want %+v", i, o, w)
+		}
+		// MHz values are absolute: point A plus the kHz value.
+		if o.LowMHz == nil || o.HighMHz == nil || doc.Channel.PointAMHz == nil ||
+			math.Abs(*o.LowMHz-(*doc.Channel.PointAMHz+w.LowKHz/1000)) > 1e-9 || math.Abs(*o.HighMHz-(*doc.Channel.PointAMHz+w.HighKHz/1000)) > 1e-9 {
+			t.Errorf("overlap %d: MHz %v–%v with point A at %v MHz; want point A plus the kHz edges", i, o.LowMHz, o.HighMHz, doc.Channel.PointAMHz)
+		}
+	}
+
+	// The JSON names the README lists; a plan without overlaps gives an
+	// empty list, never null.
+	b, err := json.Marshal(doc)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var m struct {
+		Overlaps []map[string]any `json:"overlaps"`
+	}
+	if err := json.Unmarshal(b, &m); err != nil {
+		t.Fatal(err)
+	}
+	for _, k := range []string{"partitionIndexes", "partitions", "lowKHz", "highKHz", "lowMHz", "highMHz", "severity"} {
+		if _, ok := m.Overlaps[0][k]; !ok {
+			t.Errorf("overlap %v lacks %q", m.Overlaps[0], k)
+		}
+	}
+	b, err = json.Marshal(Build(sample(), false))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Contains(b, []byte(`"overlaps":[]`)) {
+		t.Errorf("a plan without overlaps: want \"overlaps\":[] in %s", excerpt(b, bytes.Index(b, []byte(`"overlaps"`))))
+	}
+}
+
+// subCarrierSpacingCommon keeps its name in the document and is null where
+// the field gives no spacing. TS 38.331 MIB field description
+// (testdata/reference/rrc/ts38331-mib-fields.txt): "For operation with
+// shared spectrum channel access in FR1 ... the subcarrier spacing for
+// SIB1, Msg.2/4 and MsgB ... is same as that for the corresponding SSB";
+// n46 is such a band. On n78 30 kHz is scs30or120 (FR1).
+func TestMIBCommonSpacing(t *testing.T) {
+	at := func(v int) *int { return &v }
+	for _, c := range []struct {
+		band   string
+		centre float64
+		want   string
+	}{{"n78", 3750, `"subCarrierSpacingCommon":"scs30or120"`}, {"n46", 5505, `"subCarrierSpacingCommon":null`}} {
+		p := grid.Plan{Name: c.band, Carrier: grid.CarrierPlan{Band: c.band, BandwidthMHz: 40, CenterMHz: &c.centre},
+			SSB:           &grid.SSBPlan{SCSKHz: 30, OffsetToPointA: 60},
+			Partitions:    []grid.PartitionPlan{{Name: "all", SCSKHz: 30, StartCRB: at(0), SizePRB: 106}},
+			InitialAccess: &grid.InitialAccessPlan{}}
+		doc := Build(grid.Compute(p), false)
+		if doc.InitialAccess == nil {
+			t.Fatalf("%s: no initial access: %v", c.band, doc.Findings)
+		}
+		b, err := json.Marshal(doc.InitialAccess.MIB)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Contains(b, []byte(c.want)) {
+			t.Errorf("%s: mib %s, want %s", c.band, b, c.want)
+		}
+	}
 }

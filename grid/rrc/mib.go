@@ -224,7 +224,7 @@ func EncodeMIB(m MIB, t PBCHTiming) (MIBBits, error) {
 // default common spacing, pos2 for an unset dmrsTypeAPosition). The rest
 // of the MIB (SFN, cellBarred, intraFreqReselection, subCarrierSpacingCommon
 // in FR2-2 and on a shared spectrum FR1 band, where it gives no spacing but
-// the QCL relation between SS/PBCH blocks (TS 38.331 MIB, commonIsSpacing),
+// the QCL relation between SS/PBCH blocks (TS 38.331 MIB, grid.CommonIsSpacing),
 // and pdcch-ConfigSIB1 and dmrs-TypeA-Position for a plan
 // without initialAccess) is the caller's to choose: the plan does not hold
 // it.
@@ -237,7 +237,7 @@ func MIBForPlan(r grid.Result) (MIB, PBCHTiming, error) {
 	if r.Channel.Range.FR2() {
 		t.FR = coreset0.FR2
 	}
-	if commonIsSpacing(r.Channel.Range, r.Plan.Carrier.Band) {
+	if r.CommonIsSpacing() {
 		s, err := coreset0.SubCarrierSpacingCommonFor(t.FR, r.SSB.ScsCommonKHz)
 		if err != nil {
 			return MIB{}, PBCHTiming{}, err

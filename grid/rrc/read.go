@@ -723,17 +723,13 @@ func (rd *reader) read(doc *asn1v.Document) (grid.Plan, error) {
 			rd.d.Assumed = append(rd.d.Assumed, "The text has no MIB, so k_SSB (ssb-SubcarrierOffset) is taken as 0.")
 		}
 		rng, _ := grid.ParseRange(p.Carrier.Range)
-		spacing := commonIsSpacing(rng, p.Carrier.Band)
+		// The text's band decides (grid.CommonIsSpacing): in FR2-2 and with
+		// shared spectrum in FR1 the common spacing is the block's, and the
+		// field gives the QCL relation or nothing.
+		spacing := grid.CommonIsSpacing(rng, p.Carrier.Band)
 		if common != nil && !spacing {
-			// TS 38.331 MIB field description: in FR2-2 and with shared
-			// spectrum in FR1 the common spacing is the block's, and the
-			// field gives the QCL relation (shared spectrum) or nothing.
 			name, _ := ident(common, "subCarrierSpacingCommon", "scs15or60, scs30or120")
-			where := "in FR2-2"
-			if rng == grid.FR1 {
-				where = "with shared spectrum channel access (band " + p.Carrier.Band + ")"
-			}
-			rd.d.Assumed = append(rd.d.Assumed, fmt.Sprintf("subCarrierSpacingCommon %s (%s) gives no spacing %s: SIB1, Msg.2/4 and paging use the SS/PBCH block's, %d kHz, and with shared spectrum channel access the field gives the QCL relation between SS/PBCH blocks (TS 38.331 MIB, TS 38.213 4.1), which a plan does not hold.", name, common.Pos, where, s.SCSKHz))
+			rd.d.Assumed = append(rd.d.Assumed, fmt.Sprintf("subCarrierSpacingCommon %s (%s) gives no spacing: %s.", name, common.Pos, grid.CommonNoSpacing(rng, p.Carrier.Band, s.SCSKHz)))
 		}
 		if common != nil && spacing {
 			name, err := ident(common, "subCarrierSpacingCommon", "scs15or60, scs30or120")

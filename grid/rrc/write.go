@@ -286,51 +286,21 @@ func noteBand(v *asn1v.Value, r grid.Result) {
 	v.Note(why)
 }
 
-// commonIsSpacing reports whether the MIB's subCarrierSpacingCommon gives
-// the spacing of SIB1, Msg.2/4 and paging. TS 38.331 Release 17, MIB field
-// description: "For operation with shared spectrum channel access in FR1
-// (see 37.213) and for operation in FR2-2, the subcarrier spacing for SIB1,
-// Msg.2/4 and MsgB for initial access, paging and broadcast SI-messages is
-// same as that for the corresponding SSB. For operation with shared
-// spectrum channel access, this field instead is used for deriving the QCL
-// relation between SS/PBCH blocks as specified in TS 38.213 [13], clause
-// 4.1" (testdata/reference/rrc/ts38331-mib-fields.txt). So it does in FR1
-// without shared spectrum and in FR2-1, and not in FR2-2 nor on a shared
-// spectrum FR1 band, where it is either unused or the QCL relation, which
-// a plan does not hold.
-func commonIsSpacing(rng grid.Range, bandName string) bool {
-	return rng != grid.FR2_2 && !(rng == grid.FR1 && band.SharedSpectrum(bandName))
-}
-
-// CommonIsSpacing reports whether the MIB's subCarrierSpacingCommon gives a
-// spacing for a computed plan: not in FR2-2, nor with shared spectrum
-// channel access in FR1 (TS 38.331 MIB field description).
-func CommonIsSpacing(r grid.Result) bool {
-	return commonIsSpacing(r.Channel.Range, r.Plan.Carrier.Band)
-}
-
 // commonLeftOut says why subCarrierSpacingCommon is not written where it
-// gives no spacing.
+// gives no spacing (grid.CommonIsSpacing).
 func commonLeftOut(r grid.Result) string {
-	where := "in FR2-2"
-	qcl := "with shared spectrum channel access it gives the QCL relation between SS/PBCH blocks instead"
-	if r.Channel.Range == grid.FR1 {
-		where = "with shared spectrum channel access (band " + r.Plan.Carrier.Band + ")"
-		qcl = "the field, with the least significant bit of ssb-SubcarrierOffset, gives the QCL relation between SS/PBCH blocks instead"
-	}
-	return fmt.Sprintf("subCarrierSpacingCommon is left out: %s SIB1, Msg.2/4 and paging use the SS/PBCH block's spacing, %d kHz, and %s (TS 38.331 MIB, TS 38.213 4.1), which the plan does not hold",
-		where, r.SSB.Numerology.SCSKHz(), qcl)
+	return "subCarrierSpacingCommon is left out: " + grid.CommonNoSpacing(r.Channel.Range, r.Channel.Band, r.SSB.Numerology.SCSKHz())
 }
 
 // mibValue writes the MIB fields a plan sets: ssb-SubcarrierOffset and,
-// where it gives a spacing (commonIsSpacing), subCarrierSpacingCommon,
+// where it gives a spacing (grid.CommonIsSpacing), subCarrierSpacingCommon,
 // with the values Compute resolved (a block placed by ssb.gscn, the
 // default common spacing).
 func mibValue(r grid.Result) *asn1v.Value {
 	s := r.SSB
 	var common *asn1v.Value
 	v := asn1v.Seq()
-	if !commonIsSpacing(r.Channel.Range, r.Plan.Carrier.Band) {
+	if !r.CommonIsSpacing() {
 		v.Note(mibLeft(r), commonLeftOut(r))
 	} else {
 		fr := coreset0.FR1
