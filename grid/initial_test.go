@@ -578,3 +578,41 @@ func TestSubCarrierSpacingCommonFollowsTheFieldDescription(t *testing.T) {
 		}
 	}
 }
+
+// On a band operated with shared spectrum channel access the common
+// spacing is the SS/PBCH block's own (TS 38.331 MIB, field description of
+// subCarrierSpacingCommon: SIB1, Msg.2/4 and paging then use the spacing of
+// the SSB, and the bit gives the QCL relation instead), so an explicit
+// ssb.scsCommonKHz that differs is warned about; on n78 the same value is
+// a spacing the field can carry, and nothing is said.
+func TestScsCommonOnSharedSpectrum(t *testing.T) {
+	warned := func(r Result) bool {
+		for _, f := range r.Findings {
+			if f.Field == "ssb.scsCommonKHz" && f.Severity == Warning {
+				return true
+			}
+		}
+		return false
+	}
+	for _, c := range []struct {
+		band   string
+		centre float64
+		common int
+		want   bool
+	}{
+		{"n46", 5505, 15, true},  // 30 kHz block, 15 kHz common: not the block's spacing
+		{"n46", 5505, 30, false}, // the block's spacing
+		{"n46", 5505, 0, false},  // not given: the default is the block's spacing
+		{"n78", 3750, 15, false}, // licensed band: 15 kHz is a spacing subCarrierSpacingCommon gives
+	} {
+		p := iaFR1(0, 0)
+		p.InitialAccess = nil
+		p.Carrier.Band = c.band
+		p.Carrier.CenterMHz = &c.centre
+		p.SSB.ScsCommonKHz = c.common
+		r := Compute(p)
+		if got := warned(r); got != c.want {
+			t.Errorf("%s, scsCommonKHz %d: warned %v, want %v; findings %v", c.band, c.common, got, c.want, r.Findings)
+		}
+	}
+}

@@ -292,6 +292,11 @@ func checkSSB(fs *findings, rng Range, s *SSBPlan, ch Channel, freq Hz, freqKnow
 		fail("ssb.scsCommonKHz", "ssb.scsCommonKHz %d is not a subCarrierSpacingCommon of %s; use %s kHz.", common, rng, JoinInts(commonChoices(rng)))
 		common = defaultCommon(rng, s.SCSKHz)
 	}
+	if s.ScsCommonKHz != 0 && common != s.SCSKHz && !CommonIsSpacing(rng, ch.Band) {
+		// TS 38.331 MIB, subCarrierSpacingCommon: in FR2-2 and with shared
+		// spectrum channel access the common spacing is the block's own.
+		fs.add(Warning, CodeSSB, "", "ssb.scsCommonKHz", "ssb.scsCommonKHz is %d kHz, but %s; use %d kHz, the block's spacing.", common, CommonNoSpacing(rng, ch.Band, s.SCSKHz), s.SCSKHz)
+	}
 	rbUnit, kUnit, kMax, multiple := ssbUnits(rng, common)
 	if g := s.GSCN; g != nil {
 		f, valid := gscn.Frequency(*g)
