@@ -64,7 +64,7 @@ func list(band string, scs int, c string, gs ...int) Entry {
 // order. Bands without a downlink (the SUL bands) have no row.
 //
 // Written from the spec text as remembered, then compared cell by cell
-// with two independent copies (testdata/, TestTableFR1AgainstCopies):
+// with two independent copies (testdata/, TestTableAgainstCopies):
 //   - n46, n96 and n102 have irregular sets given in notes (the SS/PBCH block
 //     sits in fixed places of each 20 MHz LBT sub-band of the unlicensed
 //     5 and 6 GHz bands). n96's set was remembered as ending 10201, 10215,
