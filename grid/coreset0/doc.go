@@ -18,7 +18,7 @@
 // 13-1A and 13-4A with shared spectrum in FR1, 13-10A for FR2-2, and 13-11 to
 // 13-15A for the occasions. That the rows read the same in V17.x.0 is from
 // memory: none of them changed in Release 18. The FR2-2 tables (13-10A,
-// 13-12A and 13-15A, for 120, 480 and 960 kHz in FR2-2) are not read in
+// 13-12A and 13-15A, for 120, 480 and 960 kHz in FR2-2) are not carried
 // here; SelectTable refuses FR2-2 spacings.
 //
 // # Units
