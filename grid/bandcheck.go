@@ -122,7 +122,7 @@ func setBand(ch *Channel, b band.Band, cp CarrierPlan, scsInUse []int) {
 // Table 5.4.2.3-1 and, for FDD, the paired uplink in the uplink range.
 func checkInBand(fs *findings, b band.Band, rng Range, ch *Channel, cp CarrierPlan, parts []PartitionPlan, scsInUse []int, bwKnown bool) {
 	if b.Bandwidths == nil {
-		fs.add(Info, CodeBand, "", "carrier.band", "Band %s's row of %s is not transcribed here; carrier.bandwidthMHz and the subcarrier spacings are not checked against the band.",
+		fs.add(Info, CodeBand, "", "carrier.band", "Band %s's row of %s is not carried here; carrier.bandwidthMHz and the subcarrier spacings are not checked against the band.",
 			b.Name, bandSource(b, "5.3.5-1"))
 	} else {
 		allowed, data := b.SCS(), rng.DataSCS()

@@ -58,7 +58,7 @@ func TestBandFindings(t *testing.T) {
 		// n263: 120 kHz raster 2564083–<2>–2794243 (TS 38.101-2 Table
 		// 5.4.2.3-1); 60000.06 MHz is 2612500, an odd step from the start.
 		{"n263 off its raster", bandPlan("FR2-2", 400, 60000.06, "n263", 120, 264), Error, CodeChannelRaster, "carrier.centerMHz", "60000.000 MHz (2612499) and 60000.120 MHz (2612501)"},
-		{"n48 bandwidths not transcribed", bandPlan("FR1", 20, 3625.005, "n48", 30, 51), Info, CodeBand, "carrier.band", "not transcribed"},
+		{"n48 bandwidths not carried", bandPlan("FR1", 20, 3625.005, "n48", 30, 51), Info, CodeBand, "carrier.band", "not carried"},
 		{"n46 listed NR-ARFCNs", bandPlan("FR1", 20, 5180.01, "n46", 30, 51), Info, CodeChannelRaster, "carrier.centerMHz", "lists for each channel bandwidth"},
 	} {
 		t.Run(c.name, func(t *testing.T) {

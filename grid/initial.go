@@ -215,7 +215,7 @@ func coresetFR(rng Range) coreset0.FR {
 // whatever that minimum (n79 and n104, by the band note the coreset0 package
 // names); and whether it is operated with shared spectrum channel access
 // (n46, n96 and n102, TS 38.101-1 Table 5.2-1, from memory). Without a band,
-// or a band whose bandwidths are not transcribed, gridloom assumes a 5 or
+// or a band whose bandwidths are not carried, gridloom assumes a 5 or
 // 10 MHz minimum (Tables 13-1 to 13-4), as most FR1 bands have, and assumed
 // says so.
 func coresetBand(rng Range, ch Channel) (b coreset0.Band, assumed string) {
@@ -238,7 +238,7 @@ func coresetBand(rng Range, ch Channel) (b coreset0.Band, assumed string) {
 	b.Uses40MHzTables = bd.Name == "n79" || bd.Name == "n104"
 	b.SharedSpectrum = band.SharedSpectrum(bd.Name)
 	if minBW == 0 {
-		return b, "Band " + bd.Name + "'s channel bandwidths are not transcribed, so"
+		return b, "Band " + bd.Name + "'s channel bandwidths are not carried, so"
 	}
 	b.MinChannelBandwidthMHz = minBW
 	return b, ""

@@ -361,9 +361,10 @@ func TestPRACHAssociationPatternPeriod(t *testing.T) {
 	// of Table 6.3.3.2-3: B4, x = 1, every subframe, two PRACH slots per
 	// subframe, so at 30 kHz an occasion in symbols 0–11 of each of the 20
 	// slots. The four blocks of case C at 30 kHz sit in symbols 2–5 and
-	// 8–11 of slots 0 and 1 (TS 38.213 4.1: {4, 8, 16, 20} + 28n, n = 0 … at
-	// the half frame, here symbols 2, 8, 16, 22). Without a TDD pattern an
-	// occasion is valid if no block follows it in its PRACH slot and it
+	// 8–11 of slots 0 and 1 (TS 38.213 4.1, case C: {2, 8} + 14·n from the
+	// half frame's start, n = 0, 1 for the bitmap's first four: symbols 2,
+	// 8, 16, 22). Without a TDD pattern an occasion is valid if no block
+	// follows it in its PRACH slot and it
 	// starts N_gap = 2 symbols after the last block symbol (TS 38.213 8.1,
 	// Table 8.1-2): slots 0 and 1 have blocks after symbol 0, invalid; slot
 	// 2 starts at symbol 28, two symbols after the last block symbol (25),

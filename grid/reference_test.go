@@ -55,7 +55,7 @@ func atof(t *testing.T, s string) float64 {
 }
 
 // TS 38.101-1 / 38.101-2 Table 5.3.2-1 (N_RB) and Table 5.3.3-1 (minimum
-// guardband), transcribed in testdata/reference/ts38101-bandwidth.tsv.
+// guardband), read again into testdata/reference/ts38101-bandwidth.tsv.
 func TestBandwidthTables(t *testing.T) {
 	rows := readTSV(t, "ts38101-bandwidth.tsv")
 	seen := map[Range]int{}

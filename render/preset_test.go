@@ -45,12 +45,12 @@ func TestPresetArithmetic(t *testing.T) {
 			t.Errorf("%s: key text at %.3f pt, want %.3f", tc.name, got, tc.keyPt)
 		}
 	}
-	// Without a preset, 1200 px across the A4 column: 453.543/1200 = 0.378
-	// pt a px, so the 8 px letters print at 3.02 pt and the 9 px rail
-	// labels at 3.40 pt, the smallest size the figure was found to print.
-	perPx := 160 / 25.4 * 72 / 1200
-	if got := 9 * perPx; math.Abs(got-3.402) > 0.001 {
-		t.Errorf("9 px at 1200 px across 160 mm: %.3f pt, want 3.402", got)
+	// Without a preset, the default 1200 px across the A4 column:
+	// 453.543/1200 = 0.378 pt a px, so the 8 px letters print at 3.024 pt
+	// and the key's 10 px at 3.780 pt (the README's 3.0 and 3.8 pt).
+	perPx := 160 / 25.4 * 72 / float64(DefaultWidth)
+	if got := MinTextPx * perPx; math.Abs(got-3.024) > 0.001 {
+		t.Errorf("the %d px letters at %d px across 160 mm: %.3f pt, want 3.024", MinTextPx, DefaultWidth, got)
 	}
 	if _, err := ParsePreset("a5"); err == nil || !strings.Contains(err.Error(), "a4, slide, poster") {
 		t.Errorf("ParsePreset(a5): %v, want an error listing the presets", err)

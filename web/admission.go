@@ -12,7 +12,7 @@ import (
 )
 
 // admission bounds the heavy work running at once: PNG figures, the
-// exports of large plans, the API, comparisons and the printed
+// exports of large plans, the API, comparisons, the finders and the printed
 // walkthrough each cost tens of milliseconds to seconds of a core and up
 // to tens of megabytes. Without a bound, 64 clients asking for the PNG of
 // the largest plan took 2.6 GB and every answer passed 20 s; with it, a

@@ -16,7 +16,8 @@ import (
 
 // Browser tests of issue 19's second half: a new plan, the overlap drawn
 // and cleared, the readout beside the pointer, the SS/PBCH labels apart
-// from the names, compare's B side opened from a file, and axe-core.
+// from the names, and compare's B side opened from a file (axe-core is
+// browser_axe_test.go's).
 
 // issueWidths are the widths issue 19 tried the page at.
 var issueWidths = []int{390, 1024, 1440, 1920}

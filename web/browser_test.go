@@ -561,10 +561,14 @@ func TestBrowserReadout(t *testing.T) {
 			}
 		}
 		// The readout keeps the time axis's unit (issue 19): µs to the ns
-		// on a span up to 2 ms, ms to the ns beyond.
-		us := fmt.Sprintf("starts %.3f µs, CP %.3f µs", wantSym.Start.Micros(), wantSym.CP.Micros())
-		if eval[string](tb, `document.getElementById('gl-plot').dataset.timeUnit`) == "ms" {
-			us = fmt.Sprintf("starts %.6f ms, CP %.6f ms", wantSym.Start.Micros()/1000, wantSym.CP.Micros()/1000)
+		// on a span up to 2 ms, ms to the ns beyond (fig.timeUnit auto),
+		// judged from the figure's span, not from the unit the page says.
+		us, unit := fmt.Sprintf("starts %.3f µs, CP %.3f µs", wantSym.Start.Micros(), wantSym.CP.Micros()), "us"
+		if g.SpanTc > 2*float64(grid.TcPerSubframe) {
+			us, unit = fmt.Sprintf("starts %.6f ms, CP %.6f ms", wantSym.Start.Micros()/1000, wantSym.CP.Micros()/1000), "ms"
+		}
+		if got := eval[string](tb, `document.getElementById('gl-plot').dataset.timeUnit`); got != unit {
+			t.Errorf("%s: a %.0f Tc span draws its time axis in %q, want %q", c.plan, g.SpanTc, got, unit)
 		}
 		if !strings.Contains(ro["text"], us) || !strings.Contains(ro["text"], fmt.Sprintf("slot %d, symbol %d", wantSym.Slot, wantSym.Symbol)) {
 			t.Errorf("%s %s: readout %q, want it to say %q", c.plan, l.Name, ro["text"], us)

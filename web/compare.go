@@ -133,7 +133,7 @@ func (s *server) compareFigure(format string) handlerFunc {
 		}
 		out, err := drawFigure(draw, st.Result, opt)
 		if err != nil {
-			return internal("figure", err)
+			return figureFailed(err)
 		}
 		if format != "png" {
 			w.Header().Set("Content-Security-Policy", figurePolicy(styleSources(string(out))))

@@ -1,13 +1,10 @@
 package web
 
 import (
-	"errors"
 	"io"
 	"net/http"
-	"strings"
 
 	"gridloom/grid/planfile"
-	"gridloom/render"
 	"gridloom/web/planform"
 )
 
@@ -74,11 +71,8 @@ func (s *server) figurePNG(w http.ResponseWriter, r *http.Request) error {
 		return nil
 	}
 	png, err := drawFigure(s.cfg.PNG, st.Result, st.Fig.Opt)
-	if errors.Is(err, render.ErrPNGTooLarge) {
-		return &problem{status: http.StatusUnprocessableEntity, text: "The PNG cannot be drawn that large (" + strings.TrimPrefix(err.Error(), render.ErrPNGTooLarge.Error()+": ") + ")."}
-	}
 	if err != nil {
-		return internal("figure", err)
+		return figureFailed(err)
 	}
 	if r.URL.Query().Get("download") == "1" {
 		attach(w, st.Plan.Name, ".png")

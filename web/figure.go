@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"crypto/sha256"
 	"encoding/base64"
+	"errors"
 	"html"
 	"log/slog"
 	"net/http"
@@ -38,6 +39,16 @@ func drawFigure(draw FigureFunc, res grid.Result, opt render.Options) ([]byte, e
 		return nil, err
 	}
 	return buf.Bytes(), nil
+}
+
+// figureFailed is the answer for a figure drawFigure could not make: 422
+// for a PNG over render.MaxPNGPixels, which the link's fig.width, fig.scale
+// and fig.dpi asked for, otherwise an internal error.
+func figureFailed(err error) *problem {
+	if errors.Is(err, render.ErrPNGTooLarge) {
+		return &problem{status: http.StatusUnprocessableEntity, text: "The PNG cannot be drawn that large (" + strings.TrimPrefix(err.Error(), render.ErrPNGTooLarge.Error()+": ") + "); fig.width, fig.scale and fig.dpi set its size."}
+	}
+	return internal("figure", err)
 }
 
 // inlineSVG prepares an SVG document for inlining in the page: the XML

@@ -5,6 +5,8 @@ import (
 	"net/http"
 	"strings"
 	"testing"
+
+	"gridloom/web/planform"
 )
 
 // TestFigurePaperKeys: fig.preset, fig.timeUnit, fig.scale and fig.dpi
@@ -40,6 +42,16 @@ func TestFigurePaperKeys(t *testing.T) {
 	wantStatus(t, r, http.StatusUnprocessableEntity)
 	if !strings.Contains(r.body, "PNG cannot be drawn that large") {
 		t.Errorf("a PNG past the pixel bound: %.300s", r.body)
+	}
+	// The comparison's PNG has the same bound, and says so with 422 rather
+	// than an internal error: 4800 × 4 px across is past 40 million pixels
+	// whatever the height.
+	campus := planform.FormOf(testConfig(t).Plan)
+	cq := planform.CompareQuery(campus, planform.CopyOf(campus), planform.FigureForm{})
+	r = get(t, srv, "/compare/figure.png?side=b&"+cq+"&fig.width=4800&fig.scale=4")
+	wantStatus(t, r, http.StatusUnprocessableEntity)
+	if !strings.Contains(r.body, "PNG cannot be drawn that large") || !strings.Contains(r.body, "fig.scale") {
+		t.Errorf("the comparison's PNG past the pixel bound: %.300s", r.body)
 	}
 	r = get(t, srv, "/figure.png?"+q+"&fig.dpi=abc")
 	wantStatus(t, r, http.StatusUnprocessableEntity)

@@ -57,7 +57,8 @@ func (s *server) plannerFragment(w http.ResponseWriter, r *http.Request) error {
 
 // pageOf draws the figure and builds the page view of a state, with the
 // CSP sources the inline figure needs, and the MIB panel for the query's
-// mib.sfn and mib.ssb, which the page's query then carries.
+// mib.* keys (frame, block, cellBarred, intraFreqReselection), which the
+// page's query then carries.
 func (s *server) pageOf(r *http.Request, st planform.State) (pageView, []string) {
 	svg, styles, failed := s.inlineFigure(r, st.Result, st.Fig.Opt)
 	v := buildPage(st, drawn{SVG: svg, Failed: failed}, demoLinks(s.cfg.Demos))

@@ -251,7 +251,7 @@ func buildResults(s planform.State, query string, fig drawn) resultsView {
 		{Label: "Symbols (CSV)", Href: "/symbols.csv?" + query, TestID: "download-csv", Hint: "one row per OFDM symbol"},
 		{Label: "Plan (TS 38.331)", Href: "/plan.asn?" + withKey(query, "download", "1"), TestID: "download-asn", Hint: "the plan as TS 38.331 value notation (MIB, ServingCellConfigCommon(SIB), the BWPs): to open again or to take to a base station's configuration"},
 		{Label: "Copy as TS 38.331", Href: "/plan.asn?" + query, TestID: "copy-asn", Copy: true, Hint: "copies the plan as TS 38.331 value notation; without the page script it opens the text"},
-		{Label: "Figure options…", Href: "#" + planform.IDFigure, TestID: "figure-options-link", Hint: "width, theme, layers and caption of the figure and its downloads"},
+		{Label: "Figure options…", Href: "#" + planform.IDFigure, TestID: "figure-options-link", Hint: "width, theme, layers, caption, preset, time unit and PNG scale and dpi of the figure and its downloads"},
 	}
 	rv.Views = []download{
 		{Label: "Walk through it", Href: "/walk?" + query, TestID: "open-walk", Hint: "the plan step by step, for presenting to a team"},

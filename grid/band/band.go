@@ -53,7 +53,7 @@ type Band struct {
 	Rasters []Raster
 	// Bandwidths maps a subcarrier spacing (kHz) to the channel
 	// bandwidths (MHz) of Table 5.3.5-1; nil when that table's row for the
-	// band is not transcribed.
+	// band is not carried.
 	Bandwidths map[int][]int
 }
 
@@ -192,7 +192,7 @@ func (b Band) DuplexSpacingHz() (int64, bool) {
 }
 
 // SCS lists, ascending, the subcarrier spacings (kHz) that Table 5.3.5-1
-// allows in the band; nil when that row is not transcribed.
+// allows in the band; nil when that row is not carried.
 func (b Band) SCS() []int {
 	var out []int
 	for scs, mhz := range b.Bandwidths {
@@ -206,7 +206,7 @@ func (b Band) SCS() []int {
 
 // AllowsBandwidth reports whether Table 5.3.5-1 lists the channel
 // bandwidth for the spacing in the band. known is false when the band's
-// row is not transcribed; then ok means nothing.
+// row is not carried; then ok means nothing.
 func (b Band) AllowsBandwidth(scsKHz, mhz int) (ok, known bool) {
 	if b.Bandwidths == nil {
 		return false, false

@@ -191,7 +191,7 @@ func TestBandwidths(t *testing.T) {
 		t.Errorf("n263.SCS() = %v; want [120 480 960]", b.SCS())
 	}
 	if b, _ := Lookup("n48"); b.Bandwidths != nil {
-		t.Errorf("n48 has bandwidths %v; its row is not transcribed", b.Bandwidths)
+		t.Errorf("n48 has bandwidths %v; its row is not carried", b.Bandwidths)
 	}
 	if _, known := func() (bool, bool) { b, _ := Lookup("n48"); return b.AllowsBandwidth(30, 20) }(); known {
 		t.Error("n48.AllowsBandwidth claims to know")

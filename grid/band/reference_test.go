@@ -284,6 +284,6 @@ func TestChannelBandwidthsAgainstRel15(t *testing.T) {
 	if differs != n {
 		t.Errorf("%d cells differ but %d additions are listed; keep the list exact", differs, n)
 	}
-	t.Logf("Table 5.3.5-1 against Release 15 V15.7.0: %d cells compared, %d differ (all Release 16/17 additions), %d rows of bands not transcribed here skipped",
+	t.Logf("Table 5.3.5-1 against Release 15 V15.7.0: %d cells compared, %d differ (all Release 16/17 additions), %d rows of bands not carried here skipped",
 		compared, differs, skipped)
 }

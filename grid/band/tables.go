@@ -1,6 +1,6 @@
 package band
 
-// The tables below are transcribed one Go table per 3GPP table, each row in
+// The tables below are written out one Go table per 3GPP table, each row in
 // the spec's column order, frequencies in kHz (every band edge of TS 38.101
 // is a whole number of kHz). Release pinned: Release 17, TS 38.101-1
 // V17.8.0 and TS 38.101-2 V17.8.0 (2022-12). They are written from the spec
@@ -240,11 +240,11 @@ type bandwidthRow struct {
 }
 
 // tableFR1ChannelBandwidths is TS 38.101-1 V17.8.0 Table 5.3.5-1, channel
-// bandwidths for each NR band, for the FR1 bands this project transcribes:
+// bandwidths for each NR band, for the FR1 bands this project carries:
 // the bands of the common deployments in the demo plans and tests. A band
 // without a row here has its bandwidth and spacings left unchecked (Compute
 // says so in an info finding); the rows for the other bands, the
-// supplementary and the asymmetric ones, are not transcribed.
+// supplementary and the asymmetric ones, are not carried.
 var tableFR1ChannelBandwidths = [...]bandwidthRow{
 	{1, 15, []int{5, 10, 15, 20, 25, 30, 40, 50}},
 	{1, 30, []int{10, 15, 20, 25, 30, 40, 50}},

@@ -11,14 +11,14 @@
 // # Release
 //
 // Every table is pinned to Release 17 of TS 38.213 (the V17.x.0 versions).
-// The values were transcribed from a later-release text of clause 13 (it
+// The values were read from a later-release text of clause 13 (it
 // already carries Release 18's Table 13-0 for 3 MHz channels and the FR2-NTN
 // wording). A quotation of the Release 17 opening of clause 13 confirms the
 // set of tables: 13-1 to 13-10 without shared spectrum in FR1 and FR2-1,
 // 13-1A and 13-4A with shared spectrum in FR1, 13-10A for FR2-2, and 13-11 to
 // 13-15A for the occasions. That the rows read the same in V17.x.0 is from
 // memory: none of them changed in Release 18. The FR2-2 tables (13-10A,
-// 13-12A and 13-15A, for 120, 480 and 960 kHz in FR2-2) are not transcribed
+// 13-12A and 13-15A, for 120, 480 and 960 kHz in FR2-2) are not carried
 // here; SelectTable refuses FR2-2 spacings.
 //
 // # Units

@@ -63,8 +63,8 @@ func list(band string, scs int, c string, gs ...int) Entry {
 // per operating band", Release 17 (V17.8.0), one Entry per row in the spec's
 // order. Bands without a downlink (the SUL bands) have no row.
 //
-// Transcribed from the spec text as remembered, then compared cell by cell
-// with two independent copies (testdata/, TestTableFR1AgainstCopies):
+// Written from the spec text as remembered, then compared cell by cell
+// with two independent copies (testdata/, TestTableAgainstCopies):
 //   - n46, n96 and n102 have irregular sets given in notes (the SS/PBCH block
 //     sits in fixed places of each 20 MHz LBT sub-band of the unlicensed
 //     5 and 6 GHz bands). n96's set was remembered as ending 10201, 10215,
@@ -72,7 +72,7 @@ func list(band string, scs int, c string, gs ...int) Entry {
 //     the note) has 10214, 10228, … 10325, 10339, 10353. The spec text was not
 //     at hand to settle it; this table follows the copy, and the difference is
 //     reported, not hidden.
-//   - TS 38.104 (the base-station spec, which srsRAN transcribes) adds sets
+//   - TS 38.104 (the base-station spec, whose tables srsRAN carries) adds sets
 //     of its own for n34/n38/n39 at 15 kHz and narrower n79/n90 rows for
 //     small channels; those are base-station rows and are not in TS 38.101-1,
 //     which this table follows.

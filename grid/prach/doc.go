@@ -19,5 +19,5 @@
 // clause 8.1 follow its Release 17 content (the later additions — SBFD,
 // LTM candidate cells, preamble repetitions, shared spectrum — are left
 // out). The additions that serve only NR-U and FR2-2 (L_RA = 571 and 1151,
-// Δf^RA = 480 and 960 kHz) are not transcribed; asking for them is an error.
+// Δf^RA = 480 and 960 kHz) are not carried; asking for them is an error.
 package prach

@@ -257,7 +257,7 @@ type Allocation struct {
 
 // allocations is TS 38.211 Table 6.3.3.2-1 as the text of V18.7.0 gives it,
 // the rows with L_RA = 839, and L_RA = 139 with both spacings up to 120 kHz
-// (the rows with 480/960 kHz or L_RA = 571/1151 are not transcribed).
+// (the rows with 480/960 kHz or L_RA = 571/1151 are not carried).
 var allocations = []Allocation{
 	{839, 1250, 15000, 6, 7},
 	{839, 1250, 30000, 3, 1},

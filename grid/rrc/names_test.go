@@ -168,7 +168,7 @@ func TestNamesTableMatchesTypes(t *testing.T) {
 // names[] arrays value for value.
 //
 // Differences found and settled: ServingCellConfigCommon's
-// ssb-periodicityServingCell was first transcribed without spare2, spare1;
+// ssb-periodicityServingCell was first read without spare2, spare1;
 // the clause text has them, and the table now does (0 differences).
 func TestNamesAgainstSrsRAN(t *testing.T) {
 	type ieNames struct {

@@ -33,7 +33,7 @@ type BWPSwitch struct {
 
 func bwpDelay(mu int, t SwitchType) (Tc, error) {
 	if mu < 0 || mu >= len(Table8_6_2_1) {
-		return 0, fmt.Errorf("TS 38.133 Table 8.6.2-1 as transcribed here covers μ 0 to 3 (15 to 120 kHz); got μ = %d.", mu)
+		return 0, fmt.Errorf("TS 38.133 Table 8.6.2-1 as carried here covers μ 0 to 3 (15 to 120 kHz); got μ = %d.", mu)
 	}
 	if t != SwitchType1 && t != SwitchType2 {
 		return 0, fmt.Errorf("The BWP switch delay type must be 1 or 2; got %d.", uint8(t))

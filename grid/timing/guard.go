@@ -40,7 +40,7 @@ func (c Coexistence) String() string {
 // takes N_TA,offset from n-TimingAdvanceOffset, and without it uses 25600
 // in FR1. The values are from memory and agree with srsRAN_Project's copy
 // (testdata/reference/timing/srsran-n-ta-offset.tsv); Table 7.1.2-3 was not at hand and is
-// not transcribed.
+// not carried.
 var Table7_1_2_2 = [...]Tc{
 	FR1NoCoexistence: 25600,
 	FR1FDDWithLTE:    0,

@@ -111,7 +111,7 @@ func TestBWPSwitchDelay(t *testing.T) {
 		}
 	}
 	if _, err := BWPSwitchDelay(5, 3, SwitchType1); err == nil {
-		t.Error("μ = 5 is not transcribed; want an error")
+		t.Error("μ = 5 is not carried; want an error")
 	}
 	got, err := BWPSwitchDelayByRRC(1, 10*TcPerMilli)
 	if err != nil || got != (BWPSwitch{16 * TcPerMilli, 32}) {

@@ -39,7 +39,8 @@ const noCaption = "-"
 //	fig.width    width in px, MinWidth to MaxWidth of render; empty is 1200
 //	fig.theme    light or print; empty is light
 //	fig.layers   the layers shown, comma-separated (lattice, cp, guards,
-//	             labels, tdd, ssb), or none; empty shows them all
+//	             labels, tdd, ssb, raster, coreset0, prach, overlap), or
+//	             none; empty shows them all
 //	fig.caption  the caption line; empty is the plan's name, "-" none
 //	fig.preset   a4, slide or poster: the layout for a printed width with
 //	             a least type size (render.Preset); empty or none is none
