@@ -330,4 +330,9 @@ func TestRenderFigureFormats(t *testing.T) {
 	if w := binary.BigEndian.Uint32(png[16:]); w != 1890 {
 		t.Errorf("-preset a4 -dpi 300: %d px wide, want 160/25.4×300 = 1890", w)
 	}
+	// Too large a PNG is refused with the flags that size it, exit 2.
+	_, errOut, code = runCLI(t, "", "render", "-format", "png", "-width", "4800", "-scale", "4", "-o", pngPath, src)
+	if code != 2 || !strings.Contains(errOut, "-width, -scale and -dpi") {
+		t.Errorf("-width 4800 -scale 4: exit %d, %q; want 2 naming -width, -scale and -dpi", code, errOut)
+	}
 }

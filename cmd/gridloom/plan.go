@@ -2,6 +2,7 @@ package main
 
 import (
 	"context"
+	"errors"
 	"flag"
 	"fmt"
 	"io"
@@ -312,6 +313,10 @@ func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 		if cerr := file.Close(); err == nil {
 			err = cerr
 		}
+	}
+	if errors.Is(err, render.ErrPNGTooLarge) {
+		return &exitError{code: exitBadInput, msg: "the PNG cannot be drawn that large (" +
+			strings.TrimPrefix(err.Error(), render.ErrPNGTooLarge.Error()+": ") + "); -width, -scale and -dpi set its size"}
 	}
 	if err != nil {
 		return &exitError{code: exitBadInput, msg: err.Error()}
