@@ -186,6 +186,15 @@ func defaultCommon(rng Range, ssbKHz int) int {
 	return ssbKHz
 }
 
+// SCSCommonChoices lists the subCarrierSpacingCommon values of a range
+// in kHz (TS 38.331 MIB: scs15or60 and scs30or120; in FR2-2 the common
+// spacing is the block's, so its data spacings), for a form's choice.
+func SCSCommonChoices(rng Range) []int { return commonChoices(rng) }
+
+// DefaultSCSCommon is the subCarrierSpacingCommon gridloom assumes when
+// ssb.scsCommonKHz is empty: 120 kHz in FR2-1, else the block's spacing.
+func DefaultSCSCommon(rng Range, ssbKHz int) int { return defaultCommon(rng, ssbKHz) }
+
 // commonChoices lists the subCarrierSpacingCommon values of a range.
 func commonChoices(rng Range) []int {
 	switch rng {

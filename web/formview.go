@@ -157,7 +157,7 @@ func buildForm(s planform.State, notes map[string][]note) formView {
 			fv.General = append(fv.General, notes[id]...)
 		}
 	}
-	fv.Shape = formShape(fb.f, scsList)
+	fv.Shape = formShape(fb.f, scsList, fb.showsSCSCommon())
 	return fv
 }
 
@@ -310,18 +310,49 @@ func (fb *formBuilder) ssbSection() section {
 				fb.choice("ssb.period", "4", pick(periods, fb.f.SSB.Period, nil)),
 				fb.text("ssb.bitmap", "12", "numeric", "all candidates"),
 			}},
-			{Label: "Position", Controls: []control{
-				fb.text("ssb.off", "4", "numeric", ""),
-				fb.text("ssb.k", "4", "numeric", "0"),
-				fb.text("ssb.common", "4", "numeric", ""),
-				fb.text("ssb.gscn", "6", "numeric", "or the offsets"),
-			}},
+			{Label: "Position", Controls: fb.positionControls()},
 		},
 	}
 	if b := fb.s.Result.SSB; b != nil {
 		sec.Summary = fmt.Sprintf("case %s, %d of %d candidates sent in the span", b.Case, len(b.Blocks), b.Candidates)
 	}
 	return finishSection(sec)
+}
+
+// positionControls are the SS/PBCH block's offsets, with SCS common
+// (subCarrierSpacingCommon) only where it means something: in FR1 it
+// changes neither offsetToPointA nor k_SSB (both count 15 kHz units, TS
+// 38.211 7.4.3.1), only CORESET#0 and the initial BWPs, so without initial
+// access and with nothing typed the control would be a field that does
+// nothing; a typed value keeps its control, so it is never lost.
+func (fb *formBuilder) positionControls() []control {
+	cs := []control{fb.text("ssb.off", "4", "numeric", ""), fb.text("ssb.k", "4", "numeric", "0")}
+	if fb.showsSCSCommon() {
+		cs = append(cs, fb.choice("ssb.common", "4", scsCommonOptions(fb.rng, strings.TrimSpace(fb.f.SSB.Common))))
+	}
+	return append(cs, fb.text("ssb.gscn", "6", "numeric", "or the offsets"))
+}
+
+// showsSCSCommon says whether the form offers SCS common (positionControls);
+// the form's shape follows it, so the page replaces the form when it comes
+// or goes.
+func (fb *formBuilder) showsSCSCommon() bool {
+	return fb.rng != grid.FR1 || fb.s.Plan.InitialAccess != nil || strings.TrimSpace(fb.f.SSB.Common) != ""
+}
+
+// scsCommonOptions offers the range's subCarrierSpacingCommon values, and
+// empty for the default, which it names.
+func scsCommonOptions(rng grid.Range, cur string) []option {
+	auto := "auto (the block's spacing)"
+	if rng == grid.FR2_1 {
+		auto = fmt.Sprintf("auto (%d)", grid.DefaultSCSCommon(rng, 120))
+	}
+	vals := []option{{Value: "", Label: auto}}
+	for _, scs := range grid.SCSCommonChoices(rng) {
+		vals = append(vals, option{Value: strconv.Itoa(scs), Label: strconv.Itoa(scs)})
+	}
+	why := func(string) string { return "not a subCarrierSpacingCommon of " + rng.String() }
+	return pick(vals, cur, why)
 }
 
 func (fb *formBuilder) envSection() section {
@@ -609,12 +640,16 @@ func placeholderARFCN(res grid.Result) string {
 
 // formShape names the set of controls: the live script swaps the whole form
 // when it changes and patches it in place otherwise.
-func formShape(f planform.Form, scsRows []int) string {
+func formShape(f planform.Form, scsRows []int, scsCommon bool) string {
 	parts := make([]string, len(scsRows))
 	for i, scs := range scsRows {
 		parts[i] = strconv.Itoa(scs)
 	}
-	return fmt.Sprintf("p%d;scs%s", len(f.Parts), strings.Join(parts, ","))
+	shape := fmt.Sprintf("p%d;scs%s", len(f.Parts), strings.Join(parts, ","))
+	if scsCommon {
+		shape += ";common"
+	}
+	return shape
 }
 
 // figureView is the form's box of figure options.
