@@ -57,9 +57,9 @@ const projectorMeasure = `(() => {
 // layout, the legend below the plot and the narration in a column beside
 // it: 8.0, 9.5 and 11.6 px letters, the figure 57, 49 and 45 % of the
 // screen (as high as the screen, it could not take the width). With the
-// key beside the plot and the narration in a band below: 8.0, 11.0 and
-// 13.3 px, the figure 66, 75 and 68 %, the narration's band 224, 162 and
-// 194 px of 22 px type. The limits: the earlier sizes, 60 %, and a band
+// key beside the plot and the narration in a band below: 8.0, 10.9 and
+// 13.2 px, the figure 66, 74 and 68 %, the narration's band 224, 168 and
+// 200 px of 22 px type. The limits: the earlier sizes, 60 %, and a band
 // at least five times its type high (four lines at its 1.45 spacing).
 func TestBrowserProjectorFigure(t *testing.T) {
 	t.Parallel()
