@@ -44,6 +44,12 @@ type Preset struct {
 	// PlotHeight is the frequency axis's height in layout px, chosen for
 	// the page's shape.
 	PlotHeight int
+	// KeyBeside sets the key in a column right of the plot's notes, its
+	// texts wrapped to at most 340 px, and the partition rows below the
+	// plot across the whole figure, for a screen whose height is short:
+	// the figure is the layout width plus that column wide. The same
+	// shapes are drawn, only placed apart.
+	KeyBeside bool
 }
 
 // MinTextPx is the smallest text the figure sets, in layout px: the D/F/U

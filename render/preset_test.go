@@ -353,3 +353,60 @@ func TestFigurePNGMatchesSVGScaled(t *testing.T) {
 		}
 	}
 }
+
+// TestPresetKeyBeside: with KeyBeside the key moves into a column right of
+// the plot's notes, its texts wrapped to the column, and the partition
+// rows stay below the plot; the same shapes are drawn (the drawing cost
+// follows what is drawn, not where), and the figure is wider by the
+// column and lower by the key's rows it no longer stacks below the plot.
+func TestPresetKeyBeside(t *testing.T) {
+	r := compute(t, loadPlan(t, "../grid/demo/campus.yaml"))
+	slide, _ := ParsePreset("slide")
+	below, err := build(r, Options{Preset: *slide})
+	if err != nil {
+		t.Fatal(err)
+	}
+	side := *slide
+	side.KeyBeside = true
+	beside, err := build(r, Options{Preset: side})
+	if err != nil {
+		t.Fatal(err)
+	}
+	count := func(d *doc) (shapes, labels int) {
+		for _, it := range d.items {
+			switch it.(type) {
+			case *shape:
+				shapes++
+			case *label:
+				labels++
+			}
+		}
+		return shapes, labels
+	}
+	s0, l0 := count(below)
+	s1, l1 := count(beside)
+	if s0 != s1 || l1 < l0 {
+		t.Errorf("shapes %d beside, %d below; labels %d and %d: want the same shapes and no label lost", s1, s0, l1, l0)
+	}
+	if beside.w <= below.w || beside.w > below.w+legendGap+besideWidth+legendLeft || beside.h >= below.h {
+		t.Errorf("beside: %d × %d layout px, below: %d × %d; want wider by at most the column, and lower", beside.w, beside.h, below.w, below.h)
+	}
+	// Every key text starts right of the plot's layout and fits the figure.
+	inKey, keyTexts := false, 0
+	for _, it := range beside.items {
+		switch v := it.(type) {
+		case *group:
+			inKey = v.class == "gl-key"
+		case *label:
+			if inKey {
+				keyTexts++
+			}
+			if inKey && (v.x < float64(below.w) || v.x+measure(v) > float64(beside.w)) {
+				t.Errorf("key text %q at x %g–%g, want within %d–%d", v.runs[0].text, v.x, v.x+measure(v), below.w, beside.w)
+			}
+		}
+	}
+	if keyTexts < 10 {
+		t.Errorf("%d key texts found, want the campus plan's key", keyTexts)
+	}
+}

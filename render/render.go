@@ -90,8 +90,10 @@ const (
 	notesWidth    = 170 // channel-edge, guard and unused notes
 	noteSpacing   = 12  // least distance between two notes
 	legendLeft    = 24
-	partRow       = 32 // one legend row per partition
-	keyRow        = 17 // one key row per mark
+	partRow       = 32  // one legend row per partition
+	keyRow        = 17  // one key row per mark
+	keyLine       = 12  // each further line of a key text wrapped beside the plot
+	besideWidth   = 380 // the key's column beside the plot, at most
 	minKeyWidth   = 300
 	maxKeyWidth   = 460
 	legendGap     = 24 // partition rows to key, when side by side
@@ -272,8 +274,19 @@ func build(r grid.Result, opt Options) (*doc, error) {
 		rowsW = max(rowsW, int(max(measure(&row.head), textWidth(row.drawnText(), drawnSize, false)))+40+1)
 	}
 	keyBelow := legendLeft+rowsW+legendGap > width-legendLeft-keyW
+	plotW := width // the layout width the plot and its notes take
+	keyWrap := 0.0 // the key's texts wrap at this width beside the plot
+	if opt.Preset.Name != "" && opt.Preset.KeyBeside {
+		// The key in a column right of the notes, its texts wrapped to
+		// the column; the partition rows below the plot across the whole
+		// figure.
+		keyBelow, keyWrap = false, float64(besideWidth-40)
+		keyW = min(keyW, besideWidth)
+		width += legendGap + keyW + legendLeft
+	}
+	beside := width != plotW
 	avail := float64(width - 2*legendLeft - 40)
-	if !keyBelow {
+	if !keyBelow && !beside {
 		avail -= float64(keyW + legendGap)
 	}
 	partsH := partRow
@@ -284,17 +297,31 @@ func build(r grid.Result, opt Options) (*doc, error) {
 		rows[i].wrap(avail)
 		partsH += rows[i].height()
 	}
-	keyH := len(keys) * keyRow
+	keyH := keysHeight(keys, keyWrap)
 	legendH := max(partsH, keyH)
 	if keyBelow {
 		legendH = partsH + 12 + keyH
 	}
 	legendTop := f.y + f.h + axisBand + 6
 	captionTop := legendTop + legendH + 12
+	kx, ky := width-legendLeft-keyW, legendTop
+	if keyBelow {
+		kx, ky = legendLeft, legendTop+partsH+12
+	}
+	if beside {
+		kx, ky = plotW+legendGap, f.y
+		captionTop = max(legendTop+partsH, ky+keyH) + 12
+	}
 	caption := wrap(clean(opt.Caption), float64(width-2*legendLeft), captionSize)
 	height := captionTop
 	if len(caption) > 0 {
 		height += 6 + len(caption)*captionLine
+	}
+	if beside {
+		// The written width grows with the column, so the plot keeps the
+		// zoom the preset chose.
+		written = int(math.Round(float64(written) * float64(width) / float64(plotW)))
+		b.d.w, b.d.outW = width, written
 	}
 
 	d := b.d
@@ -315,7 +342,7 @@ func build(r grid.Result, opt Options) (*doc, error) {
 		drawSyncRaster(b, f, raster)
 	}
 	drawRail(b, f, r)
-	drawLegend(b, r, rows, keys, width, legendTop, keyW, partsH, keyBelow)
+	drawLegend(b, r, rows, keys, legendTop, kx, ky, keyWrap)
 	drawCrossLink(b, f, opt.CrossLink) // over everything, as a comparison's marks
 	if len(caption) > 0 {
 		b.open(group{class: "gl-caption", fontSize: captionSize})
@@ -759,7 +786,7 @@ func percent(v float64) string {
 
 // drawLegend draws one row per partition (swatch, name, numerology, size,
 // and the detail drawn) and the key of the figure's other marks.
-func drawLegend(b *builder, r grid.Result, rows []partRowText, keys []keyEntry, width, top, keyW, partsH int, keyBelow bool) {
+func drawLegend(b *builder, r grid.Result, rows []partRowText, keys []keyEntry, top, kx, ky int, keyWrap float64) {
 	b.open(group{class: "gl-legend"})
 	x := float64(legendLeft)
 	if len(r.Partitions) == 0 {
@@ -779,11 +806,7 @@ func drawLegend(b *builder, r grid.Result, rows []partRowText, keys []keyEntry, 
 		b.end()
 		y += float64(row.height())
 	}
-	kx, ky := width-legendLeft-keyW, top
-	if keyBelow {
-		kx, ky = legendLeft, top+partsH+12
-	}
-	drawKey(b, keys, kx, ky)
+	drawKey(b, keys, kx, ky, keyWrap)
 	b.end()
 }
 
@@ -885,15 +908,40 @@ func keyRows(r grid.Result, b *builder, blocks *ssbDrawing, coreset *coresetDraw
 	return keys
 }
 
+// keyLines is a key text's lines: one, or wrapped at maxW px when maxW is
+// not 0.
+func keyLines(text string, maxW float64) []string {
+	if maxW == 0 || textWidth(text, 10, false) <= maxW {
+		return []string{text}
+	}
+	return wrap(text, maxW, 10)
+}
+
+// keysHeight is the key's height with its texts wrapped at maxW.
+func keysHeight(keys []keyEntry, maxW float64) int {
+	h := 0
+	for _, k := range keys {
+		h += keyRow + keyLine*(len(keyLines(k.text, maxW))-1)
+	}
+	return h
+}
+
 // drawKey explains the marks that are not partitions, each beside a small
-// sample drawn as in the plot.
-func drawKey(b *builder, keys []keyEntry, x, y int) {
+// sample drawn as in the plot; its texts wrap at maxW px unless it is 0.
+func drawKey(b *builder, keys []keyEntry, x, y int, maxW float64) {
 	b.open(group{class: "gl-key", fontSize: 10})
+	tops := make([]int, len(keys))
+	t := y
 	for i, k := range keys {
-		b.text(label{x: float64(x + 40), y: float64(y + i*keyRow + 10), runs: []run{{text: k.text}}, size: 10})
+		tops[i] = t
+		lines := keyLines(k.text, maxW)
+		for j, text := range lines {
+			b.text(label{x: float64(x + 40), y: float64(t + j*keyLine + 10), runs: []run{{text: text}}, size: 10})
+		}
+		t += keyRow + keyLine*(len(lines)-1)
 	}
 	for i, k := range keys {
-		t := float64(y + i*keyRow)
+		t := float64(tops[i])
 		k.sample(b, float64(x), t, float64(x+30), t+12)
 	}
 	b.end()

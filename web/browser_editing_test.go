@@ -234,14 +234,22 @@ func TestBrowserCompareOpenB(t *testing.T) {
 			// Where B's edit form is, against B's figure and the tables.
 			geo := eval[[]float64](tb, `(() => {
 				const y = (sel, edge) => document.querySelector(sel).getBoundingClientRect()[edge] + scrollY;
-				return [y('[data-testid=figure-b]', 'bottom'), y('[data-testid=form-b]', 'top'), y('[data-testid=form-a]', 'top'), y('[data-testid=diff-totals]', 'top')];
+				return [y('[data-testid=figure-b]', 'bottom'), y('[data-testid=form-b]', 'top'), y('[data-testid=form-a]', 'top'), y('[data-testid=diff-totals]', 'top'),
+					y('[data-testid=figure-a]', 'bottom'), y('[data-testid=figure-b]', 'top')];
 			})()`)
 			figB, formB, formA, diff := geo[0], geo[1], geo[2], geo[3]
 			if formA > diff || formB > diff {
 				t.Errorf("the edit forms (A at %.0f, B at %.0f) come after the difference table (%.0f)", formA, formB, diff)
 			}
-			if width >= 1024 && formB-figB > 400 {
-				t.Errorf("B's edit form starts %.0f px below B's figure, want at most 400", formB-figB)
+			// At every width B's form starts at most 400 px below B's
+			// figure: beside A's under both figures from 1024 px, right
+			// under B's own figure in one column (at 390 px it sat 2 700 px
+			// below, after A's form).
+			if formB-figB > 400 || formB < figB {
+				t.Errorf("B's edit form starts %.0f px below B's figure, want 0 to 400", formB-figB)
+			}
+			if figA, figBTop := geo[4], geo[5]; width < 900 && !(figA <= formA && formA < figBTop) {
+				t.Errorf("one column: A's figure ends at %.0f, A's form starts at %.0f, B's figure at %.0f; want A's form between the figures", figA, formA, figBTop)
 			}
 			t.Logf("%d px: B's form %.0f px below B's figure", width, formB-figB)
 			if sw := eval[float64](tb, `document.documentElement.scrollWidth`); sw > float64(width) {
@@ -251,6 +259,21 @@ func TestBrowserCompareOpenB(t *testing.T) {
 			if !eval[bool](tb, `(() => { const e = document.getElementById('b-p0-name') || document.querySelector('[data-testid=form-b] input'); e.scrollIntoView({block: 'center'});
 				const r = e.getBoundingClientRect(); const hit = document.elementFromPoint(r.left + r.width / 2, r.top + r.height / 2); return hit === e; })()`) {
 				t.Error("a field of B's form is not what the pointer reaches")
+			}
+
+			// In one column the live update still follows B's form: B
+			// renamed shows in B's figure's heading without a reload, and
+			// B's form stays right under B's figure.
+			if width < 900 {
+				tb.do("marking the window", chromedp.Evaluate[chromedp.Void](`window.glMarker = 'still here'`))
+				tb.do("renaming B", chromedp.Evaluate[chromedp.Void](`(() => { const s = document.getElementById('b-f-name'); s.value = 'Renamed in one column'; s.dispatchEvent(new Event('change', { bubbles: true })); })()`))
+				tb.waitFor("B's figure renamed", `document.querySelector('[data-testid=figure-b] .gl-cmp-name').textContent === 'Renamed in one column'`)
+				if eval[string](tb, `window.glMarker`) != "still here" {
+					t.Error("editing B reloaded the page")
+				}
+				if d := eval[float64](tb, `document.querySelector('[data-testid=form-b]').getBoundingClientRect().top - document.querySelector('[data-testid=figure-b]').getBoundingClientRect().bottom`); d < 0 || d > 400 {
+					t.Errorf("after the update B's form starts %.0f px below B's figure, want 0 to 400", d)
+				}
 			}
 
 			// "Edit B" beside B's figure brings B's form into view (at 390 px A's

@@ -29,6 +29,13 @@ func (s *server) compare(w http.ResponseWriter, r *http.Request) error {
 		return nil
 	}
 	v, styles := s.compareOf(r, c)
+	// The notes of a file just opened on a side, beside that side's file
+	// control; the page's own links (its query) drop them.
+	for i, side := range planform.Sides {
+		for _, n := range r.URL.Query()[side+"."+keyOpenNote] {
+			v.Sides[i].OpenNotes = append(v.Sides[i].OpenNotes, note{Severity: string(grid.Info), Text: n})
+		}
+	}
 	return writeHTML(w, r, v.Status, comparePage(v), styles)
 }
 
@@ -79,11 +86,19 @@ func (s *server) compareOpen(w http.ResponseWriter, r *http.Request) error {
 		f := planform.FormOf(s.cfg.Plan)
 		c, _ = planform.ReadCompare(planform.CompareQuery(f, planform.CopyOf(f), planform.FigureForm{}))
 	}
-	plan, _, status, reasons := readUpload(r)
+	plan, notes, status, reasons := readUpload(r)
 	if status == http.StatusOK {
 		opened := c
 		opened.Sides[i].Form = planform.FormOf(plan)
 		if query := opened.Query(); len(query) <= MaxQuery {
+			// What reading the file skipped or assumed rides on the
+			// redirect, as the planner's Open does, keyed by the side, in
+			// what room the link has left (the last note, saying how many
+			// more there were, may take 200 bytes beyond it).
+			room := min(maxOpenNotesQuery, MaxQuery-len(query)-1-200)
+			if room > 0 {
+				query = planform.JoinQuery(query, notesQuery(side+"."+keyOpenNote, notes, room))
+			}
 			http.Redirect(w, r, "/compare?"+query, http.StatusSeeOther)
 			return nil
 		}

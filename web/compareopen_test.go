@@ -2,10 +2,12 @@ package web
 
 import (
 	"net/http"
+	"net/url"
 	"strings"
 	"testing"
 
 	"gridloom/grid/planfile"
+	"gridloom/grid/rrc"
 	"gridloom/web/planform"
 )
 
@@ -48,4 +50,52 @@ func TestCompareOpen(t *testing.T) {
 
 	r = post(t, srv, "/compare/open?side=c&"+from, ctype, body)
 	wantStatus(t, r, http.StatusUnprocessableEntity) // as /compare/figure.svg refuses a side
+}
+
+// TestCompareOpenValueNotation: value notation opened on a compare side
+// (its Open button, POST /compare/open) keeps what reading it skipped or
+// assumed, as the planner's Open does: the notes ride on the redirect as
+// b.open.note keys and show beside B's file control, not A's; the page's
+// own query drops them, since they concern the file, not the plan.
+func TestCompareOpenValueNotation(t *testing.T) {
+	cfg := testConfig(t)
+	srv, _ := newTestServer(t, cfg)
+	p := initialCampus(t)
+	text, err := rrc.Encode(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	campus := planform.FormOf(cfg.Plan)
+	from := planform.CompareQuery(campus, planform.CopyOf(campus), planform.FigureForm{})
+	body, ctype := multipartBody(t, "plan", "cell.asn", append(text, skippedIE...))
+	r := post(t, srv, "/compare/open?side=b&"+from, ctype, body)
+	wantStatus(t, r, http.StatusSeeOther)
+	loc, err := url.Parse(r.Header.Get("Location"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	notes := loc.Query()["b."+keyOpenNote]
+	if len(notes) == 0 || !strings.Contains(notes[0], "Skipped") || !strings.Contains(notes[0], "other-cell") {
+		t.Fatalf("the notes on the redirect %q do not name the skipped value", notes)
+	}
+	if a := loc.Query()["a."+keyOpenNote]; len(a) != 0 {
+		t.Errorf("A, not opened, has notes %q", a)
+	}
+	page := get(t, srv, loc.String())
+	wantStatus(t, page, http.StatusOK)
+	wantContains(t, "note beside B's file control", noteText(t, page.body, "f-b-file"), "Skipped", "other-cell")
+	if a := noteText(t, page.body, "f-a-file"); strings.Contains(a, "other-cell") {
+		t.Errorf("A's file control shows B's notes: %s", a)
+	}
+	if strings.Contains(between(page.body, `data-query="`, `"`), "open.note") {
+		t.Error("the comparison's query carries the notes")
+	}
+	// The plan opened is the file's, on B, with A kept.
+	c, _ := planform.ReadCompare(loc.RawQuery)
+	if got, want := c.Sides[1].Form.Query(), planform.FormOf(p).Query(); got != want {
+		t.Errorf("B differs from the file's plan:\n got %s\nwant %s", got, want)
+	}
+	if got, want := c.Sides[0].Form.Query(), campus.Query(); got != want {
+		t.Errorf("A changed:\n got %s\nwant %s", got, want)
+	}
 }

@@ -161,12 +161,19 @@ const (
 // each cut to maxOpenNote characters, as many as fit maxOpenNotesQuery;
 // a last note says how many more gridloom check would show.
 func openNotesQuery(notes []string) string {
+	return notesQuery(keyOpenNote, notes, maxOpenNotesQuery)
+}
+
+// notesQuery writes notes as key keys, each cut to maxOpenNote characters,
+// as many as fit budget bytes; a last note, of about 100 bytes beyond the
+// budget, says how many more gridloom check would show.
+func notesQuery(key string, notes []string, budget int) string {
 	var parts []string
 	size := 0
 	for i, n := range notes {
-		part := url.Values{keyOpenNote: {planform.Truncate(n, maxOpenNote)}}.Encode()
-		if size+len(part) > maxOpenNotesQuery {
-			parts = append(parts, url.Values{keyOpenNote: {fmt.Sprintf("And %d more notes; gridloom check on the file shows them all.", len(notes)-i)}}.Encode())
+		part := url.Values{key: {planform.Truncate(n, maxOpenNote)}}.Encode()
+		if size+len(part) > budget {
+			parts = append(parts, url.Values{key: {fmt.Sprintf("And %d more notes; gridloom check on the file shows them all.", len(notes)-i)}}.Encode())
 			break
 		}
 		parts = append(parts, part)

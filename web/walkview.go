@@ -179,16 +179,24 @@ func walkFigureOptions(st planform.State, prefix, view string) render.Options {
 	return opt
 }
 
-// projectorPreset is the projector's own layout: the slide preset's 640
-// px, whose type is about twice what the page's 1200 px layout shows on
-// the same screen (issue 19 found 5 px text at 1024×768), with a plot 200
-// px high, so that plot, axes and legend (some 700 px for a demo plan)
-// fit a screen's height beside the narration.
+// projectorPreset is the projector's own layout: the slide preset's 12 pt
+// on a 16:9 slide's width, with the plot laid out in the narrowest layout
+// a preset may take (560 px), 300 px high, and the key in a column beside
+// it (render.Preset.KeyBeside), so that the figure is about twice as wide
+// as high (988 × 520 layout px for the campus plan), the shape a screen
+// leaves over the narration's band below it (static/app.css). Issue 19
+// found 5 px text at 1024×768 with the page's 1200 px layout; here the
+// figure is shown at least as wide as its layout on such a screen, so its
+// 8 px letters stay 8 px.
 func projectorPreset() render.Preset {
 	p, err := render.ParsePreset("slide")
 	if err != nil || p == nil {
 		return render.Preset{}
 	}
-	p.PlotHeight = 200
+	// The printed width for which 8 px letters at 12 pt give 560 layout px.
+	p.PrintedMM = 560 * p.MinPt / render.MinTextPx / (72 / 25.4)
+	p.Width = 2 * 560
+	p.PlotHeight = 300
+	p.KeyBeside = true
 	return *p
 }
