@@ -309,6 +309,12 @@ func (w *typeWalk) errorf(format string, args ...any) {
 	w.errs = append(w.errs, fmt.Sprintf(format, args...))
 }
 
+// outside reports whether n (a count of elements or bits, or an integer)
+// lies outside the bounds rt gives; false when rt has none.
+func (w *typeWalk) outside(rt *asnType, n int64) bool {
+	return rt.lo != "" && (n < int64(w.m.bound(rt.lo)) || n > int64(w.m.bound(rt.hi)))
+}
+
 func mentions(v *asn1v.Value, name string) bool {
 	for _, c := range v.Comments {
 		for _, word := range strings.FieldsFunc(c.Text, func(r rune) bool { return r == ' ' || r == ',' || r == ':' || r == '(' || r == ')' || r == ';' }) {
@@ -364,7 +370,7 @@ func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 			w.errorf("%s: %s is a SEQUENCE OF, written as a %s", path, typeName, v.Kind)
 			return
 		}
-		if rt.lo != "" && (len(v.Elems) < w.m.bound(rt.lo) || len(v.Elems) > w.m.bound(rt.hi)) {
+		if w.outside(rt, int64(len(v.Elems))) {
 			w.errorf("%s: %d elements, but %s allows %s to %s", path, len(v.Elems), typeName, rt.lo, rt.hi)
 		}
 		for i, e := range v.Elems {
@@ -392,7 +398,7 @@ func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 			w.errorf("%s: %s is an INTEGER, written as a %s", path, typeName, v.Kind)
 			return
 		}
-		if rt.lo != "" && (v.Int < int64(w.m.bound(rt.lo)) || v.Int > int64(w.m.bound(rt.hi))) {
+		if w.outside(rt, v.Int) {
 			w.errorf("%s: %d is outside %s (%s..%s)", path, v.Int, typeName, rt.lo, rt.hi)
 		}
 	case "BITSTRING":
@@ -400,7 +406,7 @@ func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 			w.errorf("%s: %s is a BIT STRING, written as a %s", path, typeName, v.Kind)
 			return
 		}
-		if rt.lo != "" && (len(v.Text) < w.m.bound(rt.lo) || len(v.Text) > w.m.bound(rt.hi)) {
+		if w.outside(rt, int64(len(v.Text))) {
 			w.errorf("%s: %d bits, but %s has SIZE (%s..%s)", path, len(v.Text), typeName, rt.lo, rt.hi)
 		}
 	default:
