@@ -326,6 +326,19 @@ func mentions(v *asn1v.Value, name string) bool {
 	return false
 }
 
+// shapes are the value shapes of the excerpt's kinds that take one shape
+// (an ENUMERATED value is checked against its names instead).
+var shapes = map[string]struct {
+	kind asn1v.Kind
+	name string
+}{
+	"SEQUENCE":  {asn1v.Sequence, "a SEQUENCE"},
+	"SEQOF":     {asn1v.SequenceOf, "a SEQUENCE OF"},
+	"CHOICE":    {asn1v.Choice, "a CHOICE"},
+	"INTEGER":   {asn1v.Integer, "an INTEGER"},
+	"BITSTRING": {asn1v.BitString, "a BIT STRING"},
+}
+
 func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 	rt := w.m.resolve(t, nil)
 	if rt == nil {
@@ -335,12 +348,12 @@ func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 	if t.kind == "REF" && len(t.params) == 0 {
 		typeName = t.ref
 	}
+	if want, ok := shapes[rt.kind]; ok && v.Kind != want.kind {
+		w.errorf("%s: %s is %s, written as a %s", path, typeName, want.name, v.Kind)
+		return
+	}
 	switch rt.kind {
 	case "SEQUENCE":
-		if v.Kind != asn1v.Sequence {
-			w.errorf("%s: %s is a SEQUENCE, written as a %s", path, typeName, v.Kind)
-			return
-		}
 		last := -1
 		for _, f := range v.Fields {
 			i := slices.IndexFunc(rt.comps, func(c asnComp) bool { return c.name == f.Name })
@@ -366,10 +379,6 @@ func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 			}
 		}
 	case "SEQOF":
-		if v.Kind != asn1v.SequenceOf {
-			w.errorf("%s: %s is a SEQUENCE OF, written as a %s", path, typeName, v.Kind)
-			return
-		}
 		if w.outside(rt, int64(len(v.Elems))) {
 			w.errorf("%s: %d elements, but %s allows %s to %s", path, len(v.Elems), typeName, rt.lo, rt.hi)
 		}
@@ -377,10 +386,6 @@ func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 			w.walk(fmt.Sprintf("%s[%d]", path, i), typeName, e, rt.elem)
 		}
 	case "CHOICE":
-		if v.Kind != asn1v.Choice {
-			w.errorf("%s: %s is a CHOICE, written as a %s", path, typeName, v.Kind)
-			return
-		}
 		i := slices.IndexFunc(rt.comps, func(c asnComp) bool { return c.name == v.Name })
 		if i < 0 {
 			w.errorf("%s: %s has no alternative %s", path, typeName, v.Name)
@@ -394,18 +399,10 @@ func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 		}
 		w.enums++
 	case "INTEGER":
-		if v.Kind != asn1v.Integer {
-			w.errorf("%s: %s is an INTEGER, written as a %s", path, typeName, v.Kind)
-			return
-		}
 		if w.outside(rt, v.Int) {
 			w.errorf("%s: %d is outside %s (%s..%s)", path, v.Int, typeName, rt.lo, rt.hi)
 		}
 	case "BITSTRING":
-		if v.Kind != asn1v.BitString {
-			w.errorf("%s: %s is a BIT STRING, written as a %s", path, typeName, v.Kind)
-			return
-		}
 		if w.outside(rt, int64(len(v.Text))) {
 			w.errorf("%s: %d bits, but %s has SIZE (%s..%s)", path, len(v.Text), typeName, rt.lo, rt.hi)
 		}
