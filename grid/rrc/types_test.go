@@ -699,3 +699,35 @@ func TestPartitionsAreBWPs(t *testing.T) {
 		checkPlanValues(t, m, name, p)
 	}
 }
+
+// TestTypeWalkBounds: the walk holds INTEGER values and SEQUENCE OF sizes
+// to the excerpt's bounds. TS 38.331 V17.1.0: BWP-Id ::= INTEGER
+// (0..maxNrofBWPs) and SEQUENCE (SIZE (1..maxSCSs)) OF SCS-SpecificCarrier,
+// with maxNrofBWPs = 4 and maxSCSs = 5 (clause 6.4).
+func TestTypeWalkBounds(t *testing.T) {
+	m := loadTypes(t)
+	if m.bound("maxNrofBWPs") != 4 || m.bound("maxSCSs") != 5 {
+		t.Fatalf("the excerpt has maxNrofBWPs %d and maxSCSs %d; TS 38.331 6.4 has 4 and 5", m.bound("maxNrofBWPs"), m.bound("maxSCSs"))
+	}
+	list := &asnType{kind: "SEQOF", lo: "1", hi: "maxSCSs", elem: &asnType{kind: "INTEGER"}}
+	for _, c := range []struct {
+		name string
+		v    *asn1v.Value
+		t    *asnType
+		want string // "" for no error
+	}{
+		{"BWP-Id 4", asn1v.Int(4), &asnType{kind: "REF", ref: "BWP-Id"}, ""},
+		{"BWP-Id 5", asn1v.Int(5), &asnType{kind: "REF", ref: "BWP-Id"}, "5 is outside BWP-Id (0..maxNrofBWPs)"},
+		{"BWP-Id -1", asn1v.Int(-1), &asnType{kind: "REF", ref: "BWP-Id"}, "-1 is outside"},
+		{"5 carriers", asn1v.SeqOf(asn1v.Int(0), asn1v.Int(0), asn1v.Int(0), asn1v.Int(0), asn1v.Int(0)), list, ""},
+		{"no carrier", asn1v.SeqOf(), list, "0 elements, but list allows 1 to maxSCSs"},
+		{"6 carriers", asn1v.SeqOf(asn1v.Int(0), asn1v.Int(0), asn1v.Int(0), asn1v.Int(0), asn1v.Int(0), asn1v.Int(0)), list, "6 elements"},
+	} {
+		w := &typeWalk{m: m, fields: map[string]bool{}}
+		w.walk("test", "list", c.v, c.t)
+		got := strings.Join(w.errs, "; ")
+		if (c.want == "") != (got == "") || !strings.Contains(got, c.want) {
+			t.Errorf("%s: errors %q, want %q", c.name, got, c.want)
+		}
+	}
+}
