@@ -797,11 +797,12 @@ func checkOverlaps(fs *findings, ls []Lattice, ch Channel) []Overlap {
 	var out []Overlap
 	for i, a := range ls {
 		for _, b := range ls[i+1:] {
-			over := min(a.High, b.High) - max(a.Low, b.Low)
+			lo, hi := max(a.Low, b.Low), min(a.High, b.High)
+			over := hi - lo
 			if over <= 0 {
 				continue
 			}
-			out = append(out, Overlap{A: a.Index, B: b.Index, Low: max(a.Low, b.Low), High: min(a.High, b.High), Error: a.Direction == b.Direction})
+			out = append(out, Overlap{A: a.Index, B: b.Index, Low: lo, High: hi, Error: a.Direction == b.Direction})
 			f := fmt.Sprintf("partitions[%d].startCrb", b.Index)
 			why := ""
 			if a.Numerology.SCSKHz() != b.Numerology.SCSKHz() && over < Hz(max(a.Numerology.SCSKHz(), b.Numerology.SCSKHz()))*1000 {

@@ -178,8 +178,9 @@ func ssbUnits(rng Range, commonKHz int) (rbUnit, kUnit Hz, kMax, multiple int) {
 	return 15e3, 15e3, 12*commonKHz/15 - 1, max(1, commonKHz/15)
 }
 
-// defaultCommon is subCarrierSpacingCommon when the plan leaves it out.
-func defaultCommon(rng Range, ssbKHz int) int {
+// DefaultSCSCommon is the subCarrierSpacingCommon gridloom assumes when
+// ssb.scsCommonKHz is empty: 120 kHz in FR2-1, else the block's spacing.
+func DefaultSCSCommon(rng Range, ssbKHz int) int {
 	if rng == FR2_1 {
 		return 120
 	}
@@ -189,14 +190,7 @@ func defaultCommon(rng Range, ssbKHz int) int {
 // SCSCommonChoices lists the subCarrierSpacingCommon values of a range
 // in kHz (TS 38.331 MIB: scs15or60 and scs30or120; in FR2-2 the common
 // spacing is the block's, so its data spacings), for a form's choice.
-func SCSCommonChoices(rng Range) []int { return commonChoices(rng) }
-
-// DefaultSCSCommon is the subCarrierSpacingCommon gridloom assumes when
-// ssb.scsCommonKHz is empty: 120 kHz in FR2-1, else the block's spacing.
-func DefaultSCSCommon(rng Range, ssbKHz int) int { return defaultCommon(rng, ssbKHz) }
-
-// commonChoices lists the subCarrierSpacingCommon values of a range.
-func commonChoices(rng Range) []int {
+func SCSCommonChoices(rng Range) []int {
 	switch rng {
 	case FR1:
 		return []int{15, 30}
@@ -295,11 +289,11 @@ func checkSSB(fs *findings, rng Range, s *SSBPlan, ch Channel, freq Hz, freqKnow
 	}
 	common := s.ScsCommonKHz
 	if common == 0 {
-		common = defaultCommon(rng, s.SCSKHz)
+		common = DefaultSCSCommon(rng, s.SCSKHz)
 	}
-	if !slices.Contains(commonChoices(rng), common) {
-		fail("ssb.scsCommonKHz", "ssb.scsCommonKHz %d is not a subCarrierSpacingCommon of %s; use %s kHz.", common, rng, JoinInts(commonChoices(rng)))
-		common = defaultCommon(rng, s.SCSKHz)
+	if !slices.Contains(SCSCommonChoices(rng), common) {
+		fail("ssb.scsCommonKHz", "ssb.scsCommonKHz %d is not a subCarrierSpacingCommon of %s; use %s kHz.", common, rng, JoinInts(SCSCommonChoices(rng)))
+		common = DefaultSCSCommon(rng, s.SCSKHz)
 	}
 	if s.ScsCommonKHz != 0 && common != s.SCSKHz && !CommonIsSpacing(rng, ch.Band) {
 		// TS 38.331 MIB, subCarrierSpacingCommon: in FR2-2 and with shared

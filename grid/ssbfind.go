@@ -75,10 +75,10 @@ func SSBPositions(plan Plan, band string) (SSBSearch, error) {
 		return SSBSearch{}, fmt.Errorf("ssb.scsKHz %s is not an SS/PBCH block spacing of %s; use %s kHz, or name a band", given(out.SCSKHz), rng, JoinInts(rng.SSBSCS()))
 	}
 	if out.ScsCommonKHz == 0 {
-		out.ScsCommonKHz = defaultCommon(rng, out.SCSKHz)
+		out.ScsCommonKHz = DefaultSCSCommon(rng, out.SCSKHz)
 	}
-	if !slices.Contains(commonChoices(rng), out.ScsCommonKHz) {
-		return SSBSearch{}, fmt.Errorf("ssb.scsCommonKHz %d is not a subCarrierSpacingCommon of %s; use %s kHz", out.ScsCommonKHz, rng, JoinInts(commonChoices(rng)))
+	if !slices.Contains(SCSCommonChoices(rng), out.ScsCommonKHz) {
+		return SSBSearch{}, fmt.Errorf("ssb.scsCommonKHz %d is not a subCarrierSpacingCommon of %s; use %s kHz", out.ScsCommonKHz, rng, JoinInts(SCSCommonChoices(rng)))
 	}
 
 	lo, hi, within := ssbWindow(r, out.SCSKHz, out.ScsCommonKHz)

@@ -56,8 +56,8 @@ func syncRaster(r Result, rng Range, sp *SSBPlan) *SyncRaster {
 	if r.SSB != nil {
 		common = r.SSB.ScsCommonKHz // the default filled in
 	}
-	if !slices.Contains(commonChoices(rng), common) {
-		common = defaultCommon(rng, e.SCSKHz)
+	if !slices.Contains(SCSCommonChoices(rng), common) {
+		common = DefaultSCSCommon(rng, e.SCSKHz)
 	}
 	out := &SyncRaster{Band: e.Band, SCSKHz: e.SCSKHz, Case: e.Case, ScsCommonKHz: common}
 	// The raster points from the channel's lower edge to its upper edge.

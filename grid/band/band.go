@@ -221,7 +221,8 @@ func (b Band) ListsARFCNs() bool { return slices.Contains(listedARFCNBands[:], b
 
 // SharedSpectrum reports whether an FR1 band is operated with shared
 // spectrum channel access: n46, n96 and n102 (TS 38.101-1 Table 5.2-1,
-// from memory). TS 38.331 and TS 38.213 give some fields another meaning
+// Release 17, from memory; srsRAN's copy of TS 38.104 Table 5.2-1 agrees on
+// every FR1 band, TestSharedSpectrumAgainstSrsRAN). TS 38.331 and TS 38.213 give some fields another meaning
 // there (the MIB's subCarrierSpacingCommon, for one).
 func SharedSpectrum(name string) bool {
 	return name == "n46" || name == "n96" || name == "n102"

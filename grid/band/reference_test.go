@@ -287,3 +287,37 @@ func TestChannelBandwidthsAgainstRel15(t *testing.T) {
 	t.Logf("Table 5.3.5-1 against Release 15 V15.7.0: %d cells compared, %d differ (all Release 16/17 additions), %d rows of bands not carried here skipped",
 		compared, differs, skipped)
 }
+
+// TestSharedSpectrumAgainstSrsRAN compares SharedSpectrum (TS 38.101-1
+// Table 5.2-1, from memory) band by band, over every FR1 band gridloom
+// carries, with srsRAN's list of the bands TS 38.104 Table 5.2-1 restricts
+// to shared spectrum channel access
+// (testdata/reference/band/srsran-shared-spectrum.tsv).
+func TestSharedSpectrumAgainstSrsRAN(t *testing.T) {
+	copyBands := map[string]bool{}
+	for _, r := range readTSV(t, "srsran-shared-spectrum.tsv") {
+		copyBands[r["band"]] = true
+	}
+	if len(copyBands) != 3 {
+		t.Fatalf("the copy lists %d bands, want its 3", len(copyBands))
+	}
+	compared, differ := 0, 0
+	for _, b := range All() {
+		if b.Range != "FR1" {
+			continue
+		}
+		compared++
+		if SharedSpectrum(b.Name) != copyBands[b.Name] {
+			differ++
+			t.Errorf("%s: SharedSpectrum %v, srsRAN's copy %v", b.Name, SharedSpectrum(b.Name), copyBands[b.Name])
+		}
+		delete(copyBands, b.Name)
+	}
+	for name := range copyBands {
+		t.Errorf("srsRAN's copy lists %s, a band gridloom does not carry", name)
+	}
+	if compared < 50 {
+		t.Errorf("only %d FR1 bands compared", compared)
+	}
+	t.Logf("shared spectrum channel access against srsRAN: %d FR1 bands compared, %d differ", compared, differ)
+}

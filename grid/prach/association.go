@@ -150,9 +150,9 @@ func Associate(s Spectrum, index, mu, fdm int, ssb []int, n SSBPerRO, layout Lay
 	return a, nil
 }
 
-// MaxPatternFrames is the longest association pattern period, 160 ms
+// maxPatternFrames is the longest association pattern period, 160 ms
 // (TS 38.213 clause 8.1), in radio frames.
-const MaxPatternFrames = 16
+const maxPatternFrames = 16
 
 // AssociationPatternPeriod returns the association pattern period of
 // TS 38.213 clause 8.1 in radio frames: "an association pattern period
@@ -170,8 +170,8 @@ const MaxPatternFrames = 16
 // last of them ("PRACH occasions not associated ... after an integer number
 // of association periods ... are not used" then selects none).
 func AssociationPatternPeriod(associationFrames, repeatFrames int) (int, error) {
-	if associationFrames < 1 || associationFrames > MaxPatternFrames {
-		return 0, fmt.Errorf("the association period is %d frames; TS 38.213 Table 8.1-1 allows 1 to %d", associationFrames, MaxPatternFrames)
+	if associationFrames < 1 || associationFrames > maxPatternFrames {
+		return 0, fmt.Errorf("the association period is %d frames; TS 38.213 Table 8.1-1 allows 1 to %d", associationFrames, maxPatternFrames)
 	}
 	if repeatFrames < 1 {
 		return 0, fmt.Errorf("the frames repeat every %d frames; it must be at least 1", repeatFrames)
@@ -181,7 +181,7 @@ func AssociationPatternPeriod(associationFrames, repeatFrames int) (int, error) 
 		a, b = b, a%b
 	}
 	p := associationFrames / a * repeatFrames
-	if p > MaxPatternFrames {
+	if p > maxPatternFrames {
 		return 0, fmt.Errorf("an association period of %d frames and frames that repeat every %d repeat together only every %d ms, beyond the 160 ms of TS 38.213 8.1",
 			associationFrames, repeatFrames, 10*p)
 	}

@@ -309,6 +309,12 @@ func (w *typeWalk) errorf(format string, args ...any) {
 	w.errs = append(w.errs, fmt.Sprintf(format, args...))
 }
 
+// outside reports whether n (a count of elements or bits, or an integer)
+// lies outside the bounds rt gives; false when rt has none.
+func (w *typeWalk) outside(rt *asnType, n int64) bool {
+	return rt.lo != "" && (n < int64(w.m.bound(rt.lo)) || n > int64(w.m.bound(rt.hi)))
+}
+
 func mentions(v *asn1v.Value, name string) bool {
 	for _, c := range v.Comments {
 		for _, word := range strings.FieldsFunc(c.Text, func(r rune) bool { return r == ' ' || r == ',' || r == ':' || r == '(' || r == ')' || r == ';' }) {
@@ -320,6 +326,19 @@ func mentions(v *asn1v.Value, name string) bool {
 	return false
 }
 
+// shapes are the value shapes of the excerpt's kinds that take one shape
+// (an ENUMERATED value is checked against its names instead).
+var shapes = map[string]struct {
+	kind asn1v.Kind
+	name string
+}{
+	"SEQUENCE":  {asn1v.Sequence, "a SEQUENCE"},
+	"SEQOF":     {asn1v.SequenceOf, "a SEQUENCE OF"},
+	"CHOICE":    {asn1v.Choice, "a CHOICE"},
+	"INTEGER":   {asn1v.Integer, "an INTEGER"},
+	"BITSTRING": {asn1v.BitString, "a BIT STRING"},
+}
+
 func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 	rt := w.m.resolve(t, nil)
 	if rt == nil {
@@ -329,12 +348,12 @@ func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 	if t.kind == "REF" && len(t.params) == 0 {
 		typeName = t.ref
 	}
+	if want, ok := shapes[rt.kind]; ok && v.Kind != want.kind {
+		w.errorf("%s: %s is %s, written as a %s", path, typeName, want.name, v.Kind)
+		return
+	}
 	switch rt.kind {
 	case "SEQUENCE":
-		if v.Kind != asn1v.Sequence {
-			w.errorf("%s: %s is a SEQUENCE, written as a %s", path, typeName, v.Kind)
-			return
-		}
 		last := -1
 		for _, f := range v.Fields {
 			i := slices.IndexFunc(rt.comps, func(c asnComp) bool { return c.name == f.Name })
@@ -360,21 +379,13 @@ func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 			}
 		}
 	case "SEQOF":
-		if v.Kind != asn1v.SequenceOf {
-			w.errorf("%s: %s is a SEQUENCE OF, written as a %s", path, typeName, v.Kind)
-			return
-		}
-		if rt.lo != "" && (len(v.Elems) < w.m.bound(rt.lo) || len(v.Elems) > w.m.bound(rt.hi)) {
+		if w.outside(rt, int64(len(v.Elems))) {
 			w.errorf("%s: %d elements, but %s allows %s to %s", path, len(v.Elems), typeName, rt.lo, rt.hi)
 		}
 		for i, e := range v.Elems {
 			w.walk(fmt.Sprintf("%s[%d]", path, i), typeName, e, rt.elem)
 		}
 	case "CHOICE":
-		if v.Kind != asn1v.Choice {
-			w.errorf("%s: %s is a CHOICE, written as a %s", path, typeName, v.Kind)
-			return
-		}
 		i := slices.IndexFunc(rt.comps, func(c asnComp) bool { return c.name == v.Name })
 		if i < 0 {
 			w.errorf("%s: %s has no alternative %s", path, typeName, v.Name)
@@ -388,19 +399,11 @@ func (w *typeWalk) walk(path, typeName string, v *asn1v.Value, t *asnType) {
 		}
 		w.enums++
 	case "INTEGER":
-		if v.Kind != asn1v.Integer {
-			w.errorf("%s: %s is an INTEGER, written as a %s", path, typeName, v.Kind)
-			return
-		}
-		if rt.lo != "" && (v.Int < int64(w.m.bound(rt.lo)) || v.Int > int64(w.m.bound(rt.hi))) {
+		if w.outside(rt, v.Int) {
 			w.errorf("%s: %d is outside %s (%s..%s)", path, v.Int, typeName, rt.lo, rt.hi)
 		}
 	case "BITSTRING":
-		if v.Kind != asn1v.BitString {
-			w.errorf("%s: %s is a BIT STRING, written as a %s", path, typeName, v.Kind)
-			return
-		}
-		if rt.lo != "" && (len(v.Text) < w.m.bound(rt.lo) || len(v.Text) > w.m.bound(rt.hi)) {
+		if w.outside(rt, int64(len(v.Text))) {
 			w.errorf("%s: %d bits, but %s has SIZE (%s..%s)", path, len(v.Text), typeName, rt.lo, rt.hi)
 		}
 	default:
@@ -518,13 +521,16 @@ func TestEnumerationsAreTS38331(t *testing.T) {
 		"n-TimingAdvanceOffset":                     names(comp("ServingCellConfigCommon", "n-TimingAdvanceOffset")),
 	}
 	got := rrc.Enumerations()
+	cells := 0
 	for key, want := range spec {
 		// spare values name no value a plan can take.
 		want = slices.DeleteFunc(slices.Clone(want), func(s string) bool { return strings.HasPrefix(s, "spare") })
 		if !slices.Equal(got[key], want) {
 			t.Errorf("%s: gridloom spells %v, TS 38.331 V17.1.0 %v", key, got[key], want)
 		}
+		cells += len(want)
 	}
+	t.Logf("%d enumerations, %d values compared with TS 38.331 V17.1.0", len(spec), cells)
 	if len(got) != len(spec) {
 		t.Errorf("gridloom has %d enumerations, the check covers %d", len(got), len(spec))
 	}
@@ -691,5 +697,37 @@ func TestPartitionsAreBWPs(t *testing.T) {
 	m := loadTypes(t)
 	for name, p := range exportPlans(t) {
 		checkPlanValues(t, m, name, p)
+	}
+}
+
+// TestTypeWalkBounds: the walk holds INTEGER values and SEQUENCE OF sizes
+// to the excerpt's bounds. TS 38.331 V17.1.0: BWP-Id ::= INTEGER
+// (0..maxNrofBWPs) and SEQUENCE (SIZE (1..maxSCSs)) OF SCS-SpecificCarrier,
+// with maxNrofBWPs = 4 and maxSCSs = 5 (clause 6.4).
+func TestTypeWalkBounds(t *testing.T) {
+	m := loadTypes(t)
+	if m.bound("maxNrofBWPs") != 4 || m.bound("maxSCSs") != 5 {
+		t.Fatalf("the excerpt has maxNrofBWPs %d and maxSCSs %d; TS 38.331 6.4 has 4 and 5", m.bound("maxNrofBWPs"), m.bound("maxSCSs"))
+	}
+	list := &asnType{kind: "SEQOF", lo: "1", hi: "maxSCSs", elem: &asnType{kind: "INTEGER"}}
+	for _, c := range []struct {
+		name string
+		v    *asn1v.Value
+		t    *asnType
+		want string // "" for no error
+	}{
+		{"BWP-Id 4", asn1v.Int(4), &asnType{kind: "REF", ref: "BWP-Id"}, ""},
+		{"BWP-Id 5", asn1v.Int(5), &asnType{kind: "REF", ref: "BWP-Id"}, "5 is outside BWP-Id (0..maxNrofBWPs)"},
+		{"BWP-Id -1", asn1v.Int(-1), &asnType{kind: "REF", ref: "BWP-Id"}, "-1 is outside"},
+		{"5 carriers", asn1v.SeqOf(asn1v.Int(0), asn1v.Int(0), asn1v.Int(0), asn1v.Int(0), asn1v.Int(0)), list, ""},
+		{"no carrier", asn1v.SeqOf(), list, "0 elements, but list allows 1 to maxSCSs"},
+		{"6 carriers", asn1v.SeqOf(asn1v.Int(0), asn1v.Int(0), asn1v.Int(0), asn1v.Int(0), asn1v.Int(0), asn1v.Int(0)), list, "6 elements"},
+	} {
+		w := &typeWalk{m: m, fields: map[string]bool{}}
+		w.walk("test", "list", c.v, c.t)
+		got := strings.Join(w.errs, "; ")
+		if (c.want == "") != (got == "") || !strings.Contains(got, c.want) {
+			t.Errorf("%s: errors %q, want %q", c.name, got, c.want)
+		}
 	}
 }

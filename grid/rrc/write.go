@@ -303,12 +303,8 @@ func mibValue(r grid.Result) *asn1v.Value {
 	if !r.CommonIsSpacing() {
 		v.Note(mibLeft(r), commonLeftOut(r))
 	} else {
-		fr := coreset0.FR1
-		if r.Channel.Range == grid.FR2_1 {
-			fr = coreset0.FR2
-		}
-		if c, err := coreset0.SubCarrierSpacingCommonFor(fr, s.ScsCommonKHz); err == nil {
-			common = asn1v.Ident(c.String())
+		if m, _, err := MIBForPlan(r); err == nil {
+			common = asn1v.Ident(m.SubCarrierSpacingCommon.String())
 		}
 		v.Note(mibLeft(r))
 	}
