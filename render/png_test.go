@@ -129,13 +129,7 @@ func textBoxes(d *doc) []image.Rectangle {
 		}
 		x, y := l.pos()
 		w := measure(l) / widthMargin
-		x0 := float64(x)
-		switch l.anchor {
-		case anchorMiddle:
-			x0 -= w / 2
-		case anchorEnd:
-			x0 -= w
-		}
+		x0 := float64(x) + l.anchor.shift(w)
 		pad := w/4 + 3
 		r := image.Rect(int(x0-pad), y-int(l.size)-3, int(x0+w+pad)+1, y+int(l.size*0.35)+3)
 		if l.rotate { // turned −90° about (x, y): the text runs up from y

@@ -92,13 +92,7 @@ func TestPresetMinimumType(t *testing.T) {
 					}
 					// The legend, key, notes and caption stay inside the figure.
 					x, _ := l.pos()
-					x0 := float64(x)
-					switch l.anchor {
-					case anchorMiddle:
-						x0 -= measure(l) / 2
-					case anchorEnd:
-						x0 -= measure(l)
-					}
+					x0 := float64(x) + l.anchor.shift(measure(l))
 					if x0 < -1 || x0+measure(l)/widthMargin > float64(d.w)+1 {
 						t.Errorf("%s %s: %q runs from %.0f to %.0f, outside the %d px layout", p.Name, planName(path), l.runs[0].text, x0, x0+measure(l)/widthMargin, d.w)
 					}

@@ -586,13 +586,7 @@ func (pa *painter) label(dst *image.RGBA, l *label) {
 			prev = g
 		}
 	}
-	shift := 0.0
-	switch l.anchor {
-	case anchorMiddle:
-		shift = -pen / 2
-	case anchorEnd:
-		shift = -pen
-	}
+	shift := l.anchor.shift(pen)
 	xi, yi := l.pos()
 	x0, y0 := float64(xi), float64(yi)
 	place := func(p pt, gx float64) pt {

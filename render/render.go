@@ -173,13 +173,7 @@ func (b *builder) text(l label) {
 func labelBackBox(l *label) pathData {
 	x, y := l.pos()
 	w := measure(l)
-	x0 := float64(x)
-	switch l.anchor {
-	case anchorMiddle:
-		x0 -= w / 2
-	case anchorEnd:
-		x0 -= w
-	}
+	x0 := float64(x) + l.anchor.shift(w)
 	const pad = 1.5
 	return pathOf(func(p *pathData) {
 		p.rect(x0-pad, float64(y)-0.8*l.size-pad, x0+w+pad, float64(y)+0.25*l.size+pad)
