@@ -326,17 +326,7 @@ func TestFigurePNGMatchesSVGScaled(t *testing.T) {
 	}{{"slide", 0, true}, {"a4", 0, true}, {"a4", 300, false}} {
 		p, _ := ParsePreset(c.preset)
 		for _, theme := range []Theme{ThemeLight, ThemePrint} {
-			opt := Options{Preset: *p, Theme: theme, DPI: c.dpi}
-			ref := rsvgPNG(t, figure(t, r, opt))
-			got := figurePNG(t, r, opt)
-			if got.Bounds() != ref.Bounds() {
-				t.Fatalf("%s %s: FigurePNG is %v, rsvg-convert %v", c.preset, theme, got.Bounds(), ref.Bounds())
-			}
-			d, err := build(r, opt)
-			if err != nil {
-				t.Fatal(err)
-			}
-			v := comparePNG(toGrey(got), toGrey(ref), scaleDoc(d, float64(d.outW)/float64(d.w)))
+			v := comparePNGWithSVG(t, r, Options{Preset: *p, Theme: theme, DPI: c.dpi})
 			t.Logf("%s %d dpi %s: %v", c.preset, c.dpi, theme, v)
 			switch {
 			case c.whole && !v.ok():
