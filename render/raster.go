@@ -166,7 +166,8 @@ type painter struct {
 	part   []byte        // one group's coverage, for rasterMax
 	tiles  []*image.RGBA // per pattern, made on first use
 	glyphs map[glyphKey]*glyph
-	halo   int // growMask passes for a halo
+	halo   int   // growMask passes for a halo
+	cols   []int // a pattern's texel offset for each column composited
 }
 
 type glyphKey struct {
@@ -419,6 +420,7 @@ func (pa *painter) composite(dst *image.RGBA, at image.Point, m *image.Alpha, p 
 		// A pattern that repeats every period px, not a whole number, has
 		// a tile averaged over pixel footprints (painter.tile): pixel v
 		// takes the footprint that starts at its place in the period.
+		// The texel columns are the same for every row: found once.
 		period := pa.d.patterns[p.pattern].period
 		wrap := func(v int) int {
 			if period == 0 {
@@ -426,6 +428,11 @@ func (pa *painter) composite(dst *image.RGBA, at image.Point, m *image.Alpha, p 
 			}
 			return min(t-1, int(math.Mod(float64(v), period)*float64(t)/period))
 		}
+		cols := pa.cols[:0]
+		for x := range w {
+			cols = append(cols, 4*wrap(at.X+x))
+		}
+		pa.cols = cols
 		for y := range h {
 			row := dst.PixOffset(at.X, at.Y+y)
 			trow := wrap(at.Y+y) * tile.Stride
@@ -433,7 +440,7 @@ func (pa *painter) composite(dst *image.RGBA, at image.Point, m *image.Alpha, p 
 				if mv == 0 {
 					continue
 				}
-				ti := trow + 4*wrap(at.X+x)
+				ti := trow + cols[x]
 				src := tile.Pix[ti : ti+4 : ti+4]
 				if src[3] == 0 {
 					continue
