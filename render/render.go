@@ -270,7 +270,8 @@ func build(r grid.Result, opt Options) (*doc, error) {
 	keyBelow := legendLeft+rowsW+legendGap > width-legendLeft-keyW
 	plotW := width // the layout width the plot and its notes take
 	keyWrap := 0.0 // the key's texts wrap at this width beside the plot
-	if opt.Preset.Name != "" && opt.Preset.KeyBeside {
+	beside := opt.Preset.Name != "" && opt.Preset.KeyBeside
+	if beside {
 		// The key in a column right of the notes, its texts wrapped to
 		// the column; the partition rows below the plot across the whole
 		// figure.
@@ -278,7 +279,6 @@ func build(r grid.Result, opt Options) (*doc, error) {
 		keyW = min(keyW, besideWidth)
 		width += legendGap + keyW + legendLeft
 	}
-	beside := width != plotW
 	avail := float64(width - 2*legendLeft - 40)
 	if !keyBelow && !beside {
 		avail -= float64(keyW + legendGap)
