@@ -205,8 +205,8 @@ func TestPNGScaleAndDPI(t *testing.T) {
 	}
 
 	// 300 dpi: 300 / 0.0254 = 11811.02 px/m (PNG specification 11.3.5.3).
-	if got := PixelsPerMetre(300); got != 11811 {
-		t.Errorf("PixelsPerMetre(300) = %d, want 11811", got)
+	if got := pixelsPerMetre(300); got != 11811 {
+		t.Errorf("pixelsPerMetre(300) = %d, want 11811", got)
 	}
 	a4, _ := ParsePreset("a4")
 	var b bytes.Buffer

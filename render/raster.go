@@ -62,10 +62,10 @@ func FigurePNG(w io.Writer, r grid.Result, opt Options) error {
 // MaxPNGPixels: a request to refuse, not a failure of the renderer.
 var ErrPNGTooLarge = errors.New("render: the PNG is too large")
 
-// PixelsPerMetre is the pHYs chunk's resolution for dpi dots per inch,
+// pixelsPerMetre is the pHYs chunk's resolution for dpi dots per inch,
 // rounded: 300 dpi is 300/0.0254 = 11811.02, so 11811 (PNG specification,
 // 11.3.5.3 pHYs, whose unit is the metre).
-func PixelsPerMetre(dpi int) uint32 { return uint32(math.Round(float64(dpi) / 0.0254)) }
+func pixelsPerMetre(dpi int) uint32 { return uint32(math.Round(float64(dpi) / 0.0254)) }
 
 // withPHYs puts a pHYs chunk saying dpi right after the IHDR chunk of the
 // PNG p, where the PNG specification (5.6, chunk ordering) wants it before
@@ -73,7 +73,7 @@ func PixelsPerMetre(dpi int) uint32 { return uint32(math.Round(float64(dpi) / 0.
 // bytes of data and CRC.
 func withPHYs(p []byte, dpi int) []byte {
 	const afterIHDR = 8 + 4 + 4 + 13 + 4
-	ppm := PixelsPerMetre(dpi)
+	ppm := pixelsPerMetre(dpi)
 	var chunk [4 + 4 + 9 + 4]byte
 	binary.BigEndian.PutUint32(chunk[0:], 9)
 	copy(chunk[4:], "pHYs")
