@@ -3,8 +3,25 @@ package render
 import (
 	"bytes"
 	"fmt"
+	"io"
 	"testing"
+
+	"gridloom/grid"
 )
+
+// drawLoop runs draw(r, opt) for the benchmark's loop into one reused
+// buffer and returns the last drawing, for its size and contents.
+func drawLoop(b *testing.B, draw func(io.Writer, grid.Result, Options) error, r grid.Result, opt Options) []byte {
+	b.Helper()
+	var buf bytes.Buffer
+	for b.Loop() {
+		buf.Reset()
+		if err := draw(&buf, r, opt); err != nil {
+			b.Fatal(err)
+		}
+	}
+	return buf.Bytes()
+}
 
 // initialStress is the plan with the most Type0-PDCCH occasions.
 const initialStress = "../testdata/stress/fr2-1-initial-access.yaml"
@@ -17,15 +34,9 @@ func BenchmarkFigure(b *testing.B) {
 	for _, path := range append(demoPlans(b), stressPlan, initialStress) {
 		r := compute(b, loadPlan(b, path))
 		b.Run(planName(path), func(b *testing.B) {
-			var buf bytes.Buffer
-			for b.Loop() {
-				buf.Reset()
-				if err := Figure(&buf, r, Options{}); err != nil {
-					b.Fatal(err)
-				}
-			}
-			b.SetBytes(int64(buf.Len()))
-			b.ReportMetric(float64(buf.Len()), "svg-bytes")
+			svg := drawLoop(b, Figure, r, Options{})
+			b.SetBytes(int64(len(svg)))
+			b.ReportMetric(float64(len(svg)), "svg-bytes")
 		})
 	}
 }
@@ -50,14 +61,8 @@ func BenchmarkFigurePNG(b *testing.B) {
 		r := compute(b, loadPlan(b, path))
 		for _, width := range []int{DefaultWidth, MaxWidth} {
 			b.Run(fmt.Sprintf("%s-%d", planName(path), width), func(b *testing.B) {
-				var buf bytes.Buffer
-				for b.Loop() {
-					buf.Reset()
-					if err := FigurePNG(&buf, r, Options{Width: width}); err != nil {
-						b.Fatal(err)
-					}
-				}
-				b.ReportMetric(float64(buf.Len()), "png-bytes")
+				img := drawLoop(b, FigurePNG, r, Options{Width: width})
+				b.ReportMetric(float64(len(img)), "png-bytes")
 			})
 		}
 	}
@@ -72,14 +77,8 @@ func BenchmarkFigurePNGPaper(b *testing.B) {
 	a4, _ := ParsePreset("a4")
 	for name, opt := range map[string]Options{"a4-300dpi": {Preset: *a4, DPI: 300}, "scale2": {PNGScale: 2}} {
 		b.Run(name, func(b *testing.B) {
-			var buf bytes.Buffer
-			for b.Loop() {
-				buf.Reset()
-				if err := FigurePNG(&buf, r, opt); err != nil {
-					b.Fatal(err)
-				}
-			}
-			b.ReportMetric(float64(buf.Len()), "png-bytes")
+			img := drawLoop(b, FigurePNG, r, opt)
+			b.ReportMetric(float64(len(img)), "png-bytes")
 		})
 	}
 }

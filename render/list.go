@@ -97,6 +97,17 @@ func (a anchor) String() string {
 	return "start"
 }
 
+// shift is where a text w px wide starts, relative to its anchor point.
+func (a anchor) shift(w float64) float64 {
+	switch a {
+	case anchorMiddle:
+		return -w / 2
+	case anchorEnd:
+		return -w
+	}
+	return 0
+}
+
 // pattern is a tile of tile × tile px repeated from the origin of the
 // figure (patternUnits="userSpaceOnUse"); its shapes are clipped to the tile.
 type pattern struct {

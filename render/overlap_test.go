@@ -88,17 +88,7 @@ func TestOverlapPNGMatchesSVG(t *testing.T) {
 	r := compute(t, overlapPlan())
 	for _, theme := range []Theme{ThemeLight, ThemePrint} {
 		t.Run(theme.String(), func(t *testing.T) {
-			opt := Options{Theme: theme}
-			ref := rsvgPNG(t, figure(t, r, opt))
-			got := figurePNG(t, r, opt)
-			if got.Bounds() != ref.Bounds() {
-				t.Fatalf("FigurePNG is %v, rsvg-convert %v", got.Bounds(), ref.Bounds())
-			}
-			d, err := build(r, opt)
-			if err != nil {
-				t.Fatal(err)
-			}
-			if v := comparePNG(toGrey(got), toGrey(ref), d); !v.ok() {
+			if v := comparePNGWithSVG(t, r, Options{Theme: theme}); !v.ok() {
 				t.Errorf("FigurePNG and rsvg-convert differ: %v", v)
 			}
 		})

@@ -30,6 +30,26 @@ import (
 // Leaving out one small kind of mark moves the far share past the limit:
 // without the three flexible TDD runs of the campus plan (3 of 25 × 10 px)
 // 330 ppm, without its four SS/PBCH blocks 4400 ppm.
+// comparePNGWithSVG draws r with FigurePNG and with rsvg-convert from
+// Figure's SVG, stops the test if their sizes differ, and compares them,
+// the text boxes taken from the layout at the PNG's scale.
+func comparePNGWithSVG(t *testing.T, r grid.Result, opt Options) pngVerdict {
+	t.Helper()
+	ref := rsvgPNG(t, figure(t, r, opt))
+	got := figurePNG(t, r, opt)
+	if got.Bounds() != ref.Bounds() {
+		t.Fatalf("%s %s: FigurePNG is %v, rsvg-convert %v", opt.Preset.Name, opt.Theme, got.Bounds(), ref.Bounds())
+	}
+	d, err := build(r, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if k := float64(d.outW) / float64(d.w); k != 1 {
+		d = scaleDoc(d, k)
+	}
+	return comparePNG(toGrey(got), toGrey(ref), d)
+}
+
 // TestFigurePNGSensitivity keeps the first of these true.
 //
 // Text, each label's box: the mean ink (255 − luminance) of the two
@@ -129,13 +149,7 @@ func textBoxes(d *doc) []image.Rectangle {
 		}
 		x, y := l.pos()
 		w := measure(l) / widthMargin
-		x0 := float64(x)
-		switch l.anchor {
-		case anchorMiddle:
-			x0 -= w / 2
-		case anchorEnd:
-			x0 -= w
-		}
+		x0 := float64(x) + l.anchor.shift(w)
 		pad := w/4 + 3
 		r := image.Rect(int(x0-pad), y-int(l.size)-3, int(x0+w+pad)+1, y+int(l.size*0.35)+3)
 		if l.rotate { // turned −90° about (x, y): the text runs up from y
@@ -225,17 +239,7 @@ func TestFigurePNGMatchesSVG(t *testing.T) {
 		r := compute(t, loadPlan(t, path))
 		for _, theme := range []Theme{ThemeLight, ThemePrint} {
 			t.Run(planName(path)+"-"+theme.String(), func(t *testing.T) {
-				opt := Options{Theme: theme}
-				ref := rsvgPNG(t, figure(t, r, opt))
-				got := figurePNG(t, r, opt)
-				if got.Bounds() != ref.Bounds() {
-					t.Fatalf("FigurePNG is %v, rsvg-convert %v", got.Bounds(), ref.Bounds())
-				}
-				d, err := build(r, opt)
-				if err != nil {
-					t.Fatal(err)
-				}
-				v := comparePNG(toGrey(got), toGrey(ref), d)
+				v := comparePNGWithSVG(t, r, Options{Theme: theme})
 				t.Log(v)
 				if !v.ok() {
 					t.Errorf("FigurePNG and rsvg-convert differ: %v", v)

@@ -1,7 +1,6 @@
 package render
 
 import (
-	"bytes"
 	"fmt"
 	"strings"
 	"testing"
@@ -188,17 +187,11 @@ func BenchmarkFigurePRACH(b *testing.B) {
 					opt.Layers = Layers{}.Hide(LayerPRACH)
 				}
 				b.Run(fmt.Sprintf("%s/width=%d/prach=%s", c.name, width, layer), func(b *testing.B) {
-					var buf bytes.Buffer
 					b.ReportAllocs()
-					for b.Loop() {
-						buf.Reset()
-						if err := Figure(&buf, r, opt); err != nil {
-							b.Fatal(err)
-						}
-					}
-					b.SetBytes(int64(buf.Len()))
-					b.ReportMetric(float64(buf.Len()), "svg-bytes")
-					b.ReportMetric(float64(parseSVG(b, buf.Bytes()).count()), "elements")
+					svg := drawLoop(b, Figure, r, opt)
+					b.SetBytes(int64(len(svg)))
+					b.ReportMetric(float64(len(svg)), "svg-bytes")
+					b.ReportMetric(float64(parseSVG(b, svg).count()), "elements")
 				})
 			}
 		}

@@ -92,13 +92,7 @@ func TestPresetMinimumType(t *testing.T) {
 					}
 					// The legend, key, notes and caption stay inside the figure.
 					x, _ := l.pos()
-					x0 := float64(x)
-					switch l.anchor {
-					case anchorMiddle:
-						x0 -= measure(l) / 2
-					case anchorEnd:
-						x0 -= measure(l)
-					}
+					x0 := float64(x) + l.anchor.shift(measure(l))
 					if x0 < -1 || x0+measure(l)/widthMargin > float64(d.w)+1 {
 						t.Errorf("%s %s: %q runs from %.0f to %.0f, outside the %d px layout", p.Name, planName(path), l.runs[0].text, x0, x0+measure(l)/widthMargin, d.w)
 					}
@@ -211,8 +205,8 @@ func TestPNGScaleAndDPI(t *testing.T) {
 	}
 
 	// 300 dpi: 300 / 0.0254 = 11811.02 px/m (PNG specification 11.3.5.3).
-	if got := PixelsPerMetre(300); got != 11811 {
-		t.Errorf("PixelsPerMetre(300) = %d, want 11811", got)
+	if got := pixelsPerMetre(300); got != 11811 {
+		t.Errorf("pixelsPerMetre(300) = %d, want 11811", got)
 	}
 	a4, _ := ParsePreset("a4")
 	var b bytes.Buffer
@@ -332,17 +326,7 @@ func TestFigurePNGMatchesSVGScaled(t *testing.T) {
 	}{{"slide", 0, true}, {"a4", 0, true}, {"a4", 300, false}} {
 		p, _ := ParsePreset(c.preset)
 		for _, theme := range []Theme{ThemeLight, ThemePrint} {
-			opt := Options{Preset: *p, Theme: theme, DPI: c.dpi}
-			ref := rsvgPNG(t, figure(t, r, opt))
-			got := figurePNG(t, r, opt)
-			if got.Bounds() != ref.Bounds() {
-				t.Fatalf("%s %s: FigurePNG is %v, rsvg-convert %v", c.preset, theme, got.Bounds(), ref.Bounds())
-			}
-			d, err := build(r, opt)
-			if err != nil {
-				t.Fatal(err)
-			}
-			v := comparePNG(toGrey(got), toGrey(ref), scaleDoc(d, float64(d.outW)/float64(d.w)))
+			v := comparePNGWithSVG(t, r, Options{Preset: *p, Theme: theme, DPI: c.dpi})
 			t.Logf("%s %d dpi %s: %v", c.preset, c.dpi, theme, v)
 			switch {
 			case c.whole && !v.ok():

@@ -62,10 +62,10 @@ func FigurePNG(w io.Writer, r grid.Result, opt Options) error {
 // MaxPNGPixels: a request to refuse, not a failure of the renderer.
 var ErrPNGTooLarge = errors.New("render: the PNG is too large")
 
-// PixelsPerMetre is the pHYs chunk's resolution for dpi dots per inch,
+// pixelsPerMetre is the pHYs chunk's resolution for dpi dots per inch,
 // rounded: 300 dpi is 300/0.0254 = 11811.02, so 11811 (PNG specification,
 // 11.3.5.3 pHYs, whose unit is the metre).
-func PixelsPerMetre(dpi int) uint32 { return uint32(math.Round(float64(dpi) / 0.0254)) }
+func pixelsPerMetre(dpi int) uint32 { return uint32(math.Round(float64(dpi) / 0.0254)) }
 
 // withPHYs puts a pHYs chunk saying dpi right after the IHDR chunk of the
 // PNG p, where the PNG specification (5.6, chunk ordering) wants it before
@@ -73,7 +73,7 @@ func PixelsPerMetre(dpi int) uint32 { return uint32(math.Round(float64(dpi) / 0.
 // bytes of data and CRC.
 func withPHYs(p []byte, dpi int) []byte {
 	const afterIHDR = 8 + 4 + 4 + 13 + 4
-	ppm := PixelsPerMetre(dpi)
+	ppm := pixelsPerMetre(dpi)
 	var chunk [4 + 4 + 9 + 4]byte
 	binary.BigEndian.PutUint32(chunk[0:], 9)
 	copy(chunk[4:], "pHYs")
@@ -166,7 +166,8 @@ type painter struct {
 	part   []byte        // one group's coverage, for rasterMax
 	tiles  []*image.RGBA // per pattern, made on first use
 	glyphs map[glyphKey]*glyph
-	halo   int // growMask passes for a halo
+	halo   int   // growMask passes for a halo
+	cols   []int // a pattern's texel offset for each column composited
 }
 
 type glyphKey struct {
@@ -419,6 +420,7 @@ func (pa *painter) composite(dst *image.RGBA, at image.Point, m *image.Alpha, p 
 		// A pattern that repeats every period px, not a whole number, has
 		// a tile averaged over pixel footprints (painter.tile): pixel v
 		// takes the footprint that starts at its place in the period.
+		// The texel columns are the same for every row: found once.
 		period := pa.d.patterns[p.pattern].period
 		wrap := func(v int) int {
 			if period == 0 {
@@ -426,6 +428,11 @@ func (pa *painter) composite(dst *image.RGBA, at image.Point, m *image.Alpha, p 
 			}
 			return min(t-1, int(math.Mod(float64(v), period)*float64(t)/period))
 		}
+		cols := pa.cols[:0]
+		for x := range w {
+			cols = append(cols, 4*wrap(at.X+x))
+		}
+		pa.cols = cols
 		for y := range h {
 			row := dst.PixOffset(at.X, at.Y+y)
 			trow := wrap(at.Y+y) * tile.Stride
@@ -433,7 +440,7 @@ func (pa *painter) composite(dst *image.RGBA, at image.Point, m *image.Alpha, p 
 				if mv == 0 {
 					continue
 				}
-				ti := trow + 4*wrap(at.X+x)
+				ti := trow + cols[x]
 				src := tile.Pix[ti : ti+4 : ti+4]
 				if src[3] == 0 {
 					continue
@@ -586,13 +593,7 @@ func (pa *painter) label(dst *image.RGBA, l *label) {
 			prev = g
 		}
 	}
-	shift := 0.0
-	switch l.anchor {
-	case anchorMiddle:
-		shift = -pen / 2
-	case anchorEnd:
-		shift = -pen
-	}
+	shift := l.anchor.shift(pen)
 	xi, yi := l.pos()
 	x0, y0 := float64(xi), float64(yi)
 	place := func(p pt, gx float64) pt {

@@ -173,13 +173,7 @@ func (b *builder) text(l label) {
 func labelBackBox(l *label) pathData {
 	x, y := l.pos()
 	w := measure(l)
-	x0 := float64(x)
-	switch l.anchor {
-	case anchorMiddle:
-		x0 -= w / 2
-	case anchorEnd:
-		x0 -= w
-	}
+	x0 := float64(x) + l.anchor.shift(w)
 	const pad = 1.5
 	return pathOf(func(p *pathData) {
 		p.rect(x0-pad, float64(y)-0.8*l.size-pad, x0+w+pad, float64(y)+0.25*l.size+pad)
@@ -276,7 +270,8 @@ func build(r grid.Result, opt Options) (*doc, error) {
 	keyBelow := legendLeft+rowsW+legendGap > width-legendLeft-keyW
 	plotW := width // the layout width the plot and its notes take
 	keyWrap := 0.0 // the key's texts wrap at this width beside the plot
-	if opt.Preset.Name != "" && opt.Preset.KeyBeside {
+	beside := opt.Preset.Name != "" && opt.Preset.KeyBeside
+	if beside {
 		// The key in a column right of the notes, its texts wrapped to
 		// the column; the partition rows below the plot across the whole
 		// figure.
@@ -284,7 +279,6 @@ func build(r grid.Result, opt Options) (*doc, error) {
 		keyW = min(keyW, besideWidth)
 		width += legendGap + keyW + legendLeft
 	}
-	beside := width != plotW
 	avail := float64(width - 2*legendLeft - 40)
 	if !keyBelow && !beside {
 		avail -= float64(keyW + legendGap)

@@ -1,7 +1,6 @@
 package render
 
 import (
-	"bytes"
 	"fmt"
 	"testing"
 
@@ -57,17 +56,11 @@ func benchmarkDrawing(b *testing.B, r grid.Result, opt Options) {
 	for _, l := range r.Partitions {
 		cells += l.SymbolCount() * l.SizePRB
 	}
-	var buf bytes.Buffer
 	b.ReportAllocs()
-	for b.Loop() {
-		buf.Reset()
-		if err := Figure(&buf, r, opt); err != nil {
-			b.Fatal(err)
-		}
-	}
+	svg := drawLoop(b, Figure, r, opt)
 	b.ReportMetric(float64(cells), "cells")
 	b.ReportMetric(float64(lines), "lines")
-	b.ReportMetric(float64(buf.Len()), "svg-bytes")
+	b.ReportMetric(float64(len(svg)), "svg-bytes")
 }
 
 // BenchmarkFigureCells: one 960 kHz partition of 1 or 148 PRBs over 1 or
