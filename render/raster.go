@@ -35,7 +35,7 @@ func FigurePNG(w io.Writer, r grid.Result, opt Options) error {
 	k := float64(d.outW) / float64(d.w) * float64(max(1, opt.PNGScale))
 	pw, ph := int(math.Round(float64(d.w)*k)), int(math.Round(float64(d.h)*k))
 	if pw*ph > MaxPNGPixels {
-		return fmt.Errorf("%w: it would be %d × %d px, more than %d pixels; give a smaller width, scale or dpi", ErrPNGTooLarge, pw, ph, MaxPNGPixels)
+		return &PNGSizeError{Width: pw, Height: ph}
 	}
 	halo := 1
 	if k != 1 {
@@ -58,9 +58,26 @@ func FigurePNG(w io.Writer, r grid.Result, opt Options) error {
 	return err
 }
 
-// ErrPNGTooLarge is returned when the options ask for a PNG of more than
-// MaxPNGPixels: a request to refuse, not a failure of the renderer.
+// ErrPNGTooLarge is what a *PNGSizeError is (errors.Is): the options ask
+// for a PNG of more than MaxPNGPixels, a request to refuse, not a failure
+// of the renderer.
 var ErrPNGTooLarge = errors.New("render: the PNG is too large")
+
+// PNGSizeError is returned when the options ask for a PNG of more than
+// MaxPNGPixels; its callers name their own knobs (flags or query keys)
+// beside Size.
+type PNGSizeError struct{ Width, Height int }
+
+// Size says how large the PNG would be, against the limit.
+func (e *PNGSizeError) Size() string {
+	return fmt.Sprintf("it would be %d × %d px, more than %d pixels", e.Width, e.Height, MaxPNGPixels)
+}
+
+func (e *PNGSizeError) Error() string {
+	return ErrPNGTooLarge.Error() + ": " + e.Size() + "; give a smaller width, scale or dpi"
+}
+
+func (e *PNGSizeError) Is(target error) bool { return target == ErrPNGTooLarge }
 
 // pixelsPerMetre is the pHYs chunk's resolution for dpi dots per inch,
 // rounded: 300 dpi is 300/0.0254 = 11811.02, so 11811 (PNG specification,

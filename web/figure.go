@@ -45,8 +45,8 @@ func drawFigure(draw FigureFunc, res grid.Result, opt render.Options) ([]byte, e
 // for a PNG over render.MaxPNGPixels, which the link's fig.width, fig.scale
 // and fig.dpi asked for, otherwise an internal error.
 func figureFailed(err error) *problem {
-	if errors.Is(err, render.ErrPNGTooLarge) {
-		return &problem{status: http.StatusUnprocessableEntity, text: "The PNG cannot be drawn that large (" + strings.TrimPrefix(err.Error(), render.ErrPNGTooLarge.Error()+": ") + "); fig.width, fig.scale and fig.dpi set its size."}
+	if se := (*render.PNGSizeError)(nil); errors.As(err, &se) {
+		return &problem{status: http.StatusUnprocessableEntity, text: "The PNG cannot be drawn that large (" + se.Size() + "); fig.width, fig.scale and fig.dpi set its size."}
 	}
 	return internal("figure", err)
 }

@@ -314,9 +314,8 @@ func runRender(ctx context.Context, args []string, stdin io.Reader, stdout, stde
 			err = cerr
 		}
 	}
-	if errors.Is(err, render.ErrPNGTooLarge) {
-		return &exitError{code: exitBadInput, msg: "the PNG cannot be drawn that large (" +
-			strings.TrimPrefix(err.Error(), render.ErrPNGTooLarge.Error()+": ") + "); -width, -scale and -dpi set its size"}
+	if se := (*render.PNGSizeError)(nil); errors.As(err, &se) {
+		return &exitError{code: exitBadInput, msg: "the PNG cannot be drawn that large (" + se.Size() + "); -width, -scale and -dpi set its size"}
 	}
 	if err != nil {
 		return &exitError{code: exitBadInput, msg: err.Error()}
