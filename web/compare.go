@@ -81,11 +81,12 @@ func (s *server) compareOpen(w http.ResponseWriter, r *http.Request) error {
 		return refusal("The form does not say which side to open the file on:", planform.Messages{"side": fmt.Sprintf("%q is not a side of the comparison; use a or b.", planform.ShortText(side))})
 	}
 	q.Del("side")
-	c, _ := planform.ReadCompare(q.Encode())
+	raw := q.Encode()
 	if len(q) == 0 {
 		f := planform.FormOf(s.cfg.Plan)
-		c, _ = planform.ReadCompare(planform.CompareQuery(f, planform.CopyOf(f), planform.FigureForm{}))
+		raw = planform.CompareQuery(f, planform.CopyOf(f), planform.FigureForm{})
 	}
+	c, _ := planform.ReadCompare(raw)
 	plan, notes, status, reasons := readUpload(r)
 	if status == http.StatusOK {
 		opened := c
