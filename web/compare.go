@@ -31,10 +31,9 @@ func (s *server) compare(w http.ResponseWriter, r *http.Request) error {
 	v, styles := s.compareOf(r, c)
 	// The notes of a file just opened on a side, beside that side's file
 	// control; the page's own links (its query) drop them.
+	q := r.URL.Query()
 	for i, side := range planform.Sides {
-		for _, n := range r.URL.Query()[side+"."+keyOpenNote] {
-			v.Sides[i].OpenNotes = append(v.Sides[i].OpenNotes, note{Severity: string(grid.Info), Text: n})
-		}
+		v.Sides[i].OpenNotes = append(v.Sides[i].OpenNotes, openNotes(q[side+"."+keyOpenNote])...)
 	}
 	return writeHTML(w, r, v.Status, comparePage(v), styles)
 }
