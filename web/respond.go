@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"io"
 
+	"encoding/json"
 	"github.com/a-h/templ"
 	"github.com/klauspost/compress/gzip"
 	"mime"
@@ -78,7 +79,12 @@ func send(w http.ResponseWriter, r *http.Request, status int, ctype string, body
 // sendJSON encodes v into memory first, so an encoding failure is a clean
 // 500 from the caller.
 func sendJSON(w http.ResponseWriter, r *http.Request, status int, v any) error {
-	return sendJSONImport(w, r, status, v, nil)
+	b, err := json.MarshalIndent(v, "", "  ")
+	if err != nil {
+		return err
+	}
+	send(w, r, status, "application/json; charset=utf-8", append(b, '\n'))
+	return nil
 }
 
 // writeHTML renders c into memory and sends it with status, so that a
