@@ -1056,34 +1056,43 @@
     if (file) openFile(upload, file);
   });
 
-  // openFile posts a file to the upload form's action, as the Open button
-  // would, and opens the plan; on a refusal it shows the server's reason
-  // beside the file control.
-  async function openFile(upload, file) {
+  // postFile posts a dropped file to an Open form's action, as its button
+  // would, and opens the plan the server redirects to; on a refusal it
+  // returns the page the server answered, parsed, for the caller to show
+  // the reason beside its file control (undefined when nothing came back).
+  async function postFile(form, file) {
     const body = new FormData();
     body.append('plan', file, file.name);
     setBusy(true);
     let res;
     try {
-      res = await fetch(upload.getAttribute('action'), { method: 'POST', body });
+      res = await fetch(form.getAttribute('action'), { method: 'POST', body });
     } catch (err) {
       setBusy(false);
       trouble('The file could not be sent (' + err.message + '); try the Open control.');
-      return;
+      return undefined;
     }
     if (res.ok && res.redirected) {
       location.assign(res.url);
-      return;
+      return undefined;
     }
     setBusy(false);
-    const page = new DOMParser().parseFromString(await res.text(), 'text/html');
-    const fresh = page.getElementById('gl-upload');
+    return { status: res.status, page: new DOMParser().parseFromString(await res.text(), 'text/html') };
+  }
+
+  // openFile posts a file to the upload form's action, as the Open button
+  // would, and opens the plan; on a refusal it shows the server's reason
+  // beside the file control.
+  async function openFile(upload, file) {
+    const refused = await postFile(upload, file);
+    if (!refused) return;
+    const fresh = refused.page.getElementById('gl-upload');
     if (fresh) {
       patchNotes(fresh);
       const f = byId('f-file');
       if (f) f.focus();
     } else {
-      trouble('The server could not open ' + file.name + ' (' + res.status + ').');
+      trouble('The server could not open ' + file.name + ' (' + refused.status + ').');
     }
   }
 
@@ -1259,33 +1268,19 @@
     if (file) openOnSide(side.querySelector('form.gl-cmp-open'), file);
   });
 
+  // openOnSide is openFile for a compare side's Open form.
   async function openOnSide(form, file) {
-    const body = new FormData();
-    body.append('plan', file, file.name);
-    setBusy(true);
-    let res;
-    try {
-      res = await fetch(form.getAttribute('action'), { method: 'POST', body });
-    } catch (err) {
-      setBusy(false);
-      trouble('The file could not be sent (' + err.message + '); try the Open control.');
-      return;
-    }
-    if (res.ok && res.redirected) {
-      location.assign(res.url);
-      return;
-    }
-    setBusy(false);
+    const refused = await postFile(form, file);
+    if (!refused) return;
     const input = form.querySelector('input[type=file]');
-    const page = new DOMParser().parseFromString(await res.text(), 'text/html');
-    const fresh = input && page.getElementById('n-' + input.id);
+    const fresh = input && refused.page.getElementById('n-' + input.id);
     const cur = input && byId('n-' + input.id);
     if (fresh && cur) {
       cur.replaceWith(document.adoptNode(fresh));
       input.focus();
       byId('n-' + input.id).scrollIntoView({ block: 'nearest' });
     } else {
-      trouble('The server could not open ' + file.name + ' (' + res.status + ').');
+      trouble('The server could not open ' + file.name + ' (' + refused.status + ').');
     }
   }
   // --- end of the readout beside the pointer ---

@@ -31,10 +31,9 @@ func (s *server) compare(w http.ResponseWriter, r *http.Request) error {
 	v, styles := s.compareOf(r, c)
 	// The notes of a file just opened on a side, beside that side's file
 	// control; the page's own links (its query) drop them.
+	q := r.URL.Query()
 	for i, side := range planform.Sides {
-		for _, n := range r.URL.Query()[side+"."+keyOpenNote] {
-			v.Sides[i].OpenNotes = append(v.Sides[i].OpenNotes, note{Severity: string(grid.Info), Text: n})
-		}
+		v.Sides[i].OpenNotes = append(v.Sides[i].OpenNotes, openNotes(q[side+"."+keyOpenNote])...)
 	}
 	return writeHTML(w, r, v.Status, comparePage(v), styles)
 }
@@ -81,11 +80,12 @@ func (s *server) compareOpen(w http.ResponseWriter, r *http.Request) error {
 		return refusal("The form does not say which side to open the file on:", planform.Messages{"side": fmt.Sprintf("%q is not a side of the comparison; use a or b.", planform.ShortText(side))})
 	}
 	q.Del("side")
-	c, _ := planform.ReadCompare(q.Encode())
+	raw := q.Encode()
 	if len(q) == 0 {
 		f := planform.FormOf(s.cfg.Plan)
-		c, _ = planform.ReadCompare(planform.CompareQuery(f, planform.CopyOf(f), planform.FigureForm{}))
+		raw = planform.CompareQuery(f, planform.CopyOf(f), planform.FigureForm{})
 	}
+	c, _ := planform.ReadCompare(raw)
 	plan, notes, status, reasons := readUpload(r)
 	if status == http.StatusOK {
 		opened := c

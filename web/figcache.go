@@ -133,41 +133,45 @@ func cached(c *responseCache, next http.Handler) http.Handler {
 			case <-r.Context().Done():
 				return // gone while waiting: nothing to send, nothing made
 			}
-			f = nil
+			f = nil // the flight made no 200: make this answer alone
 		}
-		if f != nil {
-			defer func() { // unless landed below: no 200, or next panicked
-				if f != nil {
-					c.land(key, f, nil)
-				}
-			}()
-		}
-		plain := r.Clone(r.Context())
-		plain.Header.Del("Accept-Encoding")
-		rec := &recorder{header: http.Header{}}
-		next.ServeHTTP(rec, plain)
-		if rec.status != http.StatusOK {
-			rec.replay(w)
-			return
-		}
-		rec.header.Del("Content-Length")
-		rec.header.Del("Vary")
-		rec.header.Set("Etag", etagOf(rec.body.Bytes()))
-		rec.header.Set("Cache-Control", "no-cache")
-		e := &cachedResponse{query: key, header: rec.header, body: rec.body.Bytes()}
-		if isCompressible(rec.header.Get("Content-Type")) {
-			var gz bytes.Buffer
-			if gzipBytes(&gz, e.body) == nil {
-				e.gz = gz.Bytes()
+		e := func() (e *cachedResponse) {
+			if f != nil { // land before sending, so the waiters need not wait for a paced write
+				defer func() { c.land(key, f, e) }() // nil when no 200, or next panicked
 			}
+			return c.make(key, next, w, r)
+		}()
+		if e != nil {
+			e.sendPaced(w, r, c.pace)
 		}
-		c.put(e)
-		if f != nil {
-			c.land(key, f, e)
-			f = nil
-		}
-		e.sendPaced(w, r, c.pace)
 	})
+}
+
+// make asks next for the plain answer to r and, when it is a 200, keeps
+// it, with its ETag and gzip form, and returns it for the caller to send;
+// any other answer it sends to w itself and returns nil.
+func (c *responseCache) make(key string, next http.Handler, w http.ResponseWriter, r *http.Request) *cachedResponse {
+	plain := r.Clone(r.Context())
+	plain.Header.Del("Accept-Encoding")
+	rec := &recorder{header: http.Header{}}
+	next.ServeHTTP(rec, plain)
+	if rec.status != http.StatusOK {
+		rec.replay(w)
+		return nil
+	}
+	rec.header.Del("Content-Length")
+	rec.header.Del("Vary")
+	rec.header.Set("Etag", etagOf(rec.body.Bytes()))
+	rec.header.Set("Cache-Control", "no-cache")
+	e := &cachedResponse{query: key, header: rec.header, body: rec.body.Bytes()}
+	if isCompressible(rec.header.Get("Content-Type")) {
+		var gz bytes.Buffer
+		if gzipBytes(&gz, e.body) == nil {
+			e.gz = gz.Bytes()
+		}
+	}
+	c.put(e)
+	return e
 }
 
 // send writes the kept answer, gzip-compressed when it has a gzip form and

@@ -878,11 +878,11 @@ func TestHeadBuildsNoBody(t *testing.T) {
 	}
 }
 
-// PNG figures are kept like SVG figures, each under its own route: the
-// second request of a query is not drawn again, and the SVG of the same
-// query is not answered with the PNG.
-func TestPNGFiguresAreCached(t *testing.T) {
-	var pngs atomic.Int64
+// newStandInPNGServer is a test server whose PNG figures are a few
+// stand-in bytes, counted as they are drawn.
+func newStandInPNGServer(t *testing.T) (*httptest.Server, *atomic.Int64) {
+	t.Helper()
+	pngs := new(atomic.Int64)
 	cfg := testConfig(t)
 	cfg.PNG = func(w io.Writer, r grid.Result, opt render.Options) error {
 		pngs.Add(1)
@@ -890,6 +890,14 @@ func TestPNGFiguresAreCached(t *testing.T) {
 		return err
 	}
 	srv, _ := newTestServer(t, cfg)
+	return srv, pngs
+}
+
+// PNG figures are kept like SVG figures, each under its own route: the
+// second request of a query is not drawn again, and the SVG of the same
+// query is not answered with the PNG.
+func TestPNGFiguresAreCached(t *testing.T) {
+	srv, pngs := newStandInPNGServer(t)
 	q := campusQuery(t)
 	a, b := get(t, srv, "/figure.png?"+q), get(t, srv, "/figure.png?"+q)
 	if pngs.Load() != 1 || a.body != b.body || b.Header.Get("Content-Type") != "image/png" {
@@ -907,14 +915,7 @@ func TestPNGFiguresAreCached(t *testing.T) {
 // and clients that are not browsers are answered. Fetch Metadata (W3C
 // Working Draft), the Sec-Fetch-Site and Sec-Fetch-Mode values.
 func TestCrossSiteLoadsRefused(t *testing.T) {
-	var pngs atomic.Int64
-	cfg := testConfig(t)
-	cfg.PNG = func(w io.Writer, r grid.Result, opt render.Options) error {
-		pngs.Add(1)
-		_, err := w.Write([]byte("\x89PNG\r\n\x1a\nstand-in"))
-		return err
-	}
-	srv, _ := newTestServer(t, cfg)
+	srv, pngs := newStandInPNGServer(t)
 	q := campusQuery(t)
 	for _, c := range []struct {
 		site, mode, dest string
@@ -956,14 +957,7 @@ func TestCrossSiteLoadsRefused(t *testing.T) {
 // either encoding; another tag gets the figure. RFC 9110 sections 8.8.3
 // and 13.1.2 (weak comparison, "*").
 func TestFiguresRevalidate(t *testing.T) {
-	var pngs atomic.Int64
-	cfg := testConfig(t)
-	cfg.PNG = func(w io.Writer, r grid.Result, opt render.Options) error {
-		pngs.Add(1)
-		_, err := w.Write([]byte("\x89PNG\r\n\x1a\nstand-in"))
-		return err
-	}
-	srv, _ := newTestServer(t, cfg)
+	srv, pngs := newStandInPNGServer(t)
 	q := campusQuery(t)
 	for _, path := range []string{"/figure.png?" + q, "/figure.svg?" + q} {
 		first := get(t, srv, path)

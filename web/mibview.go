@@ -2,7 +2,6 @@ package web
 
 import (
 	"fmt"
-	"slices"
 	"strconv"
 	"strings"
 
@@ -141,15 +140,13 @@ func mibFacts(res grid.Result, c planform.MIBChoice) []string {
 
 // enumControl is a select of the MIB's two-valued field: empty (its usual
 // value, def) and the two values TS 38.331 spells. A value typed into the
-// address that is neither stays selectable, so it is not lost.
+// address that is neither stays selectable (pick), so it is not lost.
 func enumControl(key, label, value string, values []string, def string, notes []note) control {
-	opts := []option{{Value: "", Label: def + " (default)", Selected: value == ""}}
+	opts := []option{{Value: "", Label: def + " (default)"}}
 	for _, v := range values {
-		opts = append(opts, option{Value: v, Label: v, Selected: value == v})
+		opts = append(opts, option{Value: v, Label: v})
 	}
-	if value != "" && !slices.Contains(values, value) {
-		opts = append(opts, option{Value: value, Label: value, Selected: true})
-	}
+	opts = pick(opts, value, func(string) string { return "not a value of TS 38.331" })
 	return control{ID: planform.KeyID(key), Name: key, Label: label, Value: value, Size: "6", Options: opts, Notes: notes}
 }
 

@@ -35,9 +35,7 @@ func (s *server) planner(w http.ResponseWriter, r *http.Request) error {
 		return nil
 	}
 	v, styles := s.pageOf(r, st)
-	for _, n := range r.URL.Query()[keyOpenNote] {
-		v.Upload.Notes = append(v.Upload.Notes, note{Severity: string(grid.Info), Text: n})
-	}
+	v.Upload.Notes = append(v.Upload.Notes, openNotes(r.URL.Query()[keyOpenNote])...)
 	return writeHTML(w, r, v.Status, page(v), styles)
 }
 
@@ -147,6 +145,16 @@ func uploadName(r *http.Request) string {
 
 // keyOpenNote is the query key of a note about the file just opened.
 const keyOpenNote = "open.note"
+
+// openNotes are the notes about a file just opened, as a query's
+// keyOpenNote values carry them, shown beside the file control.
+func openNotes(texts []string) []note {
+	var notes []note
+	for _, n := range texts {
+		notes = append(notes, note{Severity: string(grid.Info), Text: n})
+	}
+	return notes
+}
 
 // maxOpenNote and maxOpenNotesQuery bound what the notes add to the
 // address: a log of a whole cell can skip hundreds of fields, and the

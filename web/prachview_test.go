@@ -316,14 +316,7 @@ func TestPRACHSpanHidesOccasions(t *testing.T) {
 // format 0 occasions in subframe 4 of frames 0–3 (grid's TestPRACHInSpan):
 // the table names the subframe, and offers 0–5 ms for frame 0's one.
 func TestPRACHSpanLongFormat(t *testing.T) {
-	data, err := os.ReadFile("../testdata/prach/fdd-long.yaml")
-	if err != nil {
-		t.Fatal(err)
-	}
-	p, err := planfile.DecodeYAML(data)
-	if err != nil {
-		t.Fatal(err)
-	}
+	p := loadPlanFile(t, "../testdata/prach/fdd-long.yaml")
 	srv, _ := newTestServer(t, testConfig(t))
 	r := get(t, srv, "/?"+planform.FormOf(p).Query())
 	wantStatus(t, r, http.StatusOK)

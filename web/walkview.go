@@ -174,10 +174,13 @@ func walkFigureOptions(st planform.State, prefix, view string) render.Options {
 	opt := st.Fig.Opt
 	opt.Caption, opt.IDPrefix = "", prefix
 	if view == viewProjector && opt.Preset.Name == "" {
-		opt.Preset = projectorPreset()
+		opt.Preset = projector
 	}
 	return opt
 }
+
+// projector is projectorPreset, made once rather than on each request.
+var projector = projectorPreset()
 
 // projectorPreset is the projector's own layout: the slide preset's 12 pt
 // on a 16:9 slide's width, with the plot laid out in the narrowest layout
